@@ -1,0 +1,144 @@
+/**
+ * Shared types of the measurement engine. The report shape is a fixed contract
+ * (field names and units are read by the worker, the web app and the CLI):
+ * add fields freely, rename none.
+ *
+ * Units: levels in dBFS (RMS referenced to a full-scale square wave, so a
+ * full-scale sine reads -3.01 dBFS RMS), loudness in LUFS / LU, true peak in
+ * dBTP, times in seconds from the first sample, frequencies in Hz. A measure
+ * that does not apply is `null`.
+ */
+
+export type Container = 'RIFF' | 'RF64';
+export type Encoding = 'pcm' | 'float';
+export type Severity = 'info' | 'warn' | 'fail';
+
+/** What the header declares, plus what the reader found in the file. */
+export interface AudioFormat {
+  container: Container;
+  encoding: Encoding;
+  /** Sample rate as declared in the `fmt ` chunk, Hz. */
+  sampleRate: number;
+  /** Container bits per sample as declared. */
+  bitsPerSample: number;
+  /** Valid bits declared by WAVE_FORMAT_EXTENSIBLE, else equal to bitsPerSample. */
+  validBitsPerSample: number;
+  channels: number;
+  /** Bytes per frame (all channels). */
+  blockAlign: number;
+  /** Byte offset of the first audio byte in the file. */
+  dataOffset: number;
+  /** Audio bytes the header declares (null when the header holds 0 or 0xFFFFFFFF). */
+  declaredDataBytes: number | null;
+  /** WAVE_FORMAT_EXTENSIBLE channel mask, when present. */
+  channelMask: number | null;
+}
+
+/**
+ * One block of decoded audio. Samples are scaled to full scale = 1.0; integer
+ * codes are exact in float64, so `sample * 2^(bits-1)` recovers the code.
+ */
+export interface SampleBlock {
+  /** One array per channel, each `frames` long (arrays may be longer; read only `frames`). */
+  channels: Float64Array[];
+  frames: number;
+  /** Index of this block's first frame in the take. */
+  startFrame: number;
+}
+
+/** Lifecycle shared by every analyzer: configure in the constructor, push blocks of any size, finish once. */
+export interface Analyzer<Result> {
+  push(block: SampleBlock): void;
+  finish(): Result;
+}
+
+export interface BextInfo {
+  description: string;
+  originator: string;
+  originatorReference: string;
+  originationDate: string;
+  originationTime: string;
+  /** Sample count since midnight (64-bit in the file). */
+  timeReference: number;
+  codingHistory: string;
+}
+
+export interface ChannelReport {
+  samplePeakDbfs: number | null;
+  truePeakDbtp: number | null;
+  rmsDbfs: number | null;
+  dcOffset: number;
+  effectiveBits: number;
+  clippedSamples: number;
+  silent: boolean;
+}
+
+export interface ClipEvent {
+  channel: number;
+  startSec: number;
+  endSec: number;
+  level: 'fullScale' | 'belowFullScale';
+  levelDbfs: number;
+}
+
+export interface Finding {
+  check:
+    | 'container' | 'format' | 'resolution' | 'clipping' | 'true-peak' | 'loudness'
+    | 'noise-floor' | 'hum' | 'bandwidth' | 'aliasing' | 'dc-offset' | 'dropout'
+    | 'silent-channel' | 'stereo' | 'tone' | 'sample-rate';
+  severity: Severity;
+  /** Plain words a producer understands. */
+  message: string;
+  channel?: number;
+  startSec?: number;
+  endSec?: number;
+}
+
+export interface AnalysisReport {
+  file: {
+    container: Container;
+    encoding: Encoding;
+    sampleRate: number;
+    bitsPerSample: number;
+    channels: number;
+    frames: number;
+    durationSec: number;
+  };
+  bext: BextInfo | null;
+  /** Raw iXML text when the file carries an `iXML` chunk. */
+  ixml?: string | null;
+  channels: ChannelReport[];
+  resolution: { effectiveBits: number; noiseLimitedBits: number | null };
+  peak: { samplePeakDbfs: number | null; truePeakDbtp: number | null };
+  clipping: { clippedSamples: number; events: ClipEvent[] };
+  loudness: {
+    integratedLufs: number | null;
+    rangeLu: number | null;
+    momentaryMaxLufs: number | null;
+    shortTermMaxLufs: number | null;
+    /** Short-term (3 s) loudness every `stepSec`, for plotting; null entries below the absolute gate. */
+    shortTermSeries?: { stepSec: number; values: (number | null)[] };
+  };
+  noise: { floorDbfs: number | null; humHz: 50 | 60 | null };
+  bandwidth: {
+    effectiveHz: number | null;
+    impliedSourceRate: number | null;
+    nearNyquistDb: number | null;
+    aliasingRisk: boolean;
+    /** Long-term average spectrum, a few hundred log-spaced points, dB relative to the passband. */
+    spectrum?: { hz: number[]; db: number[] };
+  };
+  dropouts: { startSec: number; endSec: number }[];
+  stereo: { correlation: number; identicalChannels: boolean; polarityInverted: boolean } | null;
+  tone: {
+    startSec: number;
+    endSec: number;
+    frequencyHz: number;
+    levelDbfs: number;
+    sinadDb: number;
+    thdnDb: number;
+    enobBits: number;
+    likelyRecordedRate: number | null;
+  } | null;
+  findings: Finding[];
+}
