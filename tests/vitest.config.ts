@@ -4,11 +4,12 @@ import { fileURLToPath } from 'node:url';
 export default defineConfig({
   resolve: {
     alias: {
-      '@': fileURLToPath(new URL('./', import.meta.url)),
+      '@': fileURLToPath(new URL('../', import.meta.url)),
       // `server-only` throws outside React Server Components; tests run server code directly.
-      'server-only': fileURLToPath(new URL('./tests/support/server-only.mock.ts', import.meta.url)),
+      'server-only': fileURLToPath(new URL('./support/server-only.mock.ts', import.meta.url)),
     },
   },
+  root: fileURLToPath(new URL('../', import.meta.url)),
   test: {
     include: ['tests/**/*.test.ts'],
     testTimeout: 60_000,
