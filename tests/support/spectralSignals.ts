@@ -1,0 +1,152 @@
+/**
+ * Small signal generators and helpers for the spectral analyzer tests. Every
+ * fixture is computed here or by sox/ffmpeg at test time; nothing is stored.
+ */
+import { execFileSync } from 'node:child_process';
+import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import wavefile from 'wavefile';
+import type { Analyzer, AudioFormat, SampleBlock } from '@/dsp/types';
+
+const { WaveFile } = wavefile;
+
+/** Deterministic PRNG (mulberry32), uniform in [0, 1). */
+export function seededRandom(seed: number): () => number {
+  let a = seed >>> 0;
+  return () => {
+    a = (a + 0x6d2b79f5) >>> 0;
+    let t = a;
+    t = Math.imul(t ^ (t >>> 15), t | 1);
+    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
+    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
+  };
+}
+
+/** Standard normal deviates by Box–Muller. */
+export function gaussian(rand: () => number): () => number {
+  return () => {
+    const u = Math.max(1e-300, rand());
+    return Math.sqrt(-2 * Math.log(u)) * Math.cos(2 * Math.PI * rand());
+  };
+}
+
+/** A format as the reader would describe a PCM file. */
+export function pcmFormat(sampleRate: number, channels: number, bits = 24, frames: number | null = null): AudioFormat {
+  const blockAlign = channels * Math.ceil(bits / 8);
+  return {
+    container: 'RIFF',
+    encoding: 'pcm',
+    sampleRate,
+    bitsPerSample: bits,
+    validBitsPerSample: bits,
+    channels,
+    blockAlign,
+    dataOffset: 44,
+    declaredDataBytes: frames === null ? null : frames * blockAlign,
+    channelMask: null,
+  };
+}
+
+/** White Gaussian noise with the given RMS (full scale 1.0). */
+export function whiteNoise(frames: number, rms: number, seed: number): Float64Array {
+  const g = gaussian(seededRandom(seed));
+  const x = new Float64Array(frames);
+  for (let i = 0; i < frames; i++) x[i] = rms * g();
+  return x;
+}
+
+/**
+ * Pink (1/f) noise: white noise through Paul Kellet's economy three-pole filter
+ * (±0.5 dB of −3 dB/octave above ~ fs/1000) [from memory], scaled to `rms`.
+ */
+export function pinkNoise(frames: number, rms: number, seed: number): Float64Array {
+  const g = gaussian(seededRandom(seed));
+  const x = new Float64Array(frames);
+  let b0 = 0, b1 = 0, b2 = 0;
+  let sumSq = 0;
+  for (let i = 0; i < frames; i++) {
+    const w = g();
+    b0 = 0.99765 * b0 + w * 0.099046;
+    b1 = 0.963 * b1 + w * 0.2965164;
+    b2 = 0.57 * b2 + w * 1.0526913;
+    x[i] = b0 + b1 + b2 + w * 0.1848;
+    sumSq += x[i] * x[i];
+  }
+  const k = rms / Math.sqrt(sumSq / frames);
+  for (let i = 0; i < frames; i++) x[i] *= k;
+  return x;
+}
+
+/** A sine of peak amplitude `amplitude` at `hz`, sampled at `sampleRate` (the frequency may exceed Nyquist: it then folds). */
+export function sine(frames: number, sampleRate: number, hz: number, amplitude: number, phase = 0): Float64Array {
+  const x = new Float64Array(frames);
+  const w = (2 * Math.PI * hz) / sampleRate;
+  for (let i = 0; i < frames; i++) x[i] = amplitude * Math.sin(w * i + phase);
+  return x;
+}
+
+export function addInto(target: Float64Array, source: Float64Array, gain = 1): Float64Array {
+  for (let i = 0; i < target.length; i++) target[i] += gain * source[i];
+  return target;
+}
+
+/**
+ * Mid-tread quantiser to `bits` (codes −2^(bits−1) … 2^(bits−1)−1), optionally with
+ * TPDF dither of 2 LSB peak-to-peak (sum of two uniform ±0.5 LSB variables).
+ */
+export function quantise(x: Float64Array, bits: number, tpdfSeed: number | null = null): Float64Array {
+  const scale = 2 ** (bits - 1);
+  const rand = tpdfSeed === null ? null : seededRandom(tpdfSeed);
+  const y = new Float64Array(x.length);
+  for (let i = 0; i < x.length; i++) {
+    const d = rand ? rand() - rand() : 0;
+    const code = Math.max(-scale, Math.min(scale - 1, Math.round(x[i] * scale + d)));
+    y[i] = code / scale;
+  }
+  return y;
+}
+
+/** Pushes the channels through an analyzer in blocks of `blockFrames` (varied sizes exercise the block logic). */
+export function pushInBlocks<R>(analyzer: Analyzer<R>, channels: Float64Array[], blockFrames: number | number[]): R {
+  const frames = channels[0].length;
+  const sizes = Array.isArray(blockFrames) ? blockFrames : [blockFrames];
+  let start = 0;
+  let i = 0;
+  while (start < frames) {
+    const n = Math.min(sizes[i++ % sizes.length], frames - start);
+    const block: SampleBlock = { channels: channels.map((c) => c.subarray(start, start + n)), frames: n, startFrame: start };
+    analyzer.push(block);
+    start += n;
+  }
+  return analyzer.finish();
+}
+
+/** Runs a command-line fixture generator (sox, ffmpeg) in a scratch directory and decodes the WAV it writes. */
+export function generateWithTool(
+  tool: 'sox' | 'ffmpeg',
+  argsFor: (outFile: string) => string[],
+): { sampleRate: number; bits: number; channels: Float64Array[] } {
+  const dir = mkdtempSync(join(tmpdir(), 'spectral-fixture-'));
+  try {
+    const out = join(dir, 'fixture.wav');
+    execFileSync(`/usr/bin/${tool}`, argsFor(out), { stdio: ['ignore', 'ignore', 'pipe'] });
+    return decodeWav(readFileSync(out));
+  } finally {
+    rmSync(dir, { recursive: true, force: true });
+  }
+}
+
+/** Decodes integer-PCM WAV bytes to float channels, full scale 1.0 (wavefile does the parsing). */
+export function decodeWav(bytes: Uint8Array): { sampleRate: number; bits: number; channels: Float64Array[] } {
+  const wav = new WaveFile(bytes);
+  const fmt = wav.fmt as { sampleRate: number; bitsPerSample: number; numChannels: number };
+  const raw = wav.getSamples(false, Float64Array) as unknown as Float64Array[] | Float64Array;
+  const perChannel = fmt.numChannels === 1 ? [raw as Float64Array] : (raw as Float64Array[]);
+  const scale = 2 ** (fmt.bitsPerSample - 1);
+  return {
+    sampleRate: fmt.sampleRate,
+    bits: fmt.bitsPerSample,
+    channels: perChannel.map((c) => Float64Array.from(c, (v) => v / scale)),
+  };
+}
