@@ -1,0 +1,246 @@
+import type { Analyzer, AudioFormat, ClipEvent, SampleBlock } from '../types';
+
+/** Consecutive samples at the limit that make a clip [common practice: 3, range 2-10]. */
+export const MIN_CLIP_RUN = 3;
+/** Events closer than this on one channel are merged into one, seconds [common practice]. */
+const MERGE_GAP_SEC = 0.02;
+/** Flat tops below this level are not examined (a clip that quiet is not an overload), linear (-20 dBFS) [common practice]. */
+const MIN_FLAT_TOP_LEVEL = 0.1;
+/** Samples on a flat top stay within this fraction of its level (0.0087 dB), allowing converter noise [common practice]. */
+const FLAT_TOP_RELATIVE_TOLERANCE = 1e-3;
+/** ...or within this many LSBs, whichever is larger [common practice]. */
+const FLAT_TOP_LSB_TOLERANCE = 4;
+/** The signal must approach a flat top this many tolerances per sample faster than a rounded (unclipped) peak can [common practice]. */
+const ENTRY_SLOPE_FACTOR = 4;
+/** Flat tops must lie within this many dB of the channel's extreme on that polarity [common practice]. */
+const EXTREME_LEVEL_WINDOW_DB = 0.5;
+/** At least this many flat tops at the extreme make a below-full-scale clip [common practice]. */
+const MIN_FLAT_TOPS = 3;
+/** Histogram bins per unit of full scale (magnitudes >= MIN_FLAT_TOP_LEVEL only). */
+const HISTOGRAM_BINS_PER_UNIT = 2048;
+/** The flat-top level's bin must hold this many times the mean of the bins just below it [common practice]. */
+const HISTOGRAM_SPIKE_RATIO = 4;
+/** Merged groups kept per channel and kind; clean audio has a handful. */
+const MAX_GROUPS = 100_000;
+
+export interface ClippingResult {
+  clippedSamples: number;
+  events: ClipEvent[];
+  /** Clipped samples per channel. */
+  channelClippedSamples: number[];
+}
+
+/** A run of clipped samples, or several close runs merged. */
+interface ClipGroup {
+  start: number;
+  end: number;
+  /** |level| of the flat top (linear, full scale = 1.0). */
+  level: number;
+  samples: number;
+  runs: number;
+}
+
+/** Run state, merged groups and histograms of one channel. */
+class ChannelClipState {
+  fullScaleRunStart = 0;
+  fullScaleRunLength = 0;
+  fullScaleRunSign = 0;
+  readonly fullScaleGroups: ClipGroup[] = [];
+  flatRunStart = 0;
+  flatRunLength = 0;
+  flatRunReference = 0;
+  flatRunEntrySlope = 0;
+  previous1 = 0;
+  previous2 = 0;
+  positivePeak = 0;
+  negativePeak = 0;
+  /** Flat-top candidates merged per polarity (index 0 positive, 1 negative). */
+  readonly flatTopGroups: [ClipGroup[], ClipGroup[]] = [[], []];
+  readonly positiveHistogram = new Float64Array(HISTOGRAM_BINS_PER_UNIT + 2);
+  readonly negativeHistogram = new Float64Array(HISTOGRAM_BINS_PER_UNIT + 2);
+}
+
+/**
+ * Clipping, two kinds:
+ * - `fullScale`: runs of >= 3 consecutive samples at the top codes (digital overload);
+ * - `belowFullScale`: flat tops left by an analogue stage that clipped before the
+ *   converter and a gain stage after it. A flat top is a run of >= 3 samples of one
+ *   polarity within a small tolerance of each other (converter noise allowed), entered
+ *   faster than any rounded peak could be, at the channel's extreme level on that
+ *   polarity, where the sample-value histogram shows a spike. A clean take with high
+ *   peaks (a -0.1 dBFS sine, loud noise) has no such flat tops.
+ */
+export class ClippingAnalyzer implements Analyzer<ClippingResult> {
+  private readonly sampleRate: number;
+  private readonly channelCount: number;
+  private readonly positiveLimit: number;
+  private readonly negativeLimit: number;
+  private readonly toleranceFloor: number;
+  private readonly states: ChannelClipState[];
+  private readonly mergeGapFrames: number;
+
+  /** @param format encoding and valid bits decide the top codes and the LSB */
+  constructor(format: AudioFormat) {
+    if (!(format.channels >= 1)) throw new RangeError('Clipping needs at least one channel');
+    this.sampleRate = format.sampleRate;
+    this.channelCount = format.channels;
+    if (format.encoding === 'float') {
+      // Float: at or beyond the 16-bit top code, so float files carrying 16- or 24-bit data are covered.
+      this.positiveLimit = 1 - 2 ** -15;
+      this.negativeLimit = -(1 - 2 ** -15);
+      this.toleranceFloor = FLAT_TOP_LSB_TOLERANCE * 2 ** -23;
+    } else {
+      const validBits = Math.min(format.validBitsPerSample || format.bitsPerSample, format.bitsPerSample);
+      // Top codes: +(2^(n-1) - 1) and -2^(n-1) of the valid bits, left-justified (WAVEFORMATEXTENSIBLE).
+      this.positiveLimit = 1 - 2 ** (1 - validBits);
+      this.negativeLimit = -1;
+      this.toleranceFloor = FLAT_TOP_LSB_TOLERANCE * 2 ** (1 - validBits);
+    }
+    this.mergeGapFrames = Math.round(MERGE_GAP_SEC * format.sampleRate);
+    this.states = Array.from({ length: format.channels }, () => new ChannelClipState());
+  }
+
+  push(block: SampleBlock): void {
+    for (let channel = 0; channel < this.channelCount; channel++) this.pushChannel(this.states[channel], block.channels[channel], block.frames, block.startFrame);
+  }
+
+  private pushChannel(state: ChannelClipState, samples: Float64Array, frames: number, startFrame: number): void {
+    const positiveLimit = this.positiveLimit;
+    const negativeLimit = this.negativeLimit;
+    let previous1 = state.previous1;
+    let previous2 = state.previous2;
+    for (let i = 0; i < frames; i++) {
+      const x = samples[i];
+      const frame = startFrame + i;
+      const magnitude = x < 0 ? -x : x;
+
+      // Full-scale runs.
+      const atLimit = x >= positiveLimit ? 1 : x <= negativeLimit ? -1 : 0;
+      if (atLimit !== 0 && atLimit === state.fullScaleRunSign) {
+        state.fullScaleRunLength++;
+      } else {
+        if (state.fullScaleRunLength >= MIN_CLIP_RUN) this.addRun(state.fullScaleGroups, state.fullScaleRunStart, state.fullScaleRunLength, 1, Number.POSITIVE_INFINITY);
+        state.fullScaleRunSign = atLimit;
+        state.fullScaleRunStart = frame;
+        state.fullScaleRunLength = atLimit !== 0 ? 1 : 0;
+      }
+
+      if (magnitude >= MIN_FLAT_TOP_LEVEL) {
+        if (x > 0) {
+          if (x > state.positivePeak) state.positivePeak = x;
+          state.positiveHistogram[Math.min(HISTOGRAM_BINS_PER_UNIT + 1, Math.floor(x * HISTOGRAM_BINS_PER_UNIT))]++;
+        } else {
+          if (magnitude > state.negativePeak) state.negativePeak = magnitude;
+          state.negativeHistogram[Math.min(HISTOGRAM_BINS_PER_UNIT + 1, Math.floor(magnitude * HISTOGRAM_BINS_PER_UNIT))]++;
+        }
+      }
+
+      // Flat-top runs below full scale.
+      const reference = state.flatRunReference;
+      const tolerance = Math.max(this.toleranceFloor, (reference < 0 ? -reference : reference) * FLAT_TOP_RELATIVE_TOLERANCE);
+      if (state.flatRunLength > 0 && atLimit === 0 && (x > 0) === (reference > 0) && Math.abs(x - reference) <= tolerance) {
+        state.flatRunLength++;
+      } else {
+        if (state.flatRunLength >= MIN_CLIP_RUN) this.closeFlatRun(state);
+        state.flatRunLength = 0;
+        if (magnitude >= MIN_FLAT_TOP_LEVEL && atLimit === 0) {
+          state.flatRunStart = frame;
+          state.flatRunReference = x;
+          state.flatRunLength = 1;
+          // How fast |x| was rising into this sample (over the last two steps).
+          const previousMagnitude1 = previous1 < 0 ? -previous1 : previous1;
+          const previousMagnitude2 = previous2 < 0 ? -previous2 : previous2;
+          state.flatRunEntrySlope = Math.max(magnitude - previousMagnitude1, previousMagnitude1 - previousMagnitude2);
+        }
+      }
+      previous2 = previous1;
+      previous1 = x;
+    }
+    state.previous1 = previous1;
+    state.previous2 = previous2;
+  }
+
+  /** Adds a run to the groups, merging it into the last group when close in time and (for flat tops) in level. */
+  private addRun(groups: ClipGroup[], start: number, length: number, level: number, levelTolerance: number): void {
+    const last = groups[groups.length - 1];
+    if (last && start - last.end <= this.mergeGapFrames && Math.abs(last.level - level) <= levelTolerance) {
+      last.end = start + length;
+      last.samples += length;
+      last.runs++;
+      if (level > last.level) last.level = level;
+      return;
+    }
+    if (groups.length < MAX_GROUPS) groups.push({ start, end: start + length, level, samples: length, runs: 1 });
+  }
+
+  private closeFlatRun(state: ChannelClipState): void {
+    const reference = state.flatRunReference;
+    const magnitude = Math.abs(reference);
+    const tolerance = Math.max(this.toleranceFloor, magnitude * FLAT_TOP_RELATIVE_TOLERANCE);
+    if (state.flatRunEntrySlope < ENTRY_SLOPE_FACTOR * tolerance) return;
+    this.addRun(state.flatTopGroups[reference > 0 ? 0 : 1], state.flatRunStart, state.flatRunLength, magnitude, 2 * tolerance);
+  }
+
+  /** True when the histogram bins at `level` hold a spike over the bins just below. */
+  private static isHistogramSpike(histogram: Float64Array, level: number, tolerance: number): boolean {
+    const low = Math.floor((level - tolerance) * HISTOGRAM_BINS_PER_UNIT);
+    const high = Math.min(HISTOGRAM_BINS_PER_UNIT + 1, Math.floor((level + tolerance) * HISTOGRAM_BINS_PER_UNIT));
+    let spike = 0;
+    for (let bin = low; bin <= high; bin++) spike = Math.max(spike, histogram[bin]);
+    const width = 16;
+    let below = 0;
+    for (let bin = low - width - 1; bin < low - 1; bin++) below += bin >= 0 ? histogram[bin] : 0;
+    return spike >= HISTOGRAM_SPIKE_RATIO * Math.max(1, below / width);
+  }
+
+  finish(): ClippingResult {
+    const events: ClipEvent[] = [];
+    const channelClippedSamples: number[] = [];
+    for (let channel = 0; channel < this.channelCount; channel++) {
+      const state = this.states[channel];
+      if (state.flatRunLength >= MIN_CLIP_RUN) this.closeFlatRun(state);
+      if (state.fullScaleRunLength >= MIN_CLIP_RUN) this.addRun(state.fullScaleGroups, state.fullScaleRunStart, state.fullScaleRunLength, 1, Number.POSITIVE_INFINITY);
+      const kept: (ClipGroup & { kind: ClipEvent['level'] })[] = state.fullScaleGroups.map((group) => ({ ...group, kind: 'fullScale' as const }));
+      for (const polarity of [0, 1] as const) {
+        const extreme = polarity === 0 ? state.positivePeak : state.negativePeak;
+        const floorLevel = extreme * 10 ** (-EXTREME_LEVEL_WINDOW_DB / 20);
+        const atExtreme = state.flatTopGroups[polarity].filter((group) => group.level >= floorLevel);
+        const flatTops = atExtreme.reduce((sum, group) => sum + group.runs, 0);
+        if (flatTops < MIN_FLAT_TOPS) continue;
+        const meanLevel = atExtreme.reduce((sum, group) => sum + group.level * group.runs, 0) / flatTops;
+        const tolerance = Math.max(this.toleranceFloor, meanLevel * FLAT_TOP_RELATIVE_TOLERANCE);
+        const histogram = polarity === 0 ? state.positiveHistogram : state.negativeHistogram;
+        if (!ClippingAnalyzer.isHistogramSpike(histogram, meanLevel, tolerance)) continue;
+        for (const group of atExtreme) kept.push({ ...group, kind: 'belowFullScale' });
+      }
+      kept.sort((a, b) => a.start - b.start);
+      // Merge across polarities: one clipped passage is one event.
+      let current: (ClipGroup & { kind: ClipEvent['level'] }) | null = null;
+      let clipped = 0;
+      const emit = () => {
+        if (!current) return;
+        events.push({
+          channel,
+          startSec: current.start / this.sampleRate,
+          endSec: current.end / this.sampleRate,
+          level: current.kind,
+          levelDbfs: current.kind === 'fullScale' ? 0 : Math.round(20 * Math.log10(current.level) * 100) / 100,
+        });
+      };
+      for (const group of kept) {
+        clipped += group.samples;
+        if (current && current.kind === group.kind && group.start - current.end <= this.mergeGapFrames) {
+          current.end = Math.max(current.end, group.end);
+          current.level = Math.max(current.level, group.level);
+        } else {
+          emit();
+          current = { ...group };
+        }
+      }
+      emit();
+      channelClippedSamples.push(clipped);
+    }
+    events.sort((a, b) => a.startSec - b.startSec || a.channel - b.channel);
+    return { clippedSamples: channelClippedSamples.reduce((a, b) => a + b, 0), events, channelClippedSamples };
+  }
+}

@@ -1,0 +1,73 @@
+import type { Analyzer, AudioFormat, SampleBlock } from '../types';
+
+/** Shortest digital-silence gap reported as a dropout, seconds [common practice: 1-10 ms]. */
+export const DEFAULT_MIN_DROPOUT_SEC = 0.005;
+/** Dropouts kept in the report; more are counted but not listed. */
+const MAX_LISTED_DROPOUTS = 10_000;
+
+export interface DropoutResult {
+  dropouts: { startSec: number; endSec: number }[];
+  /** All dropouts found, including those beyond the listed ones. */
+  dropoutCount: number;
+}
+
+/**
+ * Dropouts: runs of exact digital zero on every channel at once, at least
+ * `minDurationSec` long, with signal before and after (silence at the head or
+ * tail of a take is not a dropout).
+ */
+export class DropoutAnalyzer implements Analyzer<DropoutResult> {
+  private readonly sampleRate: number;
+  private readonly channelCount: number;
+  private readonly minFrames: number;
+  private allZero: Uint8Array = new Uint8Array(0);
+  /** First frame of the current all-zero run, or -1 when the last frame carried signal. */
+  private zeroRunStart = -1;
+  private signalSeen = false;
+  private readonly found: { startSec: number; endSec: number }[] = [];
+  private count = 0;
+
+  /**
+   * @param format sample rate and channel count
+   * @param options.minDurationSec shortest gap to report, seconds (default 0.005)
+   */
+  constructor(format: AudioFormat, options: { minDurationSec?: number } = {}) {
+    const minDurationSec = options.minDurationSec ?? DEFAULT_MIN_DROPOUT_SEC;
+    if (!(minDurationSec > 0)) throw new RangeError('The shortest dropout must be longer than 0 s');
+    this.sampleRate = format.sampleRate;
+    this.channelCount = format.channels;
+    this.minFrames = Math.max(1, Math.round(minDurationSec * format.sampleRate));
+  }
+
+  push(block: SampleBlock): void {
+    const frames = block.frames;
+    if (this.allZero.length < frames) this.allZero = new Uint8Array(frames);
+    const allZero = this.allZero;
+    allZero.fill(1, 0, frames);
+    for (let channel = 0; channel < this.channelCount; channel++) {
+      const samples = block.channels[channel];
+      for (let i = 0; i < frames; i++) if (samples[i] !== 0) allZero[i] = 0;
+    }
+    for (let i = 0; i < frames; i++) {
+      const frame = block.startFrame + i;
+      if (allZero[i]) {
+        if (this.zeroRunStart < 0) this.zeroRunStart = frame;
+        continue;
+      }
+      if (this.zeroRunStart >= 0 && this.signalSeen && frame - this.zeroRunStart >= this.minFrames) this.record(this.zeroRunStart, frame);
+      this.zeroRunStart = -1;
+      this.signalSeen = true;
+    }
+  }
+
+  private record(startFrame: number, endFrame: number): void {
+    this.count++;
+    if (this.found.length < MAX_LISTED_DROPOUTS) {
+      this.found.push({ startSec: startFrame / this.sampleRate, endSec: endFrame / this.sampleRate });
+    }
+  }
+
+  finish(): DropoutResult {
+    return { dropouts: this.found, dropoutCount: this.count };
+  }
+}

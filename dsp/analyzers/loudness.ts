@@ -1,0 +1,231 @@
+import { loudnessChannelWeights } from '../channelWeights';
+import { KWeightingFilter } from '../filters/kWeighting';
+import type { Analyzer, AudioFormat, SampleBlock } from '../types';
+import { GrowableFloat64Array } from '../util/GrowableFloat64Array';
+
+/** Loudness of a weighted mean square (BS.1770 eq. 2): -0.691 cancels the K gain at 997 Hz. */
+const LOUDNESS_OFFSET_DB = -0.691;
+/** BS.1770 absolute gate, LKFS; also the Tech 3342 absolute gate. */
+const ABSOLUTE_GATE_LUFS = -70;
+/** BS.1770 relative gate below the absolute-gated loudness, LU. */
+const INTEGRATED_RELATIVE_GATE_LU = -10;
+/** Tech 3342 relative gate for loudness range, LU. */
+const RANGE_RELATIVE_GATE_LU = -20;
+
+/** Energy is summed in 10 ms steps: fine enough for momentary maxima (Tech 3341 case 13 needs hops of 18 ms or less). */
+const STEPS_PER_SECOND = 100;
+const MOMENTARY_STEPS = 40; // 400 ms window (Tech 3341 2.1)
+const SHORT_TERM_STEPS = 300; // 3 s window (Tech 3341 2.1)
+const GATING_HOP_STEPS = 10; // 400 ms blocks, 75% overlap = 100 ms hop (BS.1770 1.5)
+const SERIES_HOP_STEPS = 100; // short-term series for plotting, every 1 s
+
+export interface LoudnessResult {
+  integratedLufs: number | null;
+  rangeLu: number | null;
+  momentaryMaxLufs: number | null;
+  shortTermMaxLufs: number | null;
+  /** Short-term loudness of the 3 s (shorter at the start) ending at (i+1)·stepSec; null below -70 LUFS. */
+  shortTermSeries: { stepSec: number; values: (number | null)[] };
+}
+
+const loudnessOf = (weightedMeanSquare: number) => LOUDNESS_OFFSET_DB + 10 * Math.log10(weightedMeanSquare);
+
+/**
+ * BS.1770-4 loudness with EBU Tech 3341 time scales and EBU Tech 3342 loudness range.
+ * Keeps a 3 s ring of 10 ms energy sums plus one number per 100 ms of audio
+ * (gating-block energies and short-term levels), about 0.6 MB per hour.
+ */
+export class LoudnessAnalyzer implements Analyzer<LoudnessResult> {
+  private readonly sampleRate: number;
+  private readonly channelWeights: Float64Array;
+  private readonly filters: KWeightingFilter[];
+  private kWeighted: Float64Array = new Float64Array(0);
+  /** Per-block energy of each 10 ms segment in the block, summed over weighted channels. */
+  private segmentEnergy: Float64Array = new Float64Array(0);
+  private segmentEnds: Int32Array = new Int32Array(0);
+  /** Ring of the last SHORT_TERM_STEPS completed steps: channel-weighted sums of K-weighted squares, and sample counts. */
+  private readonly stepEnergyRing = new Float64Array(SHORT_TERM_STEPS);
+  private readonly stepFramesRing = new Float64Array(SHORT_TERM_STEPS);
+  private completedSteps = 0;
+  private currentStepEnergy = 0;
+  private currentStepFrames = 0;
+  private framesSeen = 0;
+  /** Channel-weighted mean square of each 400 ms gating block. */
+  private readonly gatingBlockMeanSquares = new GrowableFloat64Array(4096);
+  /** Short-term loudness every 100 ms, for the loudness range. */
+  private readonly shortTermLevels = new GrowableFloat64Array(4096);
+  private readonly seriesValues: (number | null)[] = [];
+  private momentaryMaxMeanSquare = 0;
+  private shortTermMaxMeanSquare = 0;
+
+  /**
+   * @param format sample rate (Hz) and channel layout; weights follow BS.1770 Table 3
+   * @param options.channelWeights override of the per-channel weights G_i
+   */
+  constructor(format: AudioFormat, options: { channelWeights?: ArrayLike<number> } = {}) {
+    if (!(format.sampleRate >= 8000)) throw new RangeError(`Loudness needs a sample rate of at least 8 kHz, got ${format.sampleRate}`);
+    if (!(format.channels >= 1)) throw new RangeError('Loudness needs at least one channel');
+    this.sampleRate = format.sampleRate;
+    this.channelWeights = options.channelWeights
+      ? Float64Array.from(options.channelWeights)
+      : loudnessChannelWeights(format.channels, format.channelMask);
+    if (this.channelWeights.length !== format.channels) throw new RangeError('One channel weight per channel is needed');
+    this.filters = Array.from({ length: format.channels }, () => new KWeightingFilter(format.sampleRate));
+  }
+
+  /** First frame of step `step`: steps tile the take at round(step·fs/100), so 400 ms blocks are exact to the nearest sample. */
+  private stepStartFrame(step: number): number {
+    return Math.round((step * this.sampleRate) / STEPS_PER_SECOND);
+  }
+
+  push(block: SampleBlock): void {
+    const frames = block.frames;
+    if (frames === 0) return;
+    if (this.kWeighted.length < frames) {
+      this.kWeighted = new Float64Array(frames);
+      // At most one segment per 10 ms plus the partial ones at both ends.
+      const maxSegments = Math.ceil((frames * STEPS_PER_SECOND) / this.sampleRate) + 2;
+      this.segmentEnergy = new Float64Array(maxSegments);
+      this.segmentEnds = new Int32Array(maxSegments);
+    }
+    // Cut the block where 10 ms steps end.
+    let segmentCount = 0;
+    let stepEnd = this.stepStartFrame(this.completedSteps + 1) - this.framesSeen;
+    for (let step = this.completedSteps + 1; stepEnd < frames; ) {
+      this.segmentEnds[segmentCount++] = stepEnd;
+      step++;
+      stepEnd = this.stepStartFrame(step) - this.framesSeen;
+    }
+    this.segmentEnds[segmentCount++] = frames;
+    this.segmentEnergy.fill(0, 0, segmentCount);
+
+    for (let channel = 0; channel < this.filters.length; channel++) {
+      const weight = this.channelWeights[channel];
+      if (weight === 0) continue;
+      const kWeighted = this.kWeighted;
+      this.filters[channel].process(block.channels[channel], kWeighted, frames);
+      let start = 0;
+      for (let segment = 0; segment < segmentCount; segment++) {
+        const end = this.segmentEnds[segment];
+        let kWeightedSquareSum = 0;
+        for (let i = start; i < end; i++) kWeightedSquareSum += kWeighted[i] * kWeighted[i];
+        this.segmentEnergy[segment] += weight * kWeightedSquareSum;
+        start = end;
+      }
+    }
+
+    let start = 0;
+    for (let segment = 0; segment < segmentCount; segment++) {
+      const end = this.segmentEnds[segment];
+      this.currentStepEnergy += this.segmentEnergy[segment];
+      this.currentStepFrames += end - start;
+      start = end;
+      if (segment < segmentCount - 1) this.completeStep();
+    }
+    this.framesSeen += frames;
+    // The last segment may itself close a step exactly at the block end.
+    if (this.framesSeen === this.stepStartFrame(this.completedSteps + 1)) this.completeStep();
+  }
+
+  /** Weighted mean square over the last `steps` completed steps. */
+  private meanSquareOfLast(steps: number): number {
+    let energy = 0;
+    let frames = 0;
+    for (let back = 1; back <= steps; back++) {
+      const slot = (this.completedSteps - back) % SHORT_TERM_STEPS;
+      energy += this.stepEnergyRing[slot];
+      frames += this.stepFramesRing[slot];
+    }
+    return frames > 0 ? energy / frames : 0;
+  }
+
+  private completeStep(): void {
+    const slot = this.completedSteps % SHORT_TERM_STEPS;
+    this.stepEnergyRing[slot] = this.currentStepEnergy;
+    this.stepFramesRing[slot] = this.currentStepFrames;
+    this.currentStepEnergy = 0;
+    this.currentStepFrames = 0;
+    const steps = ++this.completedSteps;
+
+    if (steps >= MOMENTARY_STEPS) {
+      const momentary = this.meanSquareOfLast(MOMENTARY_STEPS);
+      if (momentary > this.momentaryMaxMeanSquare) this.momentaryMaxMeanSquare = momentary;
+      if (steps % GATING_HOP_STEPS === 0) this.gatingBlockMeanSquares.push(momentary);
+    }
+    if (steps >= SHORT_TERM_STEPS) {
+      const shortTerm = this.meanSquareOfLast(SHORT_TERM_STEPS);
+      if (shortTerm > this.shortTermMaxMeanSquare) this.shortTermMaxMeanSquare = shortTerm;
+      if (steps % GATING_HOP_STEPS === 0) this.shortTermLevels.push(shortTerm > 0 ? loudnessOf(shortTerm) : Number.NEGATIVE_INFINITY);
+    }
+    if (steps % SERIES_HOP_STEPS === 0) {
+      const windowMeanSquare = this.meanSquareOfLast(Math.min(steps, SHORT_TERM_STEPS));
+      const level = windowMeanSquare > 0 ? loudnessOf(windowMeanSquare) : Number.NEGATIVE_INFINITY;
+      this.seriesValues.push(level > ABSOLUTE_GATE_LUFS ? Math.round(level * 100) / 100 : null);
+    }
+  }
+
+  finish(): LoudnessResult {
+    return {
+      integratedLufs: gatedIntegratedLoudness(this.gatingBlockMeanSquares.view()),
+      rangeLu: loudnessRange(this.shortTermLevels.view()),
+      momentaryMaxLufs: this.momentaryMaxMeanSquare > 0 ? loudnessOf(this.momentaryMaxMeanSquare) : null,
+      shortTermMaxLufs: this.shortTermMaxMeanSquare > 0 ? loudnessOf(this.shortTermMaxMeanSquare) : null,
+      shortTermSeries: { stepSec: SERIES_HOP_STEPS / STEPS_PER_SECOND, values: this.seriesValues },
+    };
+  }
+}
+
+/**
+ * Gated integrated loudness, BS.1770-4 eqs. 3-7: blocks above -70 LKFS, then
+ * above (their mean loudness - 10 LU), both with strict ">".
+ * @param blockMeanSquares channel-weighted mean squares of 400 ms blocks
+ * @returns LUFS, or null when no block passes the gates
+ */
+export function gatedIntegratedLoudness(blockMeanSquares: Float64Array): number | null {
+  let absoluteGatedSum = 0;
+  let absoluteGatedCount = 0;
+  for (const meanSquare of blockMeanSquares) {
+    if (meanSquare > 0 && loudnessOf(meanSquare) > ABSOLUTE_GATE_LUFS) {
+      absoluteGatedSum += meanSquare;
+      absoluteGatedCount++;
+    }
+  }
+  if (absoluteGatedCount === 0) return null;
+  const relativeGate = loudnessOf(absoluteGatedSum / absoluteGatedCount) + INTEGRATED_RELATIVE_GATE_LU;
+  let gatedSum = 0;
+  let gatedCount = 0;
+  for (const meanSquare of blockMeanSquares) {
+    if (meanSquare <= 0) continue;
+    const level = loudnessOf(meanSquare);
+    if (level > ABSOLUTE_GATE_LUFS && level > relativeGate) {
+      gatedSum += meanSquare;
+      gatedCount++;
+    }
+  }
+  return gatedCount > 0 ? loudnessOf(gatedSum / gatedCount) : null;
+}
+
+/**
+ * Loudness range, EBU Tech 3342 section 3.1 and its reference code: short-term levels
+ * gated at >= -70 LUFS and >= (power mean - 20 LU), then the 95th minus the 10th
+ * nearest-rank percentile.
+ * @param shortTermLufs short-term levels at >= 10 Hz
+ * @returns LU, or null when no level passes the gates
+ */
+export function loudnessRange(shortTermLufs: Float64Array): number | null {
+  let powerSum = 0;
+  let absoluteGatedCount = 0;
+  for (const level of shortTermLufs) {
+    if (level >= ABSOLUTE_GATE_LUFS) {
+      powerSum += 10 ** (level / 10);
+      absoluteGatedCount++;
+    }
+  }
+  if (absoluteGatedCount === 0) return null;
+  const relativeGate = 10 * Math.log10(powerSum / absoluteGatedCount) + RANGE_RELATIVE_GATE_LU;
+  const gated = Float64Array.from(shortTermLufs.filter((level) => level >= ABSOLUTE_GATE_LUFS && level >= relativeGate)).sort();
+  const count = gated.length;
+  // MATLAB-style 1-based nearest rank with halves rounded up: floor(x + 0.5).
+  const percentile = (percent: number) => gated[Math.floor(((count - 1) * percent) / 100 + 1 + 0.5) - 1];
+  return percentile(95) - percentile(10);
+}
