@@ -150,3 +150,58 @@ export function decodeWav(bytes: Uint8Array): { sampleRate: number; bits: number
     channels: perChannel.map((c) => Float64Array.from(c, (v) => v / scale)),
   };
 }
+
+/**
+ * Speech-like test material: a harmonic voice-like source (20 harmonics falling
+ * 6 dB/octave) whose fundamental glides 80–160 Hz, cut into syllables of
+ * 150–350 ms with short gaps and a pause of 0.4–0.9 s every few syllables.
+ * `peak` scales the loudest syllable. Deterministic for a seed.
+ */
+export function speechLike(frames: number, sampleRate: number, peak: number, seed: number): Float64Array {
+  const rand = seededRandom(seed);
+  const envelope = new Float64Array(frames);
+  let t = Math.floor(0.2 * sampleRate);
+  let syllables = 0;
+  while (t < frames) {
+    const len = Math.floor((0.15 + 0.2 * rand()) * sampleRate);
+    const gain = 0.5 + 0.5 * rand();
+    for (let i = 0; i < len && t + i < frames; i++) envelope[t + i] = gain * Math.sin((Math.PI * i) / len) ** 2;
+    t += len + Math.floor((0.05 + 0.1 * rand()) * sampleRate);
+    if (++syllables % 4 === 0) t += Math.floor((0.4 + 0.5 * rand()) * sampleRate);
+  }
+  const x = new Float64Array(frames);
+  let phase = 0;
+  let maxAbs = 0;
+  for (let i = 0; i < frames; i++) {
+    const s = i / sampleRate;
+    const f0 = 120 + 30 * Math.sin(2 * Math.PI * 0.7 * s) + 10 * Math.sin(2 * Math.PI * 3.1 * s);
+    phase += (2 * Math.PI * f0) / sampleRate;
+    if (envelope[i] === 0) continue;
+    let v = 0;
+    for (let h = 1; h <= 20 && h * f0 < 0.45 * sampleRate; h++) v += Math.sin(h * phase) / h;
+    x[i] = envelope[i] * v;
+    maxAbs = Math.max(maxAbs, Math.abs(x[i]));
+  }
+  const k = maxAbs > 0 ? peak / maxAbs : 0;
+  for (let i = 0; i < frames; i++) x[i] *= k;
+  return x;
+}
+
+/** Mains hum: `base` Hz and its harmonics 2…6 with falling amplitudes; `rmsDbfs` sets the total RMS (square-wave reference). */
+export function mainsHum(frames: number, sampleRate: number, base: 50 | 60, rmsDbfs: number): Float64Array {
+  const amps = [1, 0.7, 0.5, 0.35, 0.25, 0.18];
+  const x = new Float64Array(frames);
+  for (let h = 1; h <= amps.length; h++) addInto(x, sine(frames, sampleRate, h * base, amps[h - 1], 0.3 * h));
+  let ms = 0;
+  for (const a of amps) ms += (a * a) / 2;
+  const k = 10 ** (rmsDbfs / 20) / Math.sqrt(ms);
+  for (let i = 0; i < frames; i++) x[i] *= k;
+  return x;
+}
+
+/** RMS in dBFS (square-wave reference: 20·log10 of the plain RMS, full scale 1.0). */
+export function rmsDbfs(x: Float64Array): number {
+  let s = 0;
+  for (let i = 0; i < x.length; i++) s += x[i] * x[i];
+  return 10 * Math.log10(s / x.length);
+}

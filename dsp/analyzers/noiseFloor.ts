@@ -1,0 +1,341 @@
+import FFT from 'fft.js';
+import type { Analyzer, AudioFormat, SampleBlock } from '../types';
+import { assertAnalysableFormat, hannWindow } from './formatGuard';
+
+/**
+ * Noise floor of the quiet stretches and mains hum in them.
+ *
+ * Floor: the AC RMS (mean removed, so a DC offset does not count as noise) of
+ * short windows (≈ 100 ms), collected per channel in a 0.1 dB histogram; the
+ * floor is a low percentile of it, digital silence (windows of exact zeros)
+ * excluded. The report gives the noisiest channel's floor. RMS in dBFS is
+ * referenced to a full-scale square wave (a full-scale sine reads −3.01 dBFS).
+ *
+ * Hum: the signal is low-passed and decimated to ≈ 2.4 kHz by a second-order
+ * CIC (triangular) filter, cut into frames of 1024 decimated samples (≈ 0.43 s,
+ * ≈ 2.3 Hz resolution, 50 % overlap), and each frame's Hann periodogram is
+ * added to an accumulator chosen by the level of the loudest short window in
+ * the frame (2 dB classes), so only frames that lie wholly in a quiet stretch
+ * count as quiet. At the end the classes at or near the floor form the floor's
+ * spectrum, in which 50 Hz or 60 Hz harmonic lines are looked for. Memory is
+ * bounded by the class count.
+ */
+
+export interface NoiseFloorOptions {
+  /** Percentile of the short-window RMS taken as the floor, 0.5–50 %. Default 5. [common practice] */
+  floorPercentile?: number;
+  /** A harmonic counts as hum when it stands this far above the neighbouring floor spectrum, dB (3–40). Default 10. [common practice] */
+  humProminenceDb?: number;
+}
+
+export interface NoiseFloorResult {
+  /** RMS of the quietest stretches of the noisiest channel, dBFS (square-wave reference); null when there is nothing but digital silence. */
+  floorDbfs: number | null;
+  /** Mains frequency whose harmonics stand out of the floor's spectrum, or null. */
+  humHz: 50 | 60 | null;
+  /**
+   * Bits an ideal quantiser would need for its noise (uniform, Q²/12 over the full band) to equal the floor:
+   * N = (−floorDbfs − 4.77)/6.02. Null with the floor.
+   */
+  noiseLimitedBits: number | null;
+}
+
+/** Decimated rate the hum search aims at, Hz (lowest allowed; harmonics up to 8 × 60 Hz = 480 Hz fit well below its Nyquist). */
+const HUM_RATE_TARGET_HZ = 2400;
+const HUM_FFT_SIZE = 1024;
+/** Short RMS windows per hum frame (≈ 107 ms windows at 48 kHz); frames advance by half of them. */
+const WINDOWS_PER_FRAME = 4;
+const HISTOGRAM_MIN_DB = -200;
+const HISTOGRAM_STEP_DB = 0.1;
+const HISTOGRAM_BINS = 2100;
+const CLASS_STEP_DB = 2;
+/** Floor-spectrum classes reach this far above the floor, dB. [common practice] */
+const CLASS_MARGIN_DB = 6;
+const MIN_FLOOR_FRAMES = 2;
+const HARMONICS = 8;
+/** Half-width of the neighbourhood a line is compared with, Hz. */
+const NEIGHBOURHOOD_HZ = 25;
+
+export class NoiseFloorAnalyzer implements Analyzer<NoiseFloorResult> {
+  private readonly channels: number;
+  private readonly decimation: number;
+  private readonly humRate: number;
+  private readonly windowFrames: number;
+  private readonly percentile: number;
+  private readonly prominenceDb: number;
+  private readonly fft: FFT;
+  private readonly hann: Float64Array;
+  private readonly fftIn: Float64Array;
+  private readonly fftOut: Float64Array;
+  // Per channel: short-window sums, histogram, CIC state, frame buffer, recent window levels.
+  private readonly winSum: Float64Array;
+  private readonly winSumSq: Float64Array;
+  private winFill = 0;
+  private readonly histograms: Int32Array[];
+  private readonly cicPrev: Float64Array;
+  private readonly cicCur: Float64Array;
+  private cicPhase = 0;
+  private readonly frames: Float64Array[];
+  private frameFill = 0;
+  private readonly recentMs: Float64Array[];
+  private recentCount = 0;
+  /** classSpectra[channel][class] (allocated on first use) and frame counts. */
+  private readonly classSpectra: (Float64Array | null)[][];
+  private readonly classFrames: Int32Array[];
+  private finished = false;
+
+  /**
+   * @param format the take's format (sample rate 1 kHz – 768 kHz, 1–64 channels)
+   * @param options floor percentile (%) and hum prominence (dB)
+   * @throws RangeError on impossible configuration
+   */
+  constructor(format: AudioFormat, options: NoiseFloorOptions = {}) {
+    assertAnalysableFormat(format, 'NoiseFloorAnalyzer');
+    const pct = options.floorPercentile ?? 5;
+    if (!Number.isFinite(pct) || pct < 0.5 || pct > 50) {
+      throw new RangeError(`NoiseFloorAnalyzer: floorPercentile ${pct} must be from 0.5 to 50 (%).`);
+    }
+    const prom = options.humProminenceDb ?? 10;
+    if (!Number.isFinite(prom) || prom < 3 || prom > 40) {
+      throw new RangeError(`NoiseFloorAnalyzer: humProminenceDb ${prom} must be from 3 to 40 dB.`);
+    }
+    this.channels = format.channels;
+    this.percentile = pct / 100;
+    this.prominenceDb = prom;
+    this.decimation = Math.max(1, Math.floor(format.sampleRate / HUM_RATE_TARGET_HZ));
+    this.humRate = format.sampleRate / this.decimation;
+    this.windowFrames = (HUM_FFT_SIZE * this.decimation) / WINDOWS_PER_FRAME;
+    this.fft = new FFT(HUM_FFT_SIZE);
+    this.hann = hannWindow(HUM_FFT_SIZE);
+    this.fftIn = new Float64Array(HUM_FFT_SIZE);
+    this.fftOut = new Float64Array(2 * HUM_FFT_SIZE);
+    const c = this.channels;
+    this.winSum = new Float64Array(c);
+    this.winSumSq = new Float64Array(c);
+    this.histograms = Array.from({ length: c }, () => new Int32Array(HISTOGRAM_BINS));
+    this.cicPrev = new Float64Array(c);
+    this.cicCur = new Float64Array(c);
+    this.frames = Array.from({ length: c }, () => new Float64Array(HUM_FFT_SIZE));
+    this.recentMs = Array.from({ length: c }, () => new Float64Array(WINDOWS_PER_FRAME));
+    const classes = Math.ceil(-HISTOGRAM_MIN_DB / CLASS_STEP_DB) + 10;
+    this.classSpectra = Array.from({ length: c }, () => new Array<Float64Array | null>(classes).fill(null));
+    this.classFrames = Array.from({ length: c }, () => new Int32Array(classes));
+  }
+
+  push(block: SampleBlock): void {
+    if (this.finished) throw new Error('NoiseFloorAnalyzer: push() after finish().');
+    const d = this.decimation;
+    const w = this.windowFrames;
+    let i = 0;
+    while (i < block.frames) {
+      // Process up to the next window boundary, so window, CIC and frame stay in step.
+      const n = Math.min(block.frames - i, w - this.winFill);
+      const phase0 = this.cicPhase;
+      let outputs = 0;
+      for (let c = 0; c < this.channels; c++) {
+        const x = block.channels[c];
+        const frame = this.frames[c];
+        let sum = this.winSum[c];
+        let sumSq = this.winSumSq[c];
+        let prev = this.cicPrev[c];
+        let cur = this.cicCur[c];
+        let p = phase0;
+        let fill = this.frameFill;
+        for (let j = i; j < i + n; j++) {
+          const v = x[j];
+          sum += v;
+          sumSq += v * v;
+          // Second-order CIC = triangular FIR of length 2D−1 with weights 1…D…1 (sum D²):
+          // sample at phase p weighs D−1−p in the output being completed and p+1 in the next.
+          prev += v * (d - 1 - p);
+          cur += v * (p + 1);
+          if (++p === d) {
+            if (fill < HUM_FFT_SIZE) frame[fill] = prev / (d * d);
+            fill++;
+            prev = cur;
+            cur = 0;
+            p = 0;
+          }
+        }
+        this.winSum[c] = sum;
+        this.winSumSq[c] = sumSq;
+        this.cicPrev[c] = prev;
+        this.cicCur[c] = cur;
+        if (c === this.channels - 1) {
+          this.cicPhase = p;
+          outputs = fill - this.frameFill;
+        }
+      }
+      this.frameFill += outputs;
+      this.winFill += n;
+      i += n;
+      if (this.winFill === w) {
+        this.closeWindow();
+        // Windows hold 256 decimated samples each, so frames complete on window boundaries.
+        if (this.frameFill >= HUM_FFT_SIZE) this.closeFrame();
+      }
+    }
+  }
+
+  finish(): NoiseFloorResult {
+    if (this.finished) throw new Error('NoiseFloorAnalyzer: finish() called twice.');
+    this.finished = true;
+    // A last window of at least a quarter length still counts.
+    if (this.winFill >= this.windowFrames / 4) this.closeWindow();
+    let floorMs: number | null = null;
+    const floors: (number | null)[] = [];
+    for (let c = 0; c < this.channels; c++) {
+      const f = this.histogramPercentile(this.histograms[c]);
+      floors.push(f);
+      if (f !== null && (floorMs === null || f > floorMs)) floorMs = f;
+    }
+    if (floorMs === null) return { floorDbfs: null, humHz: null, noiseLimitedBits: null };
+    const floorDbfs = Math.round(floorMs * 10) / 10;
+    // Ideal quantiser noise, step Q = 2^(1−N) for full scale ±1: rms Q/√12, so
+    // 20·log10(Q/√12) = −6.02·N − 4.77 dBFS (square-wave reference).
+    const bits = (-floorMs - 10 * Math.log10(12 / 4)) / (20 * Math.log10(2));
+    return {
+      floorDbfs,
+      humHz: this.detectHum(floors),
+      noiseLimitedBits: Math.round(bits * 10) / 10,
+    };
+  }
+
+  private closeWindow(): void {
+    const n = this.winFill;
+    for (let c = 0; c < this.channels; c++) {
+      const mean = this.winSum[c] / n;
+      const acMs = Math.max(0, this.winSumSq[c] / n - mean * mean);
+      const digitalSilence = this.winSumSq[c] === 0;
+      if (!digitalSilence) {
+        const db = 10 * Math.log10(acMs > 1e-20 ? acMs : 1e-20);
+        const bin = Math.floor((db - HISTOGRAM_MIN_DB) / HISTOGRAM_STEP_DB);
+        this.histograms[c][Math.max(0, Math.min(HISTOGRAM_BINS - 1, bin))]++;
+      }
+      this.recentMs[c][this.recentCount % WINDOWS_PER_FRAME] = digitalSilence ? -1 : acMs;
+      this.winSum[c] = 0;
+      this.winSumSq[c] = 0;
+    }
+    this.recentCount++;
+    this.winFill = 0;
+  }
+
+  /** Adds each channel's frame periodogram to the class of the frame's level. */
+  private closeFrame(): void {
+    const n = HUM_FFT_SIZE;
+    for (let c = 0; c < this.channels; c++) {
+      let loudest = 0;
+      let silent = false;
+      const recent = this.recentMs[c];
+      const count = Math.min(WINDOWS_PER_FRAME, this.recentCount);
+      for (let k = 0; k < count; k++) {
+        if (recent[k] < 0) silent = true;
+        loudest = Math.max(loudest, recent[k]);
+      }
+      if (silent || count === 0 || !(loudest > 0)) continue;
+      const levelDb = 10 * Math.log10(loudest);
+      const cls = Math.max(0, Math.floor((levelDb - HISTOGRAM_MIN_DB) / CLASS_STEP_DB));
+      const frame = this.frames[c];
+      let mean = 0;
+      for (let k = 0; k < n; k++) mean += frame[k];
+      mean /= n;
+      for (let k = 0; k < n; k++) this.fftIn[k] = (frame[k] - mean) * this.hann[k];
+      this.fft.realTransform(this.fftOut, this.fftIn);
+      const spectra = this.classSpectra[c];
+      const acc = spectra[cls] ?? (spectra[cls] = new Float64Array(n / 2 + 1));
+      for (let k = 0; k <= n / 2; k++) {
+        const re = this.fftOut[2 * k];
+        const im = this.fftOut[2 * k + 1];
+        acc[k] += re * re + im * im;
+      }
+      this.classFrames[c][cls]++;
+    }
+    // 50 % overlap: keep the second half as the next frame's first half.
+    for (const frame of this.frames) frame.copyWithin(0, HUM_FFT_SIZE / 2, HUM_FFT_SIZE);
+    this.frameFill = HUM_FFT_SIZE / 2;
+  }
+
+  /** Mean square at the configured percentile of the non-silent windows, as dB; null when there are none. */
+  private histogramPercentile(hist: Int32Array): number | null {
+    let total = 0;
+    for (let b = 0; b < hist.length; b++) total += hist[b];
+    if (total === 0) return null;
+    const target = this.percentile * total;
+    let run = 0;
+    for (let b = 0; b < hist.length; b++) {
+      run += hist[b];
+      if (run >= target) return HISTOGRAM_MIN_DB + (b + 0.5) * HISTOGRAM_STEP_DB;
+    }
+    return HISTOGRAM_MIN_DB + hist.length * HISTOGRAM_STEP_DB;
+  }
+
+  /** Sums the classes at or near each channel's floor and looks for mains harmonic lines in that spectrum. */
+  private detectHum(floors: (number | null)[]): 50 | 60 | null {
+    const half = HUM_FFT_SIZE / 2;
+    const spectrum = new Float64Array(half + 1);
+    let used = 0;
+    for (let c = 0; c < this.channels; c++) {
+      const floor = floors[c];
+      if (floor === null) continue;
+      const limit = Math.floor((floor + CLASS_MARGIN_DB - HISTOGRAM_MIN_DB) / CLASS_STEP_DB);
+      const counts = this.classFrames[c];
+      let framesTaken = 0;
+      for (let cls = 0; cls < counts.length; cls++) {
+        if (counts[cls] === 0) continue;
+        if (cls > limit && framesTaken >= MIN_FLOOR_FRAMES) break;
+        const acc = this.classSpectra[c][cls]!;
+        for (let k = 0; k <= half; k++) spectrum[k] += acc[k];
+        framesTaken += counts[cls];
+      }
+      used += framesTaken;
+    }
+    if (used === 0) return null;
+    const binHz = this.humRate / HUM_FFT_SIZE;
+    const score = (mains: number): { count: number; sum: number } => {
+      let count = 0;
+      let sum = 0;
+      for (let h = 1; h <= HARMONICS; h++) {
+        const f = h * mains;
+        // 300 Hz is the 6th harmonic of 50 Hz and the 5th of 60 Hz: it tells them apart no better than silence.
+        if (f % 50 === 0 && f % 60 === 0) continue;
+        if (f + NEIGHBOURHOOD_HZ > 0.45 * this.humRate) break;
+        const prominence = lineProminence(spectrum, f, binHz);
+        if (prominence >= this.prominenceDb) {
+          count++;
+          sum += prominence;
+        }
+      }
+      return { count, sum };
+    };
+    const s50 = score(50);
+    const s60 = score(60);
+    // Hum: at least two harmonics (of the first eight) stand out. [common practice]
+    const best = s50.count > s60.count || (s50.count === s60.count && s50.sum >= s60.sum) ? { hz: 50 as const, ...s50 } : { hz: 60 as const, ...s60 };
+    return best.count >= 2 ? best.hz : null;
+  }
+}
+
+/**
+ * Prominence of a spectral line near `hz`, dB: the power of its Hann main lobe
+ * (three bins around the highest bin within ±(1.5 Hz + 0.5 %), the mains
+ * tolerance) over three times the median bin of its ±25 Hz neighbourhood
+ * without the lobe.
+ */
+function lineProminence(spectrum: Float64Array, hz: number, binHz: number): number {
+  const tol = 1.5 + 0.005 * hz;
+  const k0 = Math.max(1, Math.floor((hz - tol) / binHz));
+  const k1 = Math.min(spectrum.length - 2, Math.ceil((hz + tol) / binHz));
+  let kp = k0;
+  for (let k = k0 + 1; k <= k1; k++) if (spectrum[k] > spectrum[kp]) kp = k;
+  const line = spectrum[kp - 1] + spectrum[kp] + spectrum[kp + 1];
+  const n0 = Math.max(1, Math.floor((hz - NEIGHBOURHOOD_HZ) / binHz));
+  const n1 = Math.min(spectrum.length - 1, Math.ceil((hz + NEIGHBOURHOOD_HZ) / binHz));
+  const around: number[] = [];
+  for (let k = n0; k <= n1; k++) if (Math.abs(k - kp) > 4) around.push(spectrum[k]);
+  if (around.length === 0) return 0;
+  around.sort((a, b) => a - b);
+  const ref = 3 * around[Math.floor(around.length / 2)];
+  if (!(line > 0)) return 0;
+  if (!(ref > 0)) return 200;
+  return 10 * Math.log10(line / ref);
+}

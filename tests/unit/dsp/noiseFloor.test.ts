@@ -1,0 +1,120 @@
+import { describe, expect, it } from 'vitest';
+import { NoiseFloorAnalyzer } from '@/dsp/analyzers/noiseFloor';
+import {
+  addInto, generateWithTool, mainsHum, pcmFormat, pinkNoise, pushInBlocks, quantise, seededRandom, sine, speechLike, whiteNoise,
+} from '@/tests/support/spectralSignals';
+
+const FS = 48000;
+
+function analyse(channels: Float64Array[], sampleRate = FS, options = {}) {
+  return pushInBlocks(new NoiseFloorAnalyzer(pcmFormat(sampleRate, channels.length), options), channels, [65536, 777, 4096]);
+}
+
+describe('NoiseFloorAnalyzer: floor level', () => {
+  it('reads steady white noise at its RMS level (square-wave reference)', () => {
+    // RMS dBFS = 20·log10(rms) for full scale 1.0 (report contract convention A, standards §6.4).
+    const r = analyse([whiteNoise(FS * 6, 10 ** (-70 / 20), 1)]);
+    expect(r.floorDbfs!).toBeCloseTo(-70, 0);
+    expect(Math.abs(r.floorDbfs! + 70)).toBeLessThan(0.3);
+  });
+
+  it('reads a steady sine of amplitude 0.5 at −9.03 dBFS RMS (full-scale sine = −3.01 dBFS, §6.4)', () => {
+    const r = analyse([sine(FS * 3, FS, 997, 0.5)]);
+    expect(Math.abs(r.floorDbfs! - (20 * Math.log10(0.5) - 3.0103))).toBeLessThan(0.1);
+  });
+
+  it('finds the room noise under speech-like content with pauses', () => {
+    const x = addInto(speechLike(FS * 12, FS, 0.5, 2), whiteNoise(FS * 12, 10 ** (-72 / 20), 3));
+    const r = analyse([x]);
+    expect(Math.abs(r.floorDbfs! + 72)).toBeLessThan(1);
+  });
+
+  it('leaves digital silence out of the floor, and returns null for a silent take', () => {
+    const x = new Float64Array(FS * 8);
+    x.set(whiteNoise(FS * 3, 10 ** (-80 / 20), 4), FS * 5);
+    expect(Math.abs(analyse([x]).floorDbfs! + 80)).toBeLessThan(0.5);
+    const silent = analyse([new Float64Array(FS * 4)]);
+    expect(silent.floorDbfs).toBeNull();
+    expect(silent.humHz).toBeNull();
+    expect(silent.noiseLimitedBits).toBeNull();
+  });
+
+  it('does not count a DC offset as noise', () => {
+    const x = whiteNoise(FS * 4, 10 ** (-75 / 20), 5);
+    for (let i = 0; i < x.length; i++) x[i] += 0.01; // −40 dBFS of DC
+    expect(Math.abs(analyse([x]).floorDbfs! + 75)).toBeLessThan(0.3);
+  });
+
+  it('reports the noisiest channel', () => {
+    const r = analyse([whiteNoise(FS * 4, 10 ** (-90 / 20), 6), whiteNoise(FS * 4, 10 ** (-66 / 20), 7)]);
+    expect(Math.abs(r.floorDbfs! + 66)).toBeLessThan(0.3);
+  });
+
+  it('gives 15.2 noise-limited bits for TPDF-dithered 16-bit silence (§6.1: TPDF floor Q²/4, ENOB 15.21)', () => {
+    // Zero signal + 2 LSB p-p TPDF dither, quantised to 16 bits: total noise Q²/4 (Lipshitz et al. [from memory], simulated in §6.1).
+    const r = analyse([quantise(new Float64Array(FS * 6), 16, 11)]);
+    expect(Math.abs(r.noiseLimitedBits! - 15.21)).toBeLessThan(0.1);
+  });
+
+  it('gives 16.0 noise-limited bits for uniform noise of one 16-bit LSB step (Q²/12, ideal quantiser 6.02N + 1.76, §6.1)', () => {
+    const rand = seededRandom(12);
+    const q = 2 ** -15;
+    const x = Float64Array.from({ length: FS * 6 }, () => (rand() - 0.5) * q);
+    expect(Math.abs(analyse([x]).noiseLimitedBits! - 16)).toBeLessThan(0.1);
+  });
+});
+
+describe('NoiseFloorAnalyzer: mains hum', () => {
+  const speechOverRoom = (seed: number) =>
+    addInto(speechLike(FS * 12, FS, 0.5, seed), pinkNoise(FS * 12, 10 ** (-70 / 20), seed + 100));
+
+  it('finds 50 Hz hum with harmonics at −50 dBFS under speech-like content', () => {
+    const x = addInto(speechOverRoom(20), mainsHum(FS * 12, FS, 50, -50));
+    const r = analyse([x, x.slice()]);
+    expect(r.humHz).toBe(50);
+  });
+
+  it('finds 60 Hz hum', () => {
+    expect(analyse([addInto(speechOverRoom(21), mainsHum(FS * 12, FS, 60, -50))]).humHz).toBe(60);
+  });
+
+  it('finds 50 Hz hum in a 44.1 kHz take, 60 Hz in a 96 kHz take', () => {
+    const fs1 = 44100;
+    const a = addInto(whiteNoise(fs1 * 8, 10 ** (-70 / 20), 22), mainsHum(fs1 * 8, fs1, 50, -60));
+    expect(analyse([a], fs1).humHz).toBe(50);
+    const fs2 = 96000;
+    const b = addInto(whiteNoise(fs2 * 8, 10 ** (-70 / 20), 23), mainsHum(fs2 * 8, fs2, 60, -60));
+    expect(analyse([b], fs2).humHz).toBe(60);
+  });
+
+  it('finds a weak hum that is only a little above the broadband floor when read line by line', () => {
+    // −75 dBFS of hum in −65 dBFS of white noise: 10 dB below the noise in total, but each
+    // line sits in a 1.2 Hz bin against noise spread over 24 kHz.
+    const x = addInto(whiteNoise(FS * 10, 10 ** (-65 / 20), 24), mainsHum(FS * 10, FS, 50, -75));
+    expect(analyse([x]).humHz).toBe(50);
+  });
+
+  it('reads clean noise and speech-like content without hum as null', () => {
+    expect(analyse([whiteNoise(FS * 10, 0.001, 25)]).humHz).toBeNull();
+    expect(analyse([pinkNoise(FS * 10, 0.001, 26)]).humHz).toBeNull();
+    expect(analyse([speechOverRoom(27)]).humHz).toBeNull();
+  });
+
+  it('finds hum in a sox-made fixture (50 Hz + 100 Hz + 150 Hz sines mixed with noise)', () => {
+    // Fixture from sox's synth (outside the project): pink noise plus three mains lines.
+    const fx = generateWithTool('sox', (out) => [
+      '-n', '-r', '48000', '-b', '24', out, 'synth', '6', 'pinknoise', 'sine', '50', 'sine', '100', 'sine', '150',
+      'remix', '1v0.02,2v0.003,3v0.002,4v0.001',
+    ]);
+    expect(analyse(fx.channels).humHz).toBe(50);
+  });
+});
+
+describe('NoiseFloorAnalyzer: configuration', () => {
+  it('rejects impossible configuration with a message', () => {
+    expect(() => new NoiseFloorAnalyzer(pcmFormat(-48000, 2))).toThrow(/sample rate/);
+    expect(() => new NoiseFloorAnalyzer(pcmFormat(48000, 1.5))).toThrow(/channel count/);
+    expect(() => new NoiseFloorAnalyzer(pcmFormat(48000, 2), { floorPercentile: 0 })).toThrow(/floorPercentile/);
+    expect(() => new NoiseFloorAnalyzer(pcmFormat(48000, 2), { humProminenceDb: Number.NaN })).toThrow(/humProminenceDb/);
+  });
+});
