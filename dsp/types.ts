@@ -103,6 +103,12 @@ export interface AnalysisReport {
     channels: number;
     frames: number;
     durationSec: number;
+    /** Valid bits declared by WAVE_FORMAT_EXTENSIBLE (else equal to bitsPerSample). */
+    validBitsPerSample?: number;
+    /** WAVE_FORMAT_EXTENSIBLE channel mask, when present. */
+    channelMask?: number | null;
+    /** Header problems the reader worked around (sizes that disagree with the bytes present...), in plain words. */
+    headerIssues?: string[];
   };
   bext: BextInfo | null;
   /** Raw iXML text when the file carries an `iXML` chunk. */
@@ -116,7 +122,10 @@ export interface AnalysisReport {
     rangeLu: number | null;
     momentaryMaxLufs: number | null;
     shortTermMaxLufs: number | null;
-    /** Short-term (3 s) loudness every `stepSec`, for plotting; null entries below the absolute gate. */
+    /**
+     * Short-term (3 s) loudness every `stepSec`, for plotting; null entries below the absolute gate.
+     * values[i] is the window ending at (i+1)·stepSec (the first two windows are shorter than 3 s).
+     */
     shortTermSeries?: { stepSec: number; values: (number | null)[] };
   };
   noise: { floorDbfs: number | null; humHz: 50 | 60 | null };
@@ -129,7 +138,15 @@ export interface AnalysisReport {
     spectrum?: { hz: number[]; db: number[] };
   };
   dropouts: { startSec: number; endSec: number }[];
-  stereo: { correlation: number; identicalChannels: boolean; polarityInverted: boolean } | null;
+  /** Dropouts found, including any beyond those listed. */
+  dropoutCount?: number;
+  stereo: {
+    correlation: number;
+    identicalChannels: boolean;
+    polarityInverted: boolean;
+    /** Share of audible 400 ms windows whose correlation is below -0.3. */
+    antiPhaseShare?: number;
+  } | null;
   tone: {
     startSec: number;
     endSec: number;
@@ -140,5 +157,7 @@ export interface AnalysisReport {
     enobBits: number;
     likelyRecordedRate: number | null;
   } | null;
+  /** The waveform peaks file written for the review screen, or null when none was asked for. */
+  waveform?: { path: string; [key: string]: unknown } | null;
   findings: Finding[];
 }

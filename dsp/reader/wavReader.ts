@@ -35,6 +35,8 @@ export interface OpenedWav {
   blocks(): AsyncGenerator<SampleBlock, void, void>;
   /** Frames decoded so far (all of them once `blocks()` is exhausted). */
   framesRead(): number;
+  /** Bytes of the file consumed so far (header included). */
+  bytesRead(): number;
 }
 
 export interface OpenWavOptions {
@@ -274,5 +276,5 @@ export async function openWav(readable: Readable, options: OpenWavOptions = {}):
     }
   }
 
-  return { format, metadata, blocks, framesRead: () => framesDecoded };
+  return { format, metadata, blocks, framesRead: () => framesDecoded, bytesRead: () => source.position };
 }

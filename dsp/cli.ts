@@ -1,0 +1,117 @@
+import { readFile } from 'node:fs/promises';
+import { verdictOf } from './findings';
+import { analyzeFile } from './pipeline';
+import { UnreadableWavError } from './reader/UnreadableWavError';
+import { DEFAULT_SPEC, deliverySpecSchema, type DeliverySpec } from './spec';
+import type { AnalysisReport } from './types';
+
+const USAGE = 'Usage: npm run -s analyze -- <file.wav> [--json] [--spec <spec.json>]';
+/** Exit code for a file or spec the tool refuses (the user's input, not a crash). */
+const EXIT_REFUSED = 2;
+
+class UsageError extends Error {}
+
+interface CliArguments {
+  file: string;
+  json: boolean;
+  specPath: string | null;
+}
+
+function parseArguments(argv: string[]): CliArguments {
+  let file: string | null = null;
+  let json = false;
+  let specPath: string | null = null;
+  for (let i = 0; i < argv.length; i++) {
+    const argument = argv[i];
+    if (argument === '--json') json = true;
+    else if (argument === '--spec') {
+      specPath = argv[++i] ?? null;
+      if (!specPath) throw new UsageError('--spec needs a file name.');
+    } else if (argument.startsWith('--')) throw new UsageError(`Unknown option ${argument}.`);
+    else if (file === null) file = argument;
+    else throw new UsageError(`Only one file at a time (got ${file} and ${argument}).`);
+  }
+  if (!file) throw new UsageError('Name a WAV file to analyse.');
+  return { file, json, specPath };
+}
+
+async function loadSpec(specPath: string | null): Promise<DeliverySpec> {
+  if (!specPath) return DEFAULT_SPEC;
+  let text: string;
+  try {
+    text = await readFile(specPath, 'utf8');
+  } catch (error) {
+    throw new UsageError(`Cannot read the spec file ${specPath}: ${(error as NodeJS.ErrnoException).code ?? String(error)}.`);
+  }
+  let raw: unknown;
+  try {
+    raw = JSON.parse(text);
+  } catch {
+    throw new UsageError(`The spec file ${specPath} is not valid JSON.`);
+  }
+  const parsed = deliverySpecSchema.safeParse(raw);
+  if (!parsed.success) {
+    const problems = parsed.error.issues.map((issue) => `${issue.path.join('.') || 'spec'}: ${issue.message}`).join('; ');
+    throw new UsageError(`The spec file ${specPath} is not a valid delivery spec (${problems}).`);
+  }
+  return parsed.data;
+}
+
+const show = (value: number | null, unit: string, decimals = 1) => (value === null ? '-' : `${value.toFixed(decimals)} ${unit}`);
+
+function summary(report: AnalysisReport, file: string, spec: DeliverySpec): string {
+  const { file: format, loudness, peak } = report;
+  const lines = [
+    `${file}`,
+    `  ${format.container} ${format.encoding === 'float' ? 'float' : 'PCM'}, ${format.bitsPerSample}-bit, ${format.sampleRate} Hz, ${format.channels} ch, ${format.durationSec.toFixed(2)} s`,
+    `  Integrated ${show(loudness.integratedLufs, 'LUFS')}   range ${show(loudness.rangeLu, 'LU')}   max momentary ${show(loudness.momentaryMaxLufs, 'LUFS')}   max short-term ${show(loudness.shortTermMaxLufs, 'LUFS')}`,
+    `  Sample peak ${show(peak.samplePeakDbfs, 'dBFS', 2)}   true peak ${show(peak.truePeakDbtp, 'dBTP', 2)}   effective bits ${report.resolution.effectiveBits}   noise floor ${show(report.noise.floorDbfs, 'dBFS')}`,
+    ...report.channels.map((channel, index) =>
+      `  ch ${index + 1}: peak ${show(channel.samplePeakDbfs, 'dBFS', 2)}, true peak ${show(channel.truePeakDbtp, 'dBTP', 2)}, RMS ${show(channel.rmsDbfs, 'dBFS', 2)}, DC ${channel.dcOffset.toExponential(2)}${channel.silent ? ', silent' : ''}`),
+    `  Judged against: ${spec.name}`,
+    `  Verdict: ${verdictOf(report.findings).toUpperCase()}`,
+    ...report.findings.map((finding) => `   [${finding.severity}] ${finding.check}: ${finding.message}`),
+  ];
+  return lines.join('\n');
+}
+
+async function main(): Promise<number> {
+  let args: CliArguments;
+  let spec: DeliverySpec;
+  try {
+    args = parseArguments(process.argv.slice(2));
+    spec = await loadSpec(args.specPath);
+  } catch (error) {
+    if (error instanceof UsageError) {
+      process.stderr.write(`${error.message}\n${USAGE}\n`);
+      return EXIT_REFUSED;
+    }
+    throw error;
+  }
+  try {
+    const report = await analyzeFile(args.file, { spec });
+    process.stdout.write(args.json ? `${JSON.stringify(report)}\n` : `${summary(report, args.file, spec)}\n`);
+    return 0;
+  } catch (error) {
+    if (error instanceof UnreadableWavError) {
+      process.stderr.write(`Cannot analyse ${args.file}: ${error.message}\n`);
+      return EXIT_REFUSED;
+    }
+    const code = (error as NodeJS.ErrnoException).code;
+    if (code === 'ENOENT' || code === 'EACCES' || code === 'EISDIR') {
+      process.stderr.write(`Cannot open ${args.file} (${code === 'ENOENT' ? 'no such file' : code === 'EISDIR' ? 'it is a directory' : 'permission denied'}).\n`);
+      return EXIT_REFUSED;
+    }
+    throw error;
+  }
+}
+
+main().then(
+  (code) => {
+    process.exitCode = code;
+  },
+  (error) => {
+    process.stderr.write(`Internal error while analysing: ${error instanceof Error ? error.message : String(error)}\n`);
+    process.exitCode = 1;
+  },
+);

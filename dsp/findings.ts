@@ -1,0 +1,222 @@
+import type { DeliverySpec } from './spec';
+import type { AnalysisReport, Finding, Severity } from './types';
+
+/** A DC offset this many times the spec's limit fails instead of warning [common practice]. */
+const DC_FAIL_FACTOR = 10;
+/** Share of anti-phase windows worth a warning [common practice: more than 5 % of programme]. */
+const ANTI_PHASE_SHARE_WARN = 0.05;
+/** Dropouts and clip events spelled out one by one before the rest are summed up. */
+const LISTED_EVENTS = 5;
+
+/** Seconds as m:ss.s (or h:mm:ss.s) for messages. */
+export function formatTime(seconds: number): string {
+  const tenths = Math.round(seconds * 10);
+  const hours = Math.floor(tenths / 36000);
+  const minutes = Math.floor((tenths % 36000) / 600);
+  const secondsPart = ((tenths % 600) / 10).toFixed(1).padStart(4, '0');
+  return hours > 0 ? `${hours}:${String(minutes).padStart(2, '0')}:${secondsPart}` : `${minutes}:${secondsPart}`;
+}
+
+const channelName = (channel: number, channelCount: number) =>
+  channelCount === 2 ? `${channel === 0 ? 'left' : 'right'} channel` : `channel ${channel + 1}`;
+const kHz = (hz: number) => `${Number((hz / 1000).toFixed(3))} kHz`;
+const plural = (count: number, word: string) => `${count} ${word}${count === 1 ? '' : 's'}`;
+const db = (value: number, decimals = 1) => value.toFixed(decimals);
+
+/**
+ * Judges a stored report against a delivery spec. Pure: reads only the report
+ * (never the audio), so stored reports can be re-judged when the spec changes.
+ * @returns findings in a stable order (container and format first, then level, then content)
+ */
+export function judgeReport(report: AnalysisReport, spec: DeliverySpec): Finding[] {
+  const findings: Finding[] = [];
+  const add = (finding: Finding) => findings.push(finding);
+  const channelCount = report.file.channels;
+  const strict: Severity = spec.loudnessIsStrict ? 'fail' : 'warn';
+
+  // container
+  for (const issue of report.file.headerIssues ?? []) add({ check: 'container', severity: 'warn', message: issue });
+
+  // format and sample rate
+  const { bitsPerSample, encoding, sampleRate } = report.file;
+  const formatName = encoding === 'float' ? `${bitsPerSample}-bit float` : `${bitsPerSample}-bit`;
+  if (spec.requiredBitDepth !== null && (bitsPerSample !== spec.requiredBitDepth || (encoding === 'float' && spec.requiredBitDepth !== 32))) {
+    add({ check: 'format', severity: 'fail', message: `The file is ${formatName}; the delivery asks for ${spec.requiredBitDepth}-bit.` });
+  }
+  if (encoding === 'pcm' && bitsPerSample === 8) {
+    add({ check: 'format', severity: 'warn', message: 'The file is 8-bit: far too coarse for studio work.' });
+  }
+  if (spec.requiredSampleRate !== null && sampleRate !== spec.requiredSampleRate) {
+    add({ check: 'sample-rate', severity: 'fail', message: `The take is ${kHz(sampleRate)}; the delivery asks for ${kHz(spec.requiredSampleRate)}.` });
+  }
+  if (report.bandwidth.impliedSourceRate !== null && report.bandwidth.effectiveHz !== null) {
+    add({
+      check: 'sample-rate',
+      severity: 'warn',
+      message: `The audio stops at ${kHz(report.bandwidth.effectiveHz)}: it was probably made at ${kHz(report.bandwidth.impliedSourceRate)} and converted up to ${kHz(sampleRate)}.`,
+    });
+  }
+  if (report.tone?.likelyRecordedRate) {
+    add({
+      check: 'sample-rate',
+      severity: 'warn',
+      message: `The line-up tone reads ${db(report.tone.frequencyHz, 1)} Hz; the take was probably recorded at ${kHz(report.tone.likelyRecordedRate)} and is labelled ${kHz(sampleRate)}.`,
+      startSec: report.tone.startSec,
+      endSec: report.tone.endSec,
+    });
+  }
+
+  // resolution
+  const { effectiveBits, noiseLimitedBits } = report.resolution;
+  const anySignal = report.channels.some((channel) => !channel.silent);
+  if (anySignal && encoding === 'pcm' && effectiveBits > 0 && effectiveBits < bitsPerSample) {
+    add({
+      check: 'resolution',
+      severity: effectiveBits < spec.minEffectiveBits ? 'fail' : 'info',
+      message: `Only ${effectiveBits} of ${bitsPerSample} bits carry audio: the recorder was likely set to ${effectiveBits}-bit.`,
+    });
+  } else if (anySignal && encoding === 'float' && effectiveBits > 0 && effectiveBits <= 24) {
+    add({
+      check: 'resolution',
+      severity: effectiveBits < spec.minEffectiveBits ? 'fail' : 'info',
+      message: `The float file holds ${effectiveBits}-bit audio (every sample sits on the ${effectiveBits}-bit grid).`,
+    });
+  } else if (anySignal && effectiveBits > 0 && effectiveBits < spec.minEffectiveBits) {
+    add({ check: 'resolution', severity: 'fail', message: `The take uses ${effectiveBits} bits; the delivery asks for at least ${spec.minEffectiveBits}.` });
+  }
+  if (noiseLimitedBits !== null && anySignal && noiseLimitedBits < spec.minEffectiveBits && noiseLimitedBits < Math.min(effectiveBits, 24)) {
+    add({ check: 'resolution', severity: 'info', message: `The noise floor limits the real resolution to about ${db(noiseLimitedBits)} bits.` });
+  }
+
+  // clipping, by channel and kind
+  const clipEvents = report.clipping.events;
+  if (clipEvents.length > 0) {
+    const severity: Severity = clipEvents.length > spec.maxClipEvents ? 'fail' : 'warn';
+    for (let channel = 0; channel < channelCount; channel++) {
+      for (const kind of ['fullScale', 'belowFullScale'] as const) {
+        const events = clipEvents.filter((event) => event.channel === channel && event.level === kind);
+        if (events.length === 0) continue;
+        const first = events[0];
+        const where = events.slice(0, LISTED_EVENTS).map((event) => formatTime(event.startSec)).join(', ') + (events.length > LISTED_EVENTS ? ', ...' : '');
+        const what =
+          kind === 'fullScale'
+            ? `${plural(events.length, 'clipping event')} on ${channelName(channel, channelCount)} at full scale (at ${where})`
+            : `${plural(events.length, 'clipping event')} on ${channelName(channel, channelCount)}, flat-topped at ${db(first.levelDbfs)} dBFS (at ${where}): something before the converter clipped and the level was lowered afterwards`;
+        add({ check: 'clipping', severity, message: `${what[0].toUpperCase()}${what.slice(1)}.`, channel, startSec: first.startSec, endSec: first.endSec });
+      }
+    }
+  }
+  if (encoding === 'float' && report.peak.samplePeakDbfs !== null && report.peak.samplePeakDbfs > 0) {
+    add({ check: 'clipping', severity: 'warn', message: `Float samples reach ${db(report.peak.samplePeakDbfs, 2)} dBFS, above full scale: they will clip when converted to fixed point.` });
+  }
+
+  // true peak
+  report.channels.forEach((channel, index) => {
+    if (channel.truePeakDbtp !== null && channel.truePeakDbtp > spec.maxTruePeakDbtp) {
+      add({
+        check: 'true-peak',
+        severity: channel.truePeakDbtp > 0 ? 'fail' : strict,
+        message: `True peak on ${channelName(index, channelCount)} reaches ${db(channel.truePeakDbtp)} dBTP, above the ${db(spec.maxTruePeakDbtp)} dBTP limit.`,
+        channel: index,
+      });
+    }
+  });
+
+  // loudness
+  const integrated = report.loudness.integratedLufs;
+  if (integrated === null) {
+    if (anySignal) add({ check: 'loudness', severity: 'info', message: 'The take is too short or too quiet for an integrated loudness reading.' });
+  } else if (Math.abs(integrated - spec.loudnessTargetLufs) > spec.loudnessToleranceLu) {
+    const direction = integrated > spec.loudnessTargetLufs ? 'louder' : 'quieter';
+    add({
+      check: 'loudness',
+      severity: strict,
+      message: `Integrated loudness is ${db(integrated)} LUFS, ${db(Math.abs(integrated - spec.loudnessTargetLufs))} LU ${direction} than the ${db(spec.loudnessTargetLufs)} LUFS target (±${spec.loudnessToleranceLu} LU).`,
+    });
+  }
+
+  // noise floor and hum
+  const floor = report.noise.floorDbfs;
+  if (floor !== null && floor > spec.maxNoiseFloorDbfs) {
+    add({ check: 'noise-floor', severity: 'warn', message: `The noise floor in the quiet passages is ${db(floor)} dBFS, above the ${db(spec.maxNoiseFloorDbfs)} dBFS limit.` });
+  }
+  if (report.noise.humHz !== null) {
+    add({ check: 'hum', severity: 'warn', message: `Mains hum at ${report.noise.humHz} Hz and its harmonics stands out of the noise floor.` });
+  }
+
+  // bandwidth and aliasing
+  const nyquist = sampleRate / 2;
+  if (report.bandwidth.effectiveHz !== null && anySignal && report.bandwidth.effectiveHz < spec.minBandwidthRatio * nyquist && report.bandwidth.impliedSourceRate === null) {
+    add({ check: 'bandwidth', severity: 'warn', message: `The audio reaches only ${kHz(report.bandwidth.effectiveHz)}, less than ${Math.round(spec.minBandwidthRatio * 100)}% of the ${kHz(nyquist)} a ${kHz(sampleRate)} take can carry.` });
+  }
+  if (report.bandwidth.aliasingRisk) {
+    add({ check: 'aliasing', severity: 'warn', message: 'There is strong energy right up to the Nyquist frequency with no filter roll-off: the take may contain aliasing.' });
+  }
+
+  // DC offset
+  report.channels.forEach((channel, index) => {
+    const offset = Math.abs(channel.dcOffset);
+    if (!channel.silent && offset > spec.maxDcOffset) {
+      add({
+        check: 'dc-offset',
+        severity: offset > DC_FAIL_FACTOR * spec.maxDcOffset ? 'fail' : 'warn',
+        message: `${capitalise(channelName(index, channelCount))} has a DC offset of ${(offset * 100).toPrecision(2)}% of full scale (${db(20 * Math.log10(offset))} dBFS).`,
+        channel: index,
+      });
+    }
+  });
+
+  // dropouts
+  const dropoutCount = report.dropoutCount ?? report.dropouts.length;
+  if (dropoutCount > 0) {
+    const severity: Severity = dropoutCount > spec.maxDropouts ? 'fail' : 'warn';
+    const where = report.dropouts.slice(0, LISTED_EVENTS).map((gap) => `${formatTime(gap.startSec)} (${Math.round((gap.endSec - gap.startSec) * 1000)} ms)`).join(', ');
+    const more = dropoutCount > LISTED_EVENTS ? ', ...' : '';
+    const first = report.dropouts[0];
+    add({ check: 'dropout', severity, message: `${plural(dropoutCount, 'dropout')} (digital silence inside the take) at ${where}${more}.`, startSec: first?.startSec, endSec: first?.endSec });
+  }
+
+  // silent channels
+  const silentChannels = report.channels.map((channel, index) => (channel.silent ? index : -1)).filter((index) => index >= 0);
+  if (silentChannels.length === channelCount) {
+    add({ check: 'silent-channel', severity: 'fail', message: 'The whole take is silent: no channel carries a signal.' });
+  } else {
+    for (const index of silentChannels) {
+      add({ check: 'silent-channel', severity: 'fail', message: `${capitalise(channelName(index, channelCount))} carries no signal: check the input, cable or routing.`, channel: index });
+    }
+  }
+
+  // stereo
+  const stereo = report.stereo;
+  if (stereo && silentChannels.length === 0) {
+    if (stereo.identicalChannels) {
+      add({ check: 'stereo', severity: 'info', message: 'Both channels are identical: this is a mono take in a stereo file.' });
+    } else if (stereo.polarityInverted) {
+      add({ check: 'stereo', severity: 'warn', message: `The channels are in opposite polarity (correlation ${db(stereo.correlation, 2)}): one of them is probably wired inverted; the take will cancel when summed to mono.` });
+    } else if ((stereo.antiPhaseShare ?? 0) > ANTI_PHASE_SHARE_WARN) {
+      add({ check: 'stereo', severity: 'warn', message: `${Math.round((stereo.antiPhaseShare ?? 0) * 100)}% of the take is in anti-phase between left and right: it will lose level when summed to mono.` });
+    }
+  }
+
+  // tone
+  const tone = report.tone;
+  if (tone) {
+    add({
+      check: 'tone',
+      severity: 'info',
+      message: `Line-up tone of ${db(tone.frequencyHz, 1)} Hz at ${db(tone.levelDbfs)} dBFS from ${formatTime(tone.startSec)} to ${formatTime(tone.endSec)} (SINAD ${db(tone.sinadDb)} dB, about ${db(tone.enobBits)} effective bits).`,
+      startSec: tone.startSec,
+      endSec: tone.endSec,
+    });
+  }
+  return findings;
+}
+
+const capitalise = (text: string) => text[0].toUpperCase() + text.slice(1);
+
+/** The take's overall verdict: 'fail' if any finding fails, else 'warn' if any warns, else 'pass'. */
+export function verdictOf(findings: readonly Finding[]): 'pass' | 'warn' | 'fail' {
+  if (findings.some((finding) => finding.severity === 'fail')) return 'fail';
+  if (findings.some((finding) => finding.severity === 'warn')) return 'warn';
+  return 'pass';
+}

@@ -1,0 +1,168 @@
+import { createReadStream } from 'node:fs';
+import { stat } from 'node:fs/promises';
+import type { Readable } from 'node:stream';
+import { ClippingAnalyzer } from './analyzers/clipping';
+import { DropoutAnalyzer } from './analyzers/dropouts';
+import { LevelsAnalyzer } from './analyzers/levels';
+import { LoudnessAnalyzer } from './analyzers/loudness';
+import { NoiseFloorAnalyzer } from './analyzers/noiseFloor';
+import { SpectrumAnalyzer } from './analyzers/spectrum';
+import { StereoAnalyzer } from './analyzers/stereo';
+import { TruePeakAnalyzer } from './analyzers/truePeak';
+import { judgeReport } from './findings';
+import { openWav } from './reader/wavReader';
+import { DEFAULT_SPEC, type DeliverySpec } from './spec';
+import type { AnalysisReport, Analyzer, SampleBlock } from './types';
+import { amplitudeToDb, powerToDb, roundOrNull, roundTo } from './util/decibels';
+
+export interface AnalyzeOptions {
+  /** Size of the file in bytes, for progress; unknown when omitted. */
+  totalBytes?: number;
+  /** Delivery spec the findings are judged against (default DEFAULT_SPEC). */
+  spec?: DeliverySpec;
+  /**
+   * Called with bytes read so far and the total (null when unknown), at most
+   * every PROGRESS_INTERVAL_MS while reading, and once more when the whole file has been read.
+   */
+  onProgress?: (doneBytes: number, totalBytes: number | null) => void;
+  /** Where to write the waveform peaks file; no peaks file without it. */
+  peaksPath?: string;
+  /** Opens the same file again from an offset (lets a file whose audio precedes its fmt chunk be read). */
+  reopenAt?: (byteOffset: number) => Readable;
+}
+
+/** Shortest gap between two progress callbacks, ms. */
+export const PROGRESS_INTERVAL_MS = 250;
+
+const dbOrNull = (amplitude: number, decimals = 3) => roundOrNull(amplitudeToDb(amplitude), decimals);
+
+/**
+ * Measures a WAV take from a stream in one read and returns the full report,
+ * findings judged against `options.spec`.
+ * @throws UnreadableWavError when the stream is not a WAV Takeproof can read
+ */
+export async function analyzeStream(readable: Readable, options: AnalyzeOptions = {}): Promise<AnalysisReport> {
+  const spec = options.spec ?? DEFAULT_SPEC;
+  const wav = await openWav(readable, { reopenAt: options.reopenAt });
+  const { format } = wav;
+
+  const levels = new LevelsAnalyzer(format);
+  const clipping = new ClippingAnalyzer(format);
+  const truePeak = new TruePeakAnalyzer(format);
+  const loudness = new LoudnessAnalyzer(format);
+  const dropouts = new DropoutAnalyzer(format);
+  const stereo = format.channels === 2 ? new StereoAnalyzer(format) : null;
+  const spectrum = new SpectrumAnalyzer(format);
+  const noise = new NoiseFloorAnalyzer(format);
+  const analyzers: Analyzer<unknown>[] = [levels, clipping, truePeak, loudness, dropouts, spectrum, noise];
+  if (stereo) analyzers.push(stereo);
+
+  const totalBytes = options.totalBytes ?? null;
+  let lastProgressAt = 0;
+  for await (const block of wav.blocks()) {
+    pushToAll(analyzers, block);
+    if (options.onProgress) {
+      const now = Date.now();
+      if (now - lastProgressAt >= PROGRESS_INTERVAL_MS) {
+        lastProgressAt = now;
+        options.onProgress(wav.bytesRead(), totalBytes);
+      }
+    }
+  }
+  options.onProgress?.(wav.bytesRead(), totalBytes ?? wav.bytesRead());
+
+  const frames = wav.framesRead();
+  const levelResult = levels.finish();
+  const clipResult = clipping.finish();
+  const truePeakResult = truePeak.finish();
+  const loudnessResult = loudness.finish();
+  const dropoutResult = dropouts.finish();
+  const stereoResult = stereo?.finish() ?? null;
+  const bandwidth = spectrum.finish();
+  const noiseResult = noise.finish();
+
+  const channels = levelResult.channels.map((channel, index) => ({
+    samplePeakDbfs: dbOrNull(channel.samplePeak),
+    truePeakDbtp: dbOrNull(truePeakResult.channelTruePeaks[index]),
+    // Mean square re a full-scale square wave: a full-scale sine reads -3.01 dBFS.
+    rmsDbfs: roundOrNull(powerToDb(channel.meanSquare), 3),
+    dcOffset: channel.dcOffset,
+    effectiveBits: channel.effectiveBits,
+    clippedSamples: clipResult.channelClippedSamples[index],
+    silent: channel.silent,
+  }));
+  const samplePeak = Math.max(...levelResult.channels.map((channel) => channel.samplePeak));
+  const truePeakMax = Math.max(...truePeakResult.channelTruePeaks);
+  const floorDbfs = noiseResult.floorDbfs;
+
+  const report: AnalysisReport = {
+    file: {
+      container: format.container,
+      encoding: format.encoding,
+      sampleRate: format.sampleRate,
+      bitsPerSample: format.bitsPerSample,
+      validBitsPerSample: format.validBitsPerSample,
+      channels: format.channels,
+      channelMask: format.channelMask,
+      frames,
+      durationSec: frames / format.sampleRate,
+      headerIssues: wav.metadata.headerIssues,
+    },
+    bext: wav.metadata.bext,
+    ixml: wav.metadata.ixml,
+    channels,
+    resolution: {
+      effectiveBits: Math.max(0, ...levelResult.channels.map((channel) => channel.effectiveBits)),
+      // Bits of an ideal quantiser whose noise (Q^2/12, full band) equals the floor: N = (-floor - 4.77)/6.02.
+      noiseLimitedBits: floorDbfs === null ? null : roundTo((-floorDbfs - 4.77) / 6.02, 1),
+    },
+    peak: { samplePeakDbfs: dbOrNull(samplePeak), truePeakDbtp: dbOrNull(truePeakMax) },
+    clipping: { clippedSamples: clipResult.clippedSamples, events: clipResult.events },
+    loudness: {
+      integratedLufs: roundOrNull(loudnessResult.integratedLufs, 3),
+      rangeLu: roundOrNull(loudnessResult.rangeLu, 3),
+      momentaryMaxLufs: roundOrNull(loudnessResult.momentaryMaxLufs, 3),
+      shortTermMaxLufs: roundOrNull(loudnessResult.shortTermMaxLufs, 3),
+      shortTermSeries: loudnessResult.shortTermSeries,
+    },
+    noise: { floorDbfs, humHz: noiseResult.humHz },
+    bandwidth: {
+      effectiveHz: bandwidth.effectiveHz,
+      impliedSourceRate: bandwidth.impliedSourceRate,
+      nearNyquistDb: bandwidth.nearNyquistDb,
+      aliasingRisk: bandwidth.aliasingRisk,
+      spectrum: bandwidth.spectrum,
+    },
+    dropouts: dropoutResult.dropouts,
+    dropoutCount: dropoutResult.dropoutCount,
+    stereo: stereoResult && {
+      correlation: roundTo(stereoResult.correlation, 4),
+      identicalChannels: stereoResult.identicalChannels,
+      polarityInverted: stereoResult.polarityInverted,
+      antiPhaseShare: roundTo(stereoResult.antiPhaseShare, 4),
+    },
+    tone: null,
+    waveform: null,
+    findings: [],
+  };
+  report.findings = judgeReport(report, spec);
+  return report;
+}
+
+function pushToAll(analyzers: Analyzer<unknown>[], block: SampleBlock): void {
+  for (const analyzer of analyzers) analyzer.push(block);
+}
+
+/**
+ * Measures a WAV file on disk; see analyzeStream.
+ * @param path file path
+ * @throws UnreadableWavError when the file is not a WAV Takeproof can read; fs errors (ENOENT...) as they are
+ */
+export async function analyzeFile(path: string, options: AnalyzeOptions = {}): Promise<AnalysisReport> {
+  const { size } = await stat(path);
+  return analyzeStream(createReadStream(path, { highWaterMark: 1024 * 1024 }), {
+    totalBytes: size,
+    reopenAt: (byteOffset) => createReadStream(path, { start: byteOffset, highWaterMark: 1024 * 1024 }),
+    ...options,
+  });
+}
