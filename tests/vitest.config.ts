@@ -1,19 +1,27 @@
 import { defineConfig } from 'vitest/config';
 import { fileURLToPath } from 'node:url';
 
-export default defineConfig({
-  resolve: {
-    alias: {
-      '@': fileURLToPath(new URL('../', import.meta.url)),
-      // `server-only` throws outside React Server Components; tests run server code directly.
-      'server-only': fileURLToPath(new URL('./support/server-only.mock.ts', import.meta.url)),
-    },
+const root = fileURLToPath(new URL('../', import.meta.url));
+const resolve = {
+  alias: {
+    '@': root,
+    // `server-only` throws outside React Server Components; tests run server code directly.
+    'server-only': fileURLToPath(new URL('./support/server-only.mock.ts', import.meta.url)),
   },
-  root: fileURLToPath(new URL('../', import.meta.url)),
+};
+
+export default defineConfig({
+  resolve,
+  root,
   test: {
-    include: ['tests/**/*.test.ts'],
     testTimeout: 60_000,
     hookTimeout: 120_000,
     pool: 'forks',
+    projects: [
+      // Unit tests and HTTP integration tests against the running test server.
+      { resolve, test: { name: 'fast', root, include: ['tests/unit/**/*.test.ts', 'tests/integration/**/*.test.ts'], testTimeout: 120_000, hookTimeout: 120_000, pool: 'forks' } },
+      // Browser tests share one server and one Chromium at a time.
+      { resolve, test: { name: 'browser', root, include: ['tests/e2e/**/*.test.ts'], testTimeout: 180_000, hookTimeout: 120_000, pool: 'forks', fileParallelism: false } },
+    ],
   },
 });

@@ -1,0 +1,17 @@
+import { requireActor } from '@/lib/auth/guard';
+import { json, parseJson, route } from '@/lib/http';
+import { createSessionSchema, sessionQuerySchema } from '@/lib/schemas/session';
+import { createSession, listSessions } from '@/lib/sessions';
+
+export const GET = route(async (request) => {
+  const actor = await requireActor('session:view');
+  const query = sessionQuerySchema.parse(Object.fromEntries(new URL(request.url).searchParams));
+  return json({ sessions: await listSessions(actor, query) });
+});
+
+export const POST = route(async (request) => {
+  const actor = await requireActor('session:create');
+  const input = await parseJson(request, createSessionSchema);
+  const session = await createSession(actor, input);
+  return json(session, 201);
+});

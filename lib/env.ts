@@ -1,0 +1,34 @@
+import 'server-only';
+import { z } from 'zod';
+
+const envSchema = z
+  .object({
+    NODE_ENV: z.enum(['development', 'production', 'test']).default('development'),
+    DB_HOST: z.string().default('127.0.0.1'),
+    DB_PORT: z.coerce.number().int().positive().default(3307),
+    DB_NAME: z.string().min(1).default('takeproof'),
+    DB_USER: z.string().min(1).default('takeproof'),
+    DB_PASSWORD: z.string().default(''),
+    NEXTAUTH_SECRET: z.string().min(1, 'NEXTAUTH_SECRET must be set'),
+    STORAGE_DIR: z.string().default('var/storage'),
+    UPLOAD_MAX_BYTES: z.coerce.number().int().positive().default(8 * 1024 ** 3),
+    SMTP_URL: z.string().default('smtp://127.0.0.1:2525'),
+    MAIL_FROM: z.string().default('Takeproof <takeproof@demo.test>'),
+    MAIL_OUTBOX_DIR: z.string().default('var/mail'),
+  });
+
+export type Env = z.infer<typeof envSchema>;
+
+let cached: Env | undefined;
+
+/** The validated configuration; throws one readable message listing every bad variable. */
+export function env(): Env {
+  if (cached) return cached;
+  const parsed = envSchema.safeParse(process.env);
+  if (!parsed.success) {
+    const lines = parsed.error.issues.map((i) => `${i.path.join('.')}: ${i.message}`);
+    throw new Error(`Takeproof configuration is invalid:\n  ${lines.join('\n  ')}`);
+  }
+  cached = parsed.data;
+  return cached;
+}

@@ -1,0 +1,7 @@
+import type { Capability } from './auth/policy';
+
+/** The app's main navigation; an entry shows only to roles that have its capability. */
+export const NAVIGATION: { href: string; label: string; capability: Capability }[] = [
+  { href: '/', label: 'Overview', capability: 'session:view' },
+  { href: '/sessions', label: 'Sessions', capability: 'session:view' },
+];

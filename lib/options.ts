@@ -1,0 +1,18 @@
+import 'server-only';
+import { ensureDb } from './db';
+import type { Actor } from './auth/guard';
+import { DeliverySpec, User } from '@/models';
+import type { Role } from '@/models/User';
+
+/** The studio's delivery specs and people, as choices for forms. */
+export async function specOptions(actor: Actor) {
+  ensureDb();
+  const specs = await DeliverySpec.findAll({ where: { studioId: actor.studioId }, attributes: ['id', 'name'], order: [['name', 'ASC']] });
+  return specs.map((s) => ({ id: s.id, name: s.name }));
+}
+
+export async function peopleOptions(actor: Actor, role: Role) {
+  ensureDb();
+  const users = await User.findAll({ where: { studioId: actor.studioId, role, active: true }, attributes: ['id', 'name'], order: [['name', 'ASC']] });
+  return users.map((u) => ({ id: u.id, name: u.name }));
+}

@@ -1,0 +1,8 @@
+/** SWR keys shared by server pages (to seed the cache) and client components (to read it). */
+export function sessionsKey(q = '', status = 'all'): string {
+  const params = new URLSearchParams();
+  if (q) params.set('q', q);
+  if (status !== 'all') params.set('status', status);
+  const s = params.toString();
+  return `/api/sessions${s ? `?${s}` : ''}`;
+}

@@ -1,0 +1,34 @@
+import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
+
+export const JOB_STATES = ['queued', 'running', 'done', 'failed'] as const;
+export type JobState = (typeof JOB_STATES)[number];
+
+/** A request to measure one take, claimed by a worker with SELECT … FOR UPDATE SKIP LOCKED. */
+export class AnalysisJob extends Model<InferAttributes<AnalysisJob>, InferCreationAttributes<AnalysisJob>> {
+  declare id: CreationOptional<number>;
+  declare takeId: number;
+  declare state: CreationOptional<JobState>;
+  declare attempts: CreationOptional<number>;
+  declare workerId: string | null;
+  declare heartbeatAt: Date | null;
+  declare lastError: string | null;
+  declare createdAt: CreationOptional<Date>;
+  declare updatedAt: CreationOptional<Date>;
+}
+
+export function initAnalysisJob(sequelize: Sequelize) {
+  AnalysisJob.init(
+    {
+      id: { type: DataTypes.BIGINT.UNSIGNED, autoIncrement: true, primaryKey: true },
+      takeId: { type: DataTypes.INTEGER.UNSIGNED, allowNull: false },
+      state: { type: DataTypes.ENUM(...JOB_STATES), allowNull: false, defaultValue: 'queued' },
+      attempts: { type: DataTypes.INTEGER.UNSIGNED, allowNull: false, defaultValue: 0 },
+      workerId: { type: DataTypes.STRING(120), allowNull: true },
+      heartbeatAt: { type: DataTypes.DATE, allowNull: true },
+      lastError: { type: DataTypes.TEXT, allowNull: true },
+      createdAt: DataTypes.DATE,
+      updatedAt: DataTypes.DATE,
+    },
+    { sequelize, tableName: 'analysis_jobs' },
+  );
+}

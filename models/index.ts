@@ -1,0 +1,34 @@
+import type { Sequelize } from 'sequelize';
+import { AnalysisJob, initAnalysisJob } from './AnalysisJob';
+import { AuditEvent, initAuditEvent } from './AuditEvent';
+import { DeliverySpec, initDeliverySpec } from './DeliverySpec';
+import { Recorder, initRecorder } from './Recorder';
+import { RecordingSession, initRecordingSession } from './RecordingSession';
+import { Studio, initStudio } from './Studio';
+import { Take, initTake } from './Take';
+import { User, initUser } from './User';
+
+export { AnalysisJob, AuditEvent, DeliverySpec, Recorder, RecordingSession, Studio, Take, User };
+
+/** Defines every model on `sequelize` and wires the associations, once. */
+export function initModels(sequelize: Sequelize) {
+  for (const init of [initStudio, initUser, initRecorder, initDeliverySpec, initRecordingSession, initTake, initAuditEvent, initAnalysisJob]) {
+    init(sequelize);
+  }
+  Studio.hasMany(User, { foreignKey: 'studioId' });
+  User.belongsTo(Studio, { foreignKey: 'studioId', as: 'studio' });
+  Recorder.belongsTo(Studio, { foreignKey: 'studioId' });
+  DeliverySpec.belongsTo(Studio, { foreignKey: 'studioId' });
+  RecordingSession.belongsTo(Studio, { foreignKey: 'studioId' });
+  RecordingSession.belongsTo(User, { foreignKey: 'engineerId', as: 'engineer' });
+  RecordingSession.belongsTo(User, { foreignKey: 'producerId', as: 'producer' });
+  RecordingSession.belongsTo(DeliverySpec, { foreignKey: 'deliverySpecId', as: 'deliverySpec' });
+  RecordingSession.hasMany(Take, { foreignKey: 'sessionId', as: 'takes' });
+  Take.belongsTo(RecordingSession, { foreignKey: 'sessionId', as: 'session' });
+  Take.belongsTo(Recorder, { foreignKey: 'recorderId', as: 'recorder' });
+  Take.belongsTo(User, { foreignKey: 'uploadedById', as: 'uploadedBy' });
+  Take.belongsTo(User, { foreignKey: 'decidedById', as: 'decidedBy' });
+  Take.hasOne(AnalysisJob, { foreignKey: 'takeId', as: 'job' });
+  AnalysisJob.belongsTo(Take, { foreignKey: 'takeId', as: 'take' });
+  AuditEvent.belongsTo(User, { foreignKey: 'actorId', as: 'actor' });
+}

@@ -1,0 +1,40 @@
+#!/usr/bin/env bash
+# Loads configuration: the environment wins over .env, which wins over .env.example.
+load_env_file() {
+  local file="$1" line key value
+  [ -f "$file" ] || return 0
+  while IFS= read -r line || [ -n "$line" ]; do
+    case "$line" in ''|'#'*) continue ;; esac
+    key="${line%%=*}"; value="${line#*=}"
+    [[ "$key" =~ ^[A-Z_][A-Z0-9_]*$ ]] || continue
+    [ -n "${!key+x}" ] || export "$key=$value"
+  done < "$file"
+}
+
+load_config() {
+  export NEXT_TELEMETRY_DISABLED=1
+  load_env_file .env
+  load_env_file .env.example
+  export NEXTAUTH_URL="${NEXTAUTH_URL:-http://$HOST:$PORT}"
+}
+
+ensure_node_modules() {
+  if [ ! -d node_modules ] || [ package-lock.json -nt node_modules/.package-lock.json ]; then
+    echo "Installing npm packages (first run)…"
+    npm ci --no-audit --no-fund --loglevel=error
+  fi
+}
+
+port_free() { ! (exec 3<>"/dev/tcp/127.0.0.1/$1") 2>/dev/null; }
+
+wait_for_http() {
+  # $1 url, $2 seconds
+  for _ in $(seq 1 $(( $2 * 4 ))); do
+    curl -fsS -o /dev/null "$1" 2>/dev/null && return 0
+    sleep 0.25
+  done
+  return 1
+}
+
+# tsx with the react-server condition, so modules marked `server-only` load outside Next.js.
+run_ts() { node --conditions=react-server --import tsx "$@"; }
