@@ -25,6 +25,8 @@ const securityHeaders = [
 ];
 
 const nextConfig = {
+  // A test run may build into a folder of its own so runs can share a machine.
+  distDir: process.env.NEXT_DIST_DIR || '.next',
   reactStrictMode: true,
   poweredByHeader: false,
   serverExternalPackages: ['sequelize', 'mariadb', 'piscina', 'pdfkit', 'smtp-server', 'nodemailer'],

@@ -6,6 +6,7 @@ import { AppError } from './errors';
 import type { Actor } from './auth/guard';
 import { DeliverySpec, RecordingSession, Take, User } from '@/models';
 import type { CreateSessionInput, UpdateSessionInput } from './schemas/session';
+import { rejudgeSession } from './verdicts';
 
 export interface SessionSummary {
   id: number;
@@ -134,7 +135,10 @@ export async function updateSession(actor: Actor, id: number, patch: UpdateSessi
   const changes = Object.fromEntries(Object.entries(patch).filter(([, v]) => v !== undefined));
   if (Object.keys(changes).length === 0) return getSession(actor, id);
   await db().transaction(async (transaction) => {
+    const specChanged = 'deliverySpecId' in changes && changes.deliverySpecId !== session.deliverySpecId;
     await session.update(changes, { transaction });
+    // A new delivery spec changes every verdict; the stored reports are judged again, no audio is read.
+    if (specChanged) await rejudgeSession(id, transaction);
     await audit(actor, 'session.update', { type: 'session', id }, { fields: Object.keys(changes) }, transaction);
   });
   return getSession(actor, id);

@@ -1,0 +1,18 @@
+import { requireActor } from '@/lib/auth/guard';
+import { idParam, json, route } from '@/lib/http';
+import { listSessionTakes } from '@/lib/takes';
+import { receiveTakes } from '@/lib/uploads';
+
+type Context = { params: Promise<{ id: string }> };
+
+export const GET = route<Context>(async (_request, { params }) => {
+  const actor = await requireActor('session:view');
+  return json({ takes: await listSessionTakes(actor, await idParam(params, 'session')) });
+});
+
+/** multipart/form-data: optional `recorderId`, then one or more `file` parts (WAV). */
+export const POST = route<Context>(async (request, { params }) => {
+  const actor = await requireActor('take:upload');
+  const takes = await receiveTakes(actor, await idParam(params, 'session'), request);
+  return json({ takes }, 201);
+});

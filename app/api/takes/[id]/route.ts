@@ -1,0 +1,10 @@
+import { requireActor } from '@/lib/auth/guard';
+import { idParam, json, route } from '@/lib/http';
+import { getTake } from '@/lib/takes';
+
+type Context = { params: Promise<{ id: string }> };
+
+export const GET = route<Context>(async (_request, { params }) => {
+  const actor = await requireActor('session:view');
+  return json(await getTake(actor, await idParam(params, 'take')));
+});
