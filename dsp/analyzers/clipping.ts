@@ -49,15 +49,17 @@ class ChannelClipState {
   flatRunStart = 0;
   flatRunLength = 0;
   flatRunReference = 0;
-  flatRunEntrySlope = 0;
+  /** The two samples before the flat run started (for its entry slope). */
+  flatRunBefore1 = 0;
+  flatRunBefore2 = 0;
   previous1 = 0;
   previous2 = 0;
   positivePeak = 0;
   negativePeak = 0;
   /** Flat-top candidates merged per polarity (index 0 positive, 1 negative). */
   readonly flatTopGroups: [ClipGroup[], ClipGroup[]] = [[], []];
-  readonly positiveHistogram = new Float64Array(HISTOGRAM_BINS_PER_UNIT + 2);
-  readonly negativeHistogram = new Float64Array(HISTOGRAM_BINS_PER_UNIT + 2);
+  readonly positiveHistogram = new Uint32Array(HISTOGRAM_BINS_PER_UNIT + 2);
+  readonly negativeHistogram = new Uint32Array(HISTOGRAM_BINS_PER_UNIT + 2);
 }
 
 /**
@@ -107,55 +109,83 @@ export class ClippingAnalyzer implements Analyzer<ClippingResult> {
   private pushChannel(state: ChannelClipState, samples: Float64Array, frames: number, startFrame: number): void {
     const positiveLimit = this.positiveLimit;
     const negativeLimit = this.negativeLimit;
+    const toleranceFloor = this.toleranceFloor;
+    const positiveHistogram = state.positiveHistogram;
+    const negativeHistogram = state.negativeHistogram;
+    const topBin = HISTOGRAM_BINS_PER_UNIT + 1;
+    // Run state in locals for the loop, written back after it.
+    let fullScaleRunStart = state.fullScaleRunStart;
+    let fullScaleRunLength = state.fullScaleRunLength;
+    let fullScaleRunSign = state.fullScaleRunSign;
+    let flatRunLength = state.flatRunLength;
+    let flatRunStart = state.flatRunStart;
+    let flatRunBefore1 = state.flatRunBefore1;
+    let flatRunBefore2 = state.flatRunBefore2;
+    let flatRunReference = state.flatRunReference;
+    let flatRunTolerance = Math.max(toleranceFloor, Math.abs(flatRunReference) * FLAT_TOP_RELATIVE_TOLERANCE);
+    let positivePeak = state.positivePeak;
+    let negativePeak = state.negativePeak;
     let previous1 = state.previous1;
     let previous2 = state.previous2;
     for (let i = 0; i < frames; i++) {
       const x = samples[i];
-      const frame = startFrame + i;
       const magnitude = x < 0 ? -x : x;
 
       // Full-scale runs.
       const atLimit = x >= positiveLimit ? 1 : x <= negativeLimit ? -1 : 0;
-      if (atLimit !== 0 && atLimit === state.fullScaleRunSign) {
-        state.fullScaleRunLength++;
-      } else {
-        if (state.fullScaleRunLength >= MIN_CLIP_RUN) this.addRun(state.fullScaleGroups, state.fullScaleRunStart, state.fullScaleRunLength, 1, Number.POSITIVE_INFINITY);
-        state.fullScaleRunSign = atLimit;
-        state.fullScaleRunStart = frame;
-        state.fullScaleRunLength = atLimit !== 0 ? 1 : 0;
-      }
-
-      if (magnitude >= MIN_FLAT_TOP_LEVEL) {
-        if (x > 0) {
-          if (x > state.positivePeak) state.positivePeak = x;
-          state.positiveHistogram[Math.min(HISTOGRAM_BINS_PER_UNIT + 1, Math.floor(x * HISTOGRAM_BINS_PER_UNIT))]++;
+      if (atLimit !== 0 || fullScaleRunLength !== 0) {
+        if (atLimit !== 0 && atLimit === fullScaleRunSign) {
+          fullScaleRunLength++;
         } else {
-          if (magnitude > state.negativePeak) state.negativePeak = magnitude;
-          state.negativeHistogram[Math.min(HISTOGRAM_BINS_PER_UNIT + 1, Math.floor(magnitude * HISTOGRAM_BINS_PER_UNIT))]++;
+          if (fullScaleRunLength >= MIN_CLIP_RUN) this.addRun(state.fullScaleGroups, fullScaleRunStart, fullScaleRunLength, 1, Number.POSITIVE_INFINITY);
+          fullScaleRunSign = atLimit;
+          fullScaleRunStart = startFrame + i;
+          fullScaleRunLength = atLimit !== 0 ? 1 : 0;
         }
       }
 
-      // Flat-top runs below full scale.
-      const reference = state.flatRunReference;
-      const tolerance = Math.max(this.toleranceFloor, (reference < 0 ? -reference : reference) * FLAT_TOP_RELATIVE_TOLERANCE);
-      if (state.flatRunLength > 0 && atLimit === 0 && (x > 0) === (reference > 0) && Math.abs(x - reference) <= tolerance) {
-        state.flatRunLength++;
-      } else {
-        if (state.flatRunLength >= MIN_CLIP_RUN) this.closeFlatRun(state);
-        state.flatRunLength = 0;
+      if (magnitude >= MIN_FLAT_TOP_LEVEL) {
+        let bin = (magnitude * HISTOGRAM_BINS_PER_UNIT) | 0;
+        if (bin > topBin) bin = topBin;
+        if (x > 0) {
+          if (x > positivePeak) positivePeak = x;
+          positiveHistogram[bin]++;
+        } else {
+          if (magnitude > negativePeak) negativePeak = magnitude;
+          negativeHistogram[bin]++;
+        }
+      }
+
+      // Flat-top runs below full scale: same polarity, within tolerance of the run's first sample.
+      const deviation = x - flatRunReference;
+      if (flatRunLength > 0 && atLimit === 0 && (x > 0) === (flatRunReference > 0) && deviation <= flatRunTolerance && deviation >= -flatRunTolerance) {
+        flatRunLength++;
+      } else if (flatRunLength > 0 || magnitude >= MIN_FLAT_TOP_LEVEL) {
+        if (flatRunLength >= MIN_CLIP_RUN) this.closeFlatRun(state, flatRunStart, flatRunLength, flatRunReference, flatRunBefore1, flatRunBefore2);
+        flatRunLength = 0;
         if (magnitude >= MIN_FLAT_TOP_LEVEL && atLimit === 0) {
-          state.flatRunStart = frame;
-          state.flatRunReference = x;
-          state.flatRunLength = 1;
-          // How fast |x| was rising into this sample (over the last two steps).
-          const previousMagnitude1 = previous1 < 0 ? -previous1 : previous1;
-          const previousMagnitude2 = previous2 < 0 ? -previous2 : previous2;
-          state.flatRunEntrySlope = Math.max(magnitude - previousMagnitude1, previousMagnitude1 - previousMagnitude2);
+          flatRunStart = startFrame + i;
+          flatRunReference = x;
+          flatRunTolerance = magnitude * FLAT_TOP_RELATIVE_TOLERANCE;
+          if (flatRunTolerance < toleranceFloor) flatRunTolerance = toleranceFloor;
+          flatRunLength = 1;
+          flatRunBefore1 = previous1;
+          flatRunBefore2 = previous2;
         }
       }
       previous2 = previous1;
       previous1 = x;
     }
+    state.fullScaleRunStart = fullScaleRunStart;
+    state.fullScaleRunLength = fullScaleRunLength;
+    state.fullScaleRunSign = fullScaleRunSign;
+    state.flatRunLength = flatRunLength;
+    state.flatRunStart = flatRunStart;
+    state.flatRunBefore1 = flatRunBefore1;
+    state.flatRunBefore2 = flatRunBefore2;
+    state.flatRunReference = flatRunReference;
+    state.positivePeak = positivePeak;
+    state.negativePeak = negativePeak;
     state.previous1 = previous1;
     state.previous2 = previous2;
   }
@@ -173,16 +203,18 @@ export class ClippingAnalyzer implements Analyzer<ClippingResult> {
     if (groups.length < MAX_GROUPS) groups.push({ start, end: start + length, level, samples: length, runs: 1 });
   }
 
-  private closeFlatRun(state: ChannelClipState): void {
-    const reference = state.flatRunReference;
+  /** Keeps a flat run as a candidate when the signal ran into it faster than a rounded peak can. */
+  private closeFlatRun(state: ChannelClipState, start: number, length: number, reference: number, before1: number, before2: number): void {
     const magnitude = Math.abs(reference);
     const tolerance = Math.max(this.toleranceFloor, magnitude * FLAT_TOP_RELATIVE_TOLERANCE);
-    if (state.flatRunEntrySlope < ENTRY_SLOPE_FACTOR * tolerance) return;
-    this.addRun(state.flatTopGroups[reference > 0 ? 0 : 1], state.flatRunStart, state.flatRunLength, magnitude, 2 * tolerance);
+    // How fast |x| was rising into the run, over the last two steps before it.
+    const entrySlope = Math.max(magnitude - Math.abs(before1), Math.abs(before1) - Math.abs(before2));
+    if (entrySlope < ENTRY_SLOPE_FACTOR * tolerance) return;
+    this.addRun(state.flatTopGroups[reference > 0 ? 0 : 1], start, length, magnitude, 2 * tolerance);
   }
 
   /** True when the histogram bins at `level` hold a spike over the bins just below. */
-  private static isHistogramSpike(histogram: Float64Array, level: number, tolerance: number): boolean {
+  private static isHistogramSpike(histogram: Uint32Array, level: number, tolerance: number): boolean {
     const low = Math.floor((level - tolerance) * HISTOGRAM_BINS_PER_UNIT);
     const high = Math.min(HISTOGRAM_BINS_PER_UNIT + 1, Math.floor((level + tolerance) * HISTOGRAM_BINS_PER_UNIT));
     let spike = 0;
@@ -198,7 +230,7 @@ export class ClippingAnalyzer implements Analyzer<ClippingResult> {
     const channelClippedSamples: number[] = [];
     for (let channel = 0; channel < this.channelCount; channel++) {
       const state = this.states[channel];
-      if (state.flatRunLength >= MIN_CLIP_RUN) this.closeFlatRun(state);
+      if (state.flatRunLength >= MIN_CLIP_RUN) this.closeFlatRun(state, state.flatRunStart, state.flatRunLength, state.flatRunReference, state.flatRunBefore1, state.flatRunBefore2);
       if (state.fullScaleRunLength >= MIN_CLIP_RUN) this.addRun(state.fullScaleGroups, state.fullScaleRunStart, state.fullScaleRunLength, 1, Number.POSITIVE_INFINITY);
       const kept: (ClipGroup & { kind: ClipEvent['level'] })[] = state.fullScaleGroups.map((group) => ({ ...group, kind: 'fullScale' as const }));
       for (const polarity of [0, 1] as const) {

@@ -20,7 +20,6 @@ export class DropoutAnalyzer implements Analyzer<DropoutResult> {
   private readonly sampleRate: number;
   private readonly channelCount: number;
   private readonly minFrames: number;
-  private allZero: Uint8Array = new Uint8Array(0);
   /** First frame of the current all-zero run, or -1 when the last frame carried signal. */
   private zeroRunStart = -1;
   private signalSeen = false;
@@ -41,21 +40,21 @@ export class DropoutAnalyzer implements Analyzer<DropoutResult> {
 
   push(block: SampleBlock): void {
     const frames = block.frames;
-    if (this.allZero.length < frames) this.allZero = new Uint8Array(frames);
-    const allZero = this.allZero;
-    allZero.fill(1, 0, frames);
-    for (let channel = 0; channel < this.channelCount; channel++) {
-      const samples = block.channels[channel];
-      for (let i = 0; i < frames; i++) if (samples[i] !== 0) allZero[i] = 0;
-    }
+    const first = block.channels[0];
+    const others = block.channels.slice(1, this.channelCount);
     for (let i = 0; i < frames; i++) {
-      const frame = block.startFrame + i;
-      if (allZero[i]) {
-        if (this.zeroRunStart < 0) this.zeroRunStart = frame;
+      // Most frames carry signal on the first channel: test the others only when it is zero.
+      let zero = first[i] === 0;
+      for (let c = 0; zero && c < others.length; c++) zero = others[c][i] === 0;
+      if (zero) {
+        if (this.zeroRunStart < 0) this.zeroRunStart = block.startFrame + i;
         continue;
       }
-      if (this.zeroRunStart >= 0 && this.signalSeen && frame - this.zeroRunStart >= this.minFrames) this.record(this.zeroRunStart, frame);
-      this.zeroRunStart = -1;
+      if (this.zeroRunStart >= 0) {
+        const frame = block.startFrame + i;
+        if (this.signalSeen && frame - this.zeroRunStart >= this.minFrames) this.record(this.zeroRunStart, frame);
+        this.zeroRunStart = -1;
+      }
       this.signalSeen = true;
     }
   }

@@ -1,4 +1,4 @@
-import { TRUE_PEAK_MAX_GAIN, TRUE_PEAK_PHASES, TRUE_PEAK_TAPS_PER_PHASE } from '../filters/truePeakFilter';
+import { TRUE_PEAK_CENTRE_GAIN, TRUE_PEAK_MAX_GAIN, TRUE_PEAK_PHASES, TRUE_PEAK_SIDE_GAIN, TRUE_PEAK_TAPS_PER_PHASE } from '../filters/truePeakFilter';
 import type { Analyzer, AudioFormat, SampleBlock } from '../types';
 
 /** Samples per bound check: small enough to skip finely, large enough to amortise the check. */
@@ -15,9 +15,11 @@ export interface TruePeakResult {
  * Annex's 48-tap FIR (in floating point, so no 12.04 dB attenuation is needed),
  * then the largest absolute value.
  *
- * Exact shortcut: an output is a sum of 12 taps times 12 samples, so it is at
- * most TRUE_PEAK_MAX_GAIN × the largest |sample| of its window. A run of
- * outputs whose windows cannot beat the running maximum is not computed.
+ * Exact shortcuts: an output is a sum of 12 taps times 12 samples, so it is at
+ * most TRUE_PEAK_MAX_GAIN × the largest |sample| of its window; a run of
+ * outputs whose windows cannot beat the running maximum is not computed. Within
+ * a run that can, an output is also bounded by (|h5|+|h6|)·max(|x[n-5]|, |x[n-6]|)
+ * + (sum of the other |h|)·(window max), and is skipped when that cannot win.
  * The sample values themselves also count, so the reading never falls below
  * the sample peak (the example filter's phases 1-2 have a DC gain of 0.973).
  */
@@ -61,9 +63,15 @@ export class TruePeakAnalyzer implements Analyzer<TruePeakResult> {
         if (magnitude > windowMax) windowMax = magnitude;
       }
       if (windowMax * TRUE_PEAK_MAX_GAIN <= peak) continue;
+      const sideBound = TRUE_PEAK_SIDE_GAIN * windowMax;
       for (let n = chunkStart; n < chunkEnd; n++) {
         // extended[n + HISTORY - k] is x[n - k].
         const newest = n + HISTORY;
+        const centre5 = Math.abs(extended[newest - 5]);
+        const centre6 = Math.abs(extended[newest - 6]);
+        const newestMagnitude = Math.abs(extended[newest]);
+        if (newestMagnitude > peak) peak = newestMagnitude;
+        if (TRUE_PEAK_CENTRE_GAIN * (centre5 > centre6 ? centre5 : centre6) + sideBound <= peak) continue;
         let sum0 = 0, sum1 = 0, sum2 = 0, sum3 = 0;
         for (let k = 0; k < TRUE_PEAK_TAPS_PER_PHASE; k++) {
           const x = extended[newest - k];
@@ -72,7 +80,7 @@ export class TruePeakAnalyzer implements Analyzer<TruePeakResult> {
           sum2 += phase2[k] * x;
           sum3 += phase3[k] * x;
         }
-        const magnitude = Math.max(Math.abs(sum0), Math.abs(sum1), Math.abs(sum2), Math.abs(sum3), Math.abs(extended[newest]));
+        const magnitude = Math.max(Math.abs(sum0), Math.abs(sum1), Math.abs(sum2), Math.abs(sum3));
         if (magnitude > peak) peak = magnitude;
       }
     }
