@@ -22,6 +22,9 @@ export function measuredFields(report: AnalysisReport, spec: Spec) {
     integratedLufs: report.loudness.integratedLufs,
     noiseFloorDbfs: report.noise.floorDbfs,
     clipEvents: report.clipping.events.length,
+    belowFullScaleClipEvents: report.clipping.events.filter((e) => e.level === 'belowFullScale').length,
+    rateMismatch: (report.tone?.likelyRecordedRate != null && report.tone.likelyRecordedRate !== report.file.sampleRate) || report.bandwidth.impliedSourceRate != null,
+    aliasingRisk: report.bandwidth.aliasingRisk,
   };
 }
 

@@ -35,6 +35,9 @@ export class Take extends Model<InferAttributes<Take>, InferCreationAttributes<T
   declare integratedLufs: number | null;
   declare noiseFloorDbfs: number | null;
   declare clipEvents: number | null;
+  declare belowFullScaleClipEvents: CreationOptional<number | null>;
+  declare rateMismatch: CreationOptional<boolean | null>;
+  declare aliasingRisk: CreationOptional<boolean | null>;
   declare verdict: Verdict | null;
   declare decision: CreationOptional<Decision>;
   declare decidedById: number | null;
@@ -73,6 +76,9 @@ export function initTake(sequelize: Sequelize) {
       integratedLufs: { type: DataTypes.FLOAT, allowNull: true },
       noiseFloorDbfs: { type: DataTypes.FLOAT, allowNull: true },
       clipEvents: { type: DataTypes.INTEGER.UNSIGNED, allowNull: true },
+      belowFullScaleClipEvents: { type: DataTypes.INTEGER.UNSIGNED, allowNull: true },
+      rateMismatch: { type: DataTypes.BOOLEAN, allowNull: true },
+      aliasingRisk: { type: DataTypes.BOOLEAN, allowNull: true },
       verdict: { type: DataTypes.ENUM(...VERDICTS), allowNull: true },
       decision: { type: DataTypes.ENUM(...DECISIONS), allowNull: false, defaultValue: 'pending' },
       decidedAt: { type: DataTypes.DATE, allowNull: true },
