@@ -1,7 +1,7 @@
 import 'server-only';
 import { ensureDb } from './db';
 import type { Actor } from './auth/guard';
-import { DeliverySpec, User } from '@/models';
+import { DeliverySpec, Recorder, User } from '@/models';
 import type { Role } from '@/models/User';
 
 /** The studio's delivery specs and people, as choices for forms. */
@@ -15,4 +15,10 @@ export async function peopleOptions(actor: Actor, role: Role) {
   ensureDb();
   const users = await User.findAll({ where: { studioId: actor.studioId, role, active: true }, attributes: ['id', 'name'], order: [['name', 'ASC']] });
   return users.map((u) => ({ id: u.id, name: u.name }));
+}
+
+export async function recorderOptions(actor: Actor) {
+  ensureDb();
+  const recorders = await Recorder.findAll({ where: { studioId: actor.studioId, active: true }, attributes: ['id', 'label'], order: [['label', 'ASC']] });
+  return recorders.map((r) => ({ id: r.id, name: r.label }));
 }

@@ -6,3 +6,7 @@ export function sessionsKey(q = '', status = 'all'): string {
   const s = params.toString();
   return `/api/sessions${s ? `?${s}` : ''}`;
 }
+
+export function sessionTakesKey(sessionId: number): string {
+  return `/api/sessions/${sessionId}/takes`;
+}

@@ -8,6 +8,7 @@ import { audit } from './audit';
 import type { Actor } from './auth/guard';
 import { db } from './db';
 import { env } from './env';
+import { formatBytes } from './format';
 import { AppError } from './errors';
 import { findSession } from './sessions';
 import { newTakeKey, storage } from './storage';
@@ -65,12 +66,6 @@ class UploadCheck extends Transform {
 
 function isWavHead(head: Buffer): boolean {
   return WAV_MAGIC.has(head.toString('latin1', 0, 4)) && head.toString('latin1', 8, 12) === 'WAVE';
-}
-
-export function formatBytes(n: number): string {
-  if (n >= 1024 ** 3) return `${(n / 1024 ** 3).toFixed(1)} GB`;
-  if (n >= 1024 ** 2) return `${(n / 1024 ** 2).toFixed(0)} MB`;
-  return `${Math.round(n / 1024)} KB`;
 }
 
 interface StoredFile {

@@ -1,40 +1,57 @@
 import type { Metadata } from 'next';
 import Link from 'next/link';
+import { SessionSettings } from '@/components/SessionSettings';
+import { SwrProvider } from '@/components/SwrProvider';
+import { TakeTable } from '@/components/TakeTable';
+import { TakeUploader } from '@/components/TakeUploader';
 import { requireActor } from '@/lib/auth/guard';
+import { can } from '@/lib/auth/policy';
+import { recorderOptions, specOptions } from '@/lib/options';
 import { loadPage } from '@/lib/pages';
 import { getSession } from '@/lib/sessions';
+import { sessionTakesKey } from '@/lib/swrKeys';
+import { listSessionTakes } from '@/lib/takes';
 
 export const metadata: Metadata = { title: 'Session' };
 
 export default async function SessionPage({ params }: { params: Promise<{ id: string }> }) {
-  const { session } = await loadPage(async () => {
+  const { actor, session, takes, recorders, specs } = await loadPage(async () => {
     const actor = await requireActor('session:view');
-    const id = Number((await params).id);
-    return { actor, session: await getSession(actor, Number.isInteger(id) && id > 0 ? id : 0) };
+    const raw = Number((await params).id);
+    const session = await getSession(actor, Number.isInteger(raw) && raw > 0 ? raw : 0);
+    return { actor, session, takes: await listSessionTakes(actor, session.id), recorders: await recorderOptions(actor), specs: await specOptions(actor) };
   });
+  const takesKey = sessionTakesKey(session.id);
+  const mayUpload = can(actor.role, 'take:upload') && session.status === 'open';
   return (
-    <article>
-      <p className="mb-2 text-sm">
-        <Link href="/sessions" className="text-accent hover:underline">
-          ← All sessions
-        </Link>
-      </p>
-      <header className="mb-6">
-        <h1 className="text-2xl font-semibold">{session.title}</h1>
-        <dl className="mt-2 flex flex-wrap gap-x-6 gap-y-1 text-sm text-muted">
-          <div><dt className="inline">Show / client: </dt><dd className="inline text-ink">{session.client ?? '—'}</dd></div>
-          <div><dt className="inline">Recorded on: </dt><dd className="inline font-mono text-ink">{session.recordedOn ?? '—'}</dd></div>
-          <div><dt className="inline">Room: </dt><dd className="inline text-ink">{session.room ?? '—'}</dd></div>
-          <div><dt className="inline">Engineer: </dt><dd className="inline text-ink">{session.engineer?.name ?? '—'}</dd></div>
-          <div><dt className="inline">Producer: </dt><dd className="inline text-ink">{session.producer?.name ?? '—'}</dd></div>
-          <div><dt className="inline">Delivery spec: </dt><dd className="inline text-ink">{session.deliverySpec?.name ?? 'Takeproof defaults'}</dd></div>
-          <div><dt className="inline">Status: </dt><dd className="inline text-ink">{session.status === 'open' ? '○ Open' : '● Closed'}</dd></div>
-        </dl>
-        {session.notes && <p className="mt-3 max-w-prose whitespace-pre-line">{session.notes}</p>}
-      </header>
-      <section className="tp-card p-6 text-muted" aria-label="Takes">
-        {session.takeCount === 0 ? 'No takes in this session yet.' : `${session.takeCount} takes in this session.`}
-      </section>
-    </article>
+    <SwrProvider fallback={{ [takesKey]: { takes } }}>
+      <article className="space-y-6">
+        <div>
+          <p className="mb-2 text-sm">
+            <Link href="/sessions" className="text-accent hover:underline">
+              ← All sessions
+            </Link>
+          </p>
+          <h1 className="text-2xl font-semibold">{session.title}</h1>
+          <dl className="mt-2 flex flex-wrap gap-x-6 gap-y-1 text-sm text-muted">
+            <div><dt className="inline">Show / client: </dt><dd className="inline text-ink">{session.client ?? '—'}</dd></div>
+            <div><dt className="inline">Recorded on: </dt><dd className="inline font-mono text-ink">{session.recordedOn ?? '—'}</dd></div>
+            <div><dt className="inline">Room: </dt><dd className="inline text-ink">{session.room ?? '—'}</dd></div>
+            <div><dt className="inline">Engineer: </dt><dd className="inline text-ink">{session.engineer?.name ?? '—'}</dd></div>
+            <div><dt className="inline">Producer: </dt><dd className="inline text-ink">{session.producer?.name ?? '—'}</dd></div>
+            <div><dt className="inline">Status: </dt><dd className="inline text-ink">{session.status === 'open' ? '○ Open' : '● Closed'}</dd></div>
+          </dl>
+          {session.notes && <p className="mt-3 max-w-prose whitespace-pre-line">{session.notes}</p>}
+        </div>
+        {can(actor.role, 'session:edit') && (
+          <SessionSettings sessionId={session.id} specId={session.deliverySpec?.id ?? null} status={session.status} specs={specs} takesKey={takesKey} />
+        )}
+        <p className="max-w-prose text-xs text-muted">
+          Verdicts follow the session’s delivery spec ({session.deliverySpec?.name ?? 'Takeproof defaults'}). The studio’s and the broadcaster’s own delivery specs and local rules take precedence over Takeproof’s defaults.
+        </p>
+        {mayUpload && <TakeUploader sessionId={session.id} recorders={recorders} takesKey={takesKey} />}
+        <TakeTable takesKey={takesKey} />
+      </article>
+    </SwrProvider>
   );
 }

@@ -1,0 +1,162 @@
+'use client';
+
+import Link from 'next/link';
+import { useMemo, useState } from 'react';
+import useSWR from 'swr';
+import type { ApiError } from '@/lib/fetcher';
+import { formatDuration, formatFormat, formatNumber } from '@/lib/format';
+import type { TakeSummary } from '@/lib/takeViews';
+import { DecisionMark, TakeStatusMark, VerdictMark } from './StatusMarks';
+
+type SortKey = 'originalName' | 'recorderLabel' | 'durationSec' | 'effectiveBits' | 'truePeakDbtp' | 'integratedLufs' | 'noiseFloorDbfs' | 'clipEvents' | 'verdict' | 'decision';
+
+const COLUMNS: { key: SortKey; label: string; numeric?: boolean }[] = [
+  { key: 'originalName', label: 'Take' },
+  { key: 'recorderLabel', label: 'Recorder' },
+  { key: 'durationSec', label: 'Length', numeric: true },
+  { key: 'effectiveBits', label: 'Bits used', numeric: true },
+  { key: 'truePeakDbtp', label: 'True peak', numeric: true },
+  { key: 'integratedLufs', label: 'Loudness', numeric: true },
+  { key: 'noiseFloorDbfs', label: 'Noise floor', numeric: true },
+  { key: 'clipEvents', label: 'Clips', numeric: true },
+  { key: 'verdict', label: 'Verdict' },
+  { key: 'decision', label: 'Decision' },
+];
+
+const VERDICT_ORDER = { fail: 0, warn: 1, pass: 2 } as const;
+
+function compare(a: TakeSummary, b: TakeSummary, key: SortKey): number {
+  const va = key === 'verdict' ? (a.verdict ? VERDICT_ORDER[a.verdict] : 9) : a[key];
+  const vb = key === 'verdict' ? (b.verdict ? VERDICT_ORDER[b.verdict] : 9) : b[key];
+  if (va == null && vb == null) return 0;
+  if (va == null) return 1;
+  if (vb == null) return -1;
+  return typeof va === 'number' && typeof vb === 'number' ? va - vb : String(va).localeCompare(String(vb));
+}
+
+/** The session's takes, sortable and filterable; polls while any take is still being measured. */
+export function TakeTable({ takesKey }: { takesKey: string }) {
+  const { data, error } = useSWR<{ takes: TakeSummary[] }, ApiError>(takesKey, {
+    refreshInterval: (latest) => (latest?.takes.some((t) => t.status === 'queued' || t.status === 'measuring') ? 1500 : 0),
+  });
+  const [sort, setSort] = useState<{ key: SortKey; descending: boolean }>({ key: 'originalName', descending: false });
+  const [filter, setFilter] = useState({ text: '', verdict: 'all', decision: 'all' });
+  const takes = data?.takes ?? [];
+
+  const shown = useMemo(() => {
+    const text = filter.text.trim().toLowerCase();
+    const rows = takes.filter(
+      (t) =>
+        (!text || t.originalName.toLowerCase().includes(text) || (t.recorderLabel ?? '').toLowerCase().includes(text)) &&
+        (filter.verdict === 'all' || t.verdict === filter.verdict) &&
+        (filter.decision === 'all' || t.decision === filter.decision),
+    );
+    rows.sort((a, b) => compare(a, b, sort.key) * (sort.descending ? -1 : 1));
+    return rows;
+  }, [takes, filter, sort]);
+
+  const counts = {
+    pass: takes.filter((t) => t.verdict === 'pass').length,
+    warn: takes.filter((t) => t.verdict === 'warn').length,
+    fail: takes.filter((t) => t.verdict === 'fail').length,
+    approved: takes.filter((t) => t.decision === 'approved').length,
+    rejected: takes.filter((t) => t.decision === 'rejected').length,
+    waiting: takes.filter((t) => t.status === 'queued' || t.status === 'measuring').length,
+  };
+
+  return (
+    <section aria-labelledby="takes-heading" className="tp-card">
+      <div className="flex flex-wrap items-end gap-3 border-b border-line p-4">
+        <h2 id="takes-heading" className="mr-auto text-lg font-semibold">
+          Takes
+        </h2>
+        <label className="text-sm">
+          <span className="tp-label">Find</span>
+          <input className="tp-input w-44" type="search" value={filter.text} onChange={(e) => setFilter({ ...filter, text: e.target.value })} placeholder="Name or recorder" />
+        </label>
+        <label className="text-sm">
+          <span className="tp-label">Verdict</span>
+          <select className="tp-input" value={filter.verdict} onChange={(e) => setFilter({ ...filter, verdict: e.target.value })}>
+            <option value="all">All</option>
+            <option value="pass">Pass</option>
+            <option value="warn">Warn</option>
+            <option value="fail">Fail</option>
+          </select>
+        </label>
+        <label className="text-sm">
+          <span className="tp-label">Decision</span>
+          <select className="tp-input" value={filter.decision} onChange={(e) => setFilter({ ...filter, decision: e.target.value })}>
+            <option value="all">All</option>
+            <option value="pending">Pending</option>
+            <option value="approved">Approved</option>
+            <option value="rejected">Rejected</option>
+          </select>
+        </label>
+      </div>
+      {takes.length > 0 && (
+        <p className="flex flex-wrap gap-x-5 gap-y-1 border-b border-line bg-sunken px-4 py-2 text-sm" data-testid="take-summary" aria-live="polite">
+          <span>{takes.length} takes</span>
+          <span className="text-pass">✓ {counts.pass} pass</span>
+          <span className="text-warn">▲ {counts.warn} warn</span>
+          <span className="text-fail">✕ {counts.fail} fail</span>
+          <span>● {counts.approved} approved</span>
+          <span>■ {counts.rejected} rejected</span>
+          {counts.waiting > 0 && <span className="text-muted">◷ {counts.waiting} still measuring</span>}
+        </p>
+      )}
+      {error && (
+        <p role="alert" className="p-4 text-fail">
+          ✕ {error.message}
+        </p>
+      )}
+      {!error && !data && <p className="p-4 text-muted">Loading takes…</p>}
+      {data && takes.length === 0 && <p className="p-6 text-muted">No takes yet. Drop the session’s WAV files into “Add takes”.</p>}
+      {takes.length > 0 && shown.length === 0 && <p className="p-6 text-muted">No take matches these filters.</p>}
+      {shown.length > 0 && (
+        <div className="overflow-x-auto">
+          <table className="w-full text-left text-sm" aria-describedby="takes-heading">
+            <thead className="bg-sunken text-muted">
+              <tr>
+                {COLUMNS.map((c) => {
+                  const active = sort.key === c.key;
+                  return (
+                    <th key={c.key} scope="col" className={`px-3 py-2 font-semibold ${c.numeric ? 'text-right' : ''}`} aria-sort={active ? (sort.descending ? 'descending' : 'ascending') : 'none'}>
+                      <button type="button" className="inline-flex items-center gap-1 hover:text-ink" onClick={() => setSort({ key: c.key, descending: active ? !sort.descending : false })}>
+                        {c.label}
+                        <span aria-hidden="true">{active ? (sort.descending ? '▼' : '▲') : '↕'}</span>
+                      </button>
+                    </th>
+                  );
+                })}
+                <th scope="col" className="px-3 py-2 font-semibold">Format</th>
+                <th scope="col" className="px-3 py-2 font-semibold">Status</th>
+              </tr>
+            </thead>
+            <tbody>
+              {shown.map((t) => (
+                <tr key={t.id} className="border-t border-line" data-testid={`take-row-${t.id}`}>
+                  <td className="max-w-64 truncate px-3 py-2" title={t.originalName}>
+                    <Link href={`/takes/${t.id}`} className="font-semibold text-accent hover:underline">
+                      {t.originalName}
+                    </Link>
+                  </td>
+                  <td className="px-3 py-2">{t.recorderLabel ?? '—'}</td>
+                  <td className="px-3 py-2 text-right font-mono">{formatDuration(t.durationSec)}</td>
+                  <td className="px-3 py-2 text-right font-mono">{t.effectiveBits ?? '—'}</td>
+                  <td className="px-3 py-2 text-right font-mono">{formatNumber(t.truePeakDbtp, 1, 'dBTP')}</td>
+                  <td className="px-3 py-2 text-right font-mono">{formatNumber(t.integratedLufs, 1, 'LUFS')}</td>
+                  <td className="px-3 py-2 text-right font-mono">{formatNumber(t.noiseFloorDbfs, 1, 'dBFS')}</td>
+                  <td className="px-3 py-2 text-right font-mono">{t.clipEvents ?? '—'}</td>
+                  <td className="px-3 py-2" data-testid="verdict"><VerdictMark verdict={t.verdict} /></td>
+                  <td className="px-3 py-2" data-testid="decision"><DecisionMark decision={t.decision} /></td>
+                  <td className="whitespace-nowrap px-3 py-2 text-muted">{formatFormat(t.format)}</td>
+                  <td className="px-3 py-2" data-testid="status"><TakeStatusMark status={t.status} progress={t.progress} error={t.error} /></td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </div>
+      )}
+    </section>
+  );
+}

@@ -1,0 +1,153 @@
+'use client';
+
+import { useRef, useState } from 'react';
+import { useSWRConfig } from 'swr';
+import { formatBytes } from '@/lib/format';
+import type { Option } from './SessionCreateForm';
+
+interface Upload {
+  id: number;
+  file: File;
+  sent: number;
+  startedAt: number;
+  state: 'sending' | 'done' | 'failed' | 'cancelled';
+  message?: string;
+  xhr?: XMLHttpRequest;
+}
+
+let nextUploadId = 1;
+
+function timeLeft(u: Upload): string {
+  const elapsed = (Date.now() - u.startedAt) / 1000;
+  if (u.sent === 0 || elapsed < 0.5) return '';
+  const rate = u.sent / elapsed;
+  const rest = (u.file.size - u.sent) / rate;
+  return `${formatBytes(rate)}/s · ${rest < 60 ? `${Math.ceil(rest)} s` : `${Math.ceil(rest / 60)} min`} left`;
+}
+
+/**
+ * Drop zone and file picker for many WAV takes at once. Each file goes up in its own request
+ * (XMLHttpRequest, because fetch cannot report upload progress) with its own bar and cancel button.
+ */
+export function TakeUploader({ sessionId, recorders, takesKey }: { sessionId: number; recorders: Option[]; takesKey: string }) {
+  const { mutate } = useSWRConfig();
+  const [uploads, setUploads] = useState<Upload[]>([]);
+  const [dragging, setDragging] = useState(false);
+  const [recorderId, setRecorderId] = useState('');
+  const input = useRef<HTMLInputElement>(null);
+
+  const patch = (id: number, change: Partial<Upload>) => setUploads((all) => all.map((u) => (u.id === id ? { ...u, ...change } : u)));
+
+  function start(files: FileList | File[]) {
+    for (const file of Array.from(files)) {
+      const upload: Upload = { id: nextUploadId++, file, sent: 0, startedAt: Date.now(), state: 'sending' };
+      const xhr = new XMLHttpRequest();
+      upload.xhr = xhr;
+      xhr.open('POST', `/api/sessions/${sessionId}/takes`);
+      xhr.responseType = 'json';
+      xhr.upload.onprogress = (e) => patch(upload.id, { sent: e.loaded });
+      xhr.onload = () => {
+        if (xhr.status === 201) {
+          patch(upload.id, { state: 'done', sent: file.size });
+          void mutate(takesKey);
+        } else {
+          const message = (xhr.response as { message?: string } | null)?.message ?? `The server answered ${xhr.status}.`;
+          patch(upload.id, { state: 'failed', message });
+        }
+      };
+      xhr.onerror = () => patch(upload.id, { state: 'failed', message: 'The connection dropped. Nothing was kept; try again.' });
+      xhr.onabort = () => patch(upload.id, { state: 'cancelled', message: 'Cancelled. Nothing was kept.' });
+      const form = new FormData();
+      if (recorderId) form.append('recorderId', recorderId);
+      form.append('file', file, file.name);
+      xhr.send(form);
+      setUploads((all) => [upload, ...all]);
+    }
+  }
+
+  return (
+    <section aria-labelledby="upload-heading" className="tp-card p-4">
+      <div className="mb-3 flex flex-wrap items-end gap-4">
+        <h2 id="upload-heading" className="mr-auto text-lg font-semibold">
+          Add takes
+        </h2>
+        <label className="text-sm">
+          <span className="tp-label">Recorder</span>
+          <select className="tp-input" value={recorderId} onChange={(e) => setRecorderId(e.target.value)}>
+            <option value="">Match from the file’s BWF data</option>
+            {recorders.map((r) => (
+              <option key={r.id} value={r.id}>
+                {r.name}
+              </option>
+            ))}
+          </select>
+        </label>
+      </div>
+      <div
+        onDragOver={(e) => {
+          e.preventDefault();
+          setDragging(true);
+        }}
+        onDragLeave={() => setDragging(false)}
+        onDrop={(e) => {
+          e.preventDefault();
+          setDragging(false);
+          start(e.dataTransfer.files);
+        }}
+        className={`flex flex-col items-center justify-center gap-2 rounded-card border-2 border-dashed p-6 text-center ${dragging ? 'border-accent bg-sunken' : 'border-line'}`}
+      >
+        <p className="font-semibold">Drop WAV takes here</p>
+        <p className="text-sm text-muted">or</p>
+        <button type="button" className="tp-button" onClick={() => input.current?.click()}>
+          Choose files…
+        </button>
+        <input
+          ref={input}
+          type="file"
+          accept=".wav,.bwf,audio/wav,audio/x-wav"
+          multiple
+          className="sr-only"
+          aria-label="Choose WAV files to upload"
+          data-testid="take-file-input"
+          onChange={(e) => {
+            if (e.target.files) start(e.target.files);
+            e.target.value = '';
+          }}
+        />
+      </div>
+      {uploads.length > 0 && (
+        <ul className="mt-3 space-y-2" aria-label="Uploads">
+          {uploads.map((u) => {
+            const pct = u.file.size ? Math.round((100 * u.sent) / u.file.size) : 100;
+            return (
+              <li key={u.id} className="rounded-md border border-line p-2 text-sm">
+                <div className="flex items-center gap-3">
+                  <span className="min-w-0 flex-1 truncate font-semibold" title={u.file.name}>
+                    {u.file.name}
+                  </span>
+                  <span className="font-mono text-xs text-muted">
+                    {formatBytes(u.sent)} / {formatBytes(u.file.size)}
+                  </span>
+                  {u.state === 'sending' && (
+                    <button type="button" className="tp-button-quiet px-2 py-1" onClick={() => u.xhr?.abort()} aria-label={`Cancel upload of ${u.file.name}`}>
+                      Cancel
+                    </button>
+                  )}
+                </div>
+                <div className="mt-1 h-1.5 overflow-hidden rounded bg-sunken" role="progressbar" aria-label={`Upload of ${u.file.name}`} aria-valuenow={pct} aria-valuemin={0} aria-valuemax={100}>
+                  <div className={`h-full ${u.state === 'failed' ? 'bg-fail' : 'bg-accent'}`} style={{ width: `${pct}%` }} />
+                </div>
+                <p className="mt-1 text-xs">
+                  {u.state === 'sending' && <span className="text-muted">Sending… {pct} % {timeLeft(u)}</span>}
+                  {u.state === 'done' && <span className="text-pass">✓ Uploaded — queued for measuring</span>}
+                  {u.state === 'failed' && <span className="text-fail">✕ {u.message}</span>}
+                  {u.state === 'cancelled' && <span className="text-muted">○ {u.message}</span>}
+                </p>
+              </li>
+            );
+          })}
+        </ul>
+      )}
+    </section>
+  );
+}
