@@ -94,6 +94,6 @@ function encodeRfc5987(value: string): string {
  */
 export function contentDisposition(originalName: string, disposition: 'inline' | 'attachment' = 'inline'): string {
   const name = safeFileName(originalName);
-  const ascii = name.replace(/[^\x20-\x7e]|["\\%]/g, '_');
+  const ascii = name.replace(/[^\x20-\x7e]|["\\%]/gu, '_');
   return `${disposition}; filename="${ascii}"; filename*=UTF-8''${encodeRfc5987(name)}`;
 }
