@@ -2,17 +2,19 @@ import type { Sequelize } from 'sequelize';
 import { AnalysisJob, initAnalysisJob } from './AnalysisJob';
 import { AuditEvent, initAuditEvent } from './AuditEvent';
 import { DeliverySpec, initDeliverySpec } from './DeliverySpec';
+import { Invitation, initInvitation } from './Invitation';
+import { MailDelivery, initMailDelivery } from './MailDelivery';
 import { Recorder, initRecorder } from './Recorder';
 import { RecordingSession, initRecordingSession } from './RecordingSession';
 import { Studio, initStudio } from './Studio';
 import { Take, initTake } from './Take';
 import { User, initUser } from './User';
 
-export { AnalysisJob, AuditEvent, DeliverySpec, Recorder, RecordingSession, Studio, Take, User };
+export { AnalysisJob, AuditEvent, DeliverySpec, Invitation, MailDelivery, Recorder, RecordingSession, Studio, Take, User };
 
 /** Defines every model on `sequelize` and wires the associations, once. */
 export function initModels(sequelize: Sequelize) {
-  for (const init of [initStudio, initUser, initRecorder, initDeliverySpec, initRecordingSession, initTake, initAuditEvent, initAnalysisJob]) {
+  for (const init of [initStudio, initUser, initRecorder, initDeliverySpec, initRecordingSession, initTake, initAuditEvent, initAnalysisJob, initMailDelivery, initInvitation]) {
     init(sequelize);
   }
   Studio.hasMany(User, { foreignKey: 'studioId' });
@@ -31,4 +33,6 @@ export function initModels(sequelize: Sequelize) {
   Take.hasOne(AnalysisJob, { foreignKey: 'takeId', as: 'job' });
   AnalysisJob.belongsTo(Take, { foreignKey: 'takeId', as: 'take' });
   AuditEvent.belongsTo(User, { foreignKey: 'actorId', as: 'actor' });
+  MailDelivery.belongsTo(User, { foreignKey: 'sentById', as: 'sentBy' });
+  Invitation.belongsTo(User, { foreignKey: 'userId', as: 'user' });
 }
