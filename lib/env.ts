@@ -15,6 +15,8 @@ const envSchema = z
     SMTP_URL: z.string().default('smtp://127.0.0.1:2525'),
     MAIL_FROM: z.string().default('Takeproof <takeproof@demo.test>'),
     MAIL_OUTBOX_DIR: z.string().default('var/mail'),
+    /** The address people open; links in e-mails are built from it. */
+    NEXTAUTH_URL: z.string().url().default('http://127.0.0.1:3000'),
   });
 
 export type Env = z.infer<typeof envSchema>;
