@@ -8,13 +8,14 @@ import { Recorder, initRecorder } from './Recorder';
 import { RecordingSession, initRecordingSession } from './RecordingSession';
 import { Studio, initStudio } from './Studio';
 import { Take, initTake } from './Take';
+import { TakeComment, initTakeComment } from './TakeComment';
 import { User, initUser } from './User';
 
-export { AnalysisJob, AuditEvent, DeliverySpec, Invitation, MailDelivery, Recorder, RecordingSession, Studio, Take, User };
+export { AnalysisJob, AuditEvent, DeliverySpec, Invitation, MailDelivery, Recorder, RecordingSession, Studio, Take, TakeComment, User };
 
 /** Defines every model on `sequelize` and wires the associations, once. */
 export function initModels(sequelize: Sequelize) {
-  for (const init of [initStudio, initUser, initRecorder, initDeliverySpec, initRecordingSession, initTake, initAuditEvent, initAnalysisJob, initMailDelivery, initInvitation]) {
+  for (const init of [initStudio, initUser, initRecorder, initDeliverySpec, initRecordingSession, initTake, initAuditEvent, initAnalysisJob, initMailDelivery, initInvitation, initTakeComment]) {
     init(sequelize);
   }
   Studio.hasMany(User, { foreignKey: 'studioId' });
@@ -33,6 +34,8 @@ export function initModels(sequelize: Sequelize) {
   Take.hasOne(AnalysisJob, { foreignKey: 'takeId', as: 'job' });
   AnalysisJob.belongsTo(Take, { foreignKey: 'takeId', as: 'take' });
   AuditEvent.belongsTo(User, { foreignKey: 'actorId', as: 'actor' });
+  Take.hasMany(TakeComment, { foreignKey: 'takeId', as: 'comments' });
+  TakeComment.belongsTo(User, { foreignKey: 'authorId', as: 'author' });
   MailDelivery.belongsTo(User, { foreignKey: 'sentById', as: 'sentBy' });
   Invitation.belongsTo(User, { foreignKey: 'userId', as: 'user' });
 }
