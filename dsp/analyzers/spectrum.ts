@@ -297,17 +297,19 @@ export class SpectrumAnalyzer implements Analyzer<BandwidthResult> {
       if (b + gap >= bands) continue;
       if (smooth[b] < contentDb - CLIFF_MAX_BELOW_CONTENT_DB) continue;
       if (smooth[b] - suffixMax[b + gap] < CLIFF_DROP_DB) continue;
-      // Refine: walk up from the band's start, on a 5-bin moving average, until the
-      // level falls EDGE_DROP_DB below the passband just under the cut-off.
+      // Refine: the passband level is taken one transition width below the cut-off band (band b
+      // may already lie inside a steep filter's slope); walk up, on a 5-bin moving average, from
+      // there to where the level falls EDGE_DROP_DB below it.
+      const refEnd = Math.max(1, b - gap);
       let under = 0;
       let count = 0;
-      for (let j = Math.max(1, b - 4); j <= b; j++) {
+      for (let j = Math.max(1, refEnd - 4); j <= refEnd; j++) {
         under += Math.pow(10, smooth[j] / 10);
         count++;
       }
       const edgeDb = dbPower(under / count) - EDGE_DROP_DB;
       const kEnd = Math.min(half - 2, (b + gap + 1) * binsPerBand);
-      let k = b * binsPerBand;
+      let k = Math.max(2, refEnd * binsPerBand);
       for (; k < kEnd; k++) {
         const avg = (psd[k - 2] + psd[k - 1] + psd[k] + psd[k + 1] + psd[k + 2]) / 5;
         if (dbPower(avg) < edgeDb) break;
