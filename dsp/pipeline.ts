@@ -10,9 +10,10 @@ import { SpectrumAnalyzer } from './analyzers/spectrum';
 import { StereoAnalyzer } from './analyzers/stereo';
 import { TruePeakAnalyzer } from './analyzers/truePeak';
 import { judgeReport } from './findings';
+import { WorkerAnalyzers } from './parallel/WorkerAnalyzers';
 import { openWav } from './reader/wavReader';
 import { DEFAULT_SPEC, type DeliverySpec } from './spec';
-import type { AnalysisReport, Analyzer, SampleBlock } from './types';
+import type { AnalysisReport, Analyzer } from './types';
 import { amplitudeToDb, powerToDb, roundOrNull, roundTo } from './util/decibels';
 
 export interface AnalyzeOptions {
@@ -29,7 +30,16 @@ export interface AnalyzeOptions {
   peaksPath?: string;
   /** Opens the same file again from an offset (lets a file whose audio precedes its fmt chunk be read). */
   reopenAt?: (byteOffset: number) => Readable;
+  /**
+   * Run true peak, loudness and clipping on a second thread (default true; used
+   * only for takes of PARALLEL_MIN_BYTES or more, and only when a worker thread
+   * can start here, else everything runs on the calling thread with the same results).
+   */
+  parallel?: boolean;
 }
+
+/** Takes smaller than this are analysed on one thread: starting a worker costs more than it saves. */
+export const PARALLEL_MIN_BYTES = 32 * 1024 * 1024;
 
 /** Shortest gap between two progress callbacks, ms. */
 export const PROGRESS_INTERVAL_MS = 250;
@@ -46,36 +56,45 @@ export async function analyzeStream(readable: Readable, options: AnalyzeOptions 
   const wav = await openWav(readable, { reopenAt: options.reopenAt });
   const { format } = wav;
 
+  const audioBytes = format.declaredDataBytes ?? (options.totalBytes ?? 0) - format.dataOffset;
+  const remote = options.parallel !== false && audioBytes >= PARALLEL_MIN_BYTES ? await WorkerAnalyzers.start(format) : null;
   const levels = new LevelsAnalyzer(format);
-  const clipping = new ClippingAnalyzer(format);
-  const truePeak = new TruePeakAnalyzer(format);
-  const loudness = new LoudnessAnalyzer(format);
   const dropouts = new DropoutAnalyzer(format);
   const stereo = format.channels === 2 ? new StereoAnalyzer(format) : null;
   const spectrum = new SpectrumAnalyzer(format);
   const noise = new NoiseFloorAnalyzer(format);
-  const analyzers: Analyzer<unknown>[] = [levels, clipping, truePeak, loudness, dropouts, spectrum, noise];
-  if (stereo) analyzers.push(stereo);
+  const truePeak = remote ? null : new TruePeakAnalyzer(format);
+  const loudness = remote ? null : new LoudnessAnalyzer(format);
+  const clipping = remote ? null : new ClippingAnalyzer(format);
+  const local: Analyzer<unknown>[] = [levels, dropouts, spectrum, noise];
+  for (const analyzer of [stereo, truePeak, loudness, clipping]) if (analyzer) local.push(analyzer);
 
   const totalBytes = options.totalBytes ?? null;
   let lastProgressAt = 0;
-  for await (const block of wav.blocks()) {
-    pushToAll(analyzers, block);
-    if (options.onProgress) {
-      const now = Date.now();
-      if (now - lastProgressAt >= PROGRESS_INTERVAL_MS) {
-        lastProgressAt = now;
-        options.onProgress(wav.bytesRead(), totalBytes);
+  try {
+    for await (const block of wav.blocks()) {
+      if (remote) await remote.push(block);
+      for (const analyzer of local) analyzer.push(block);
+      if (options.onProgress) {
+        const now = Date.now();
+        if (now - lastProgressAt >= PROGRESS_INTERVAL_MS) {
+          lastProgressAt = now;
+          options.onProgress(wav.bytesRead(), totalBytes);
+        }
       }
     }
+  } catch (error) {
+    await remote?.terminate();
+    throw error;
   }
   options.onProgress?.(wav.bytesRead(), totalBytes ?? wav.bytesRead());
+  const remoteResults = remote ? await remote.finish() : null;
 
   const frames = wav.framesRead();
   const levelResult = levels.finish();
-  const clipResult = clipping.finish();
-  const truePeakResult = truePeak.finish();
-  const loudnessResult = loudness.finish();
+  const clipResult = remoteResults?.clipping ?? clipping!.finish();
+  const truePeakResult = remoteResults?.truePeak ?? truePeak!.finish();
+  const loudnessResult = remoteResults?.loudness ?? loudness!.finish();
   const dropoutResult = dropouts.finish();
   const stereoResult = stereo?.finish() ?? null;
   const bandwidth = spectrum.finish();
@@ -147,10 +166,6 @@ export async function analyzeStream(readable: Readable, options: AnalyzeOptions 
   };
   report.findings = judgeReport(report, spec);
   return report;
-}
-
-function pushToAll(analyzers: Analyzer<unknown>[], block: SampleBlock): void {
-  for (const analyzer of analyzers) analyzer.push(block);
 }
 
 /**

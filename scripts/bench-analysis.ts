@@ -44,12 +44,11 @@ interface RunFigures {
 }
 
 /** Runs a command, polling /proc/<pid>/status VmHWM (the kernel's peak RSS) while it runs. */
-async function timeCommand(command: string, args: string[]): Promise<RunFigures & { stdout: string }> {
+async function timeCommand(command: string, args: string[], captureStdout = false): Promise<RunFigures & { stdout: string }> {
   const started = process.hrtime.bigint();
-  const child = spawn(command, args, { stdio: ['ignore', 'pipe', 'pipe'] });
+  const child = spawn(command, args, { stdio: ['ignore', captureStdout ? 'pipe' : 'ignore', 'ignore'] });
   let stdout = '';
-  child.stdout.on('data', (data) => (stdout += data));
-  child.stderr.on('data', () => {});
+  child.stdout?.on('data', (data) => (stdout += data));
   let peakKb: number | null = null;
   const poll = setInterval(() => {
     try {
@@ -91,7 +90,7 @@ async function main(): Promise<void> {
   await timeCommand('cat', [path]);
 
   const tsx = join(root, 'node_modules', '.bin', 'tsx');
-  const ours = await timeCommand(tsx, [fileURLToPath(import.meta.url), '--child', path]);
+  const ours = await timeCommand(tsx, [fileURLToPath(import.meta.url), '--child', path], true);
   const inner = JSON.parse(ours.stdout) as { analysisSec: number; maxRssKb: number; integrated: number; truePeak: number };
   const ffmpeg = await timeCommand('ffmpeg', ['-hide_banner', '-nostats', '-i', path, '-af', 'ebur128=peak=true', '-f', 'null', '-']);
   const sox = await timeCommand('sox', [path, '-n', 'stats']);

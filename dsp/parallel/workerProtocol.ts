@@ -1,0 +1,18 @@
+import type { ClippingResult } from '../analyzers/clipping';
+import type { LoudnessResult } from '../analyzers/loudness';
+import type { TruePeakResult } from '../analyzers/truePeak';
+import type { AudioFormat } from '../types';
+
+/** Messages from the pipeline to the analysis worker. */
+export type ToWorker =
+  | { kind: 'start'; format: AudioFormat }
+  | { kind: 'block'; channels: Float64Array[]; frames: number; startFrame: number }
+  | { kind: 'finish' };
+
+/** Messages from the analysis worker back to the pipeline. */
+export type FromWorker =
+  | { kind: 'ready' }
+  /** A block is done; its buffers come back for reuse. */
+  | { kind: 'done'; channels: Float64Array[] }
+  | { kind: 'results'; truePeak: TruePeakResult; loudness: LoudnessResult; clipping: ClippingResult }
+  | { kind: 'failed'; message: string };
