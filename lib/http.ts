@@ -23,6 +23,8 @@ export function errorResponse(error: unknown): Response {
   const body: ErrorBody = { error: appError.code, message: appError.message, ...(appError.fields ? { fields: appError.fields } : {}), ...appError.extra };
   const headers: Record<string, string> = {};
   if (appError.extra?.retryAfterSec) headers['Retry-After'] = String(appError.extra.retryAfterSec);
+  // RFC 9110 §15.5.17: a 416 names the current length of the object.
+  if (appError.kind === 'unsatisfiable' && typeof appError.extra?.size === 'number') headers['Content-Range'] = `bytes */${appError.extra.size}`;
   return NextResponse.json(body, { status: appError.status, headers });
 }
 
