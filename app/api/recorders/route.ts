@@ -1,0 +1,16 @@
+import { requireActor } from '@/lib/auth/guard';
+import { json, parseJson, route } from '@/lib/http';
+import { createRecorder, listRecorders } from '@/lib/recorders';
+import { createRecorderSchema, recorderQuerySchema } from '@/lib/schemas/recorder';
+
+export const GET = route(async (request) => {
+  const actor = await requireActor('recorder:manage');
+  const query = recorderQuerySchema.parse(Object.fromEntries(new URL(request.url).searchParams));
+  return json({ recorders: await listRecorders(actor, query) });
+});
+
+export const POST = route(async (request) => {
+  const actor = await requireActor('recorder:manage');
+  const input = await parseJson(request, createRecorderSchema);
+  return json(await createRecorder(actor, input), 201);
+});

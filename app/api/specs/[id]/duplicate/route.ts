@@ -1,0 +1,23 @@
+import { requireActor } from '@/lib/auth/guard';
+import { duplicateSpec } from '@/lib/deliverySpecs';
+import { AppError } from '@/lib/errors';
+import { idParam, json, route } from '@/lib/http';
+import { duplicateSpecSchema, specErrorMap } from '@/lib/schemas/spec';
+
+type Context = { params: Promise<{ id: string }> };
+
+export const POST = route<Context>(async (request, { params }) => {
+  const actor = await requireActor('spec:manage');
+  const id = await idParam(params, 'spec');
+  // The body is optional: without one the copy is named "Copy of …".
+  const text = await request.text();
+  let body: unknown = {};
+  if (text.trim()) {
+    try {
+      body = JSON.parse(text);
+    } catch {
+      throw new AppError('invalid:json', 'The request body is not valid JSON.');
+    }
+  }
+  return json(await duplicateSpec(actor, id, duplicateSpecSchema.parse(body, { error: specErrorMap })), 201);
+});

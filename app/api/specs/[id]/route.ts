@@ -1,0 +1,19 @@
+import { z } from 'zod';
+import { requireActor } from '@/lib/auth/guard';
+import { getSpec, updateSpec } from '@/lib/deliverySpecs';
+import { idParam, json, parseJson, route } from '@/lib/http';
+import { specErrorMap, updateSpecSchema } from '@/lib/schemas/spec';
+
+type Context = { params: Promise<{ id: string }> };
+
+export const GET = route<Context>(async (_request, { params }) => {
+  const actor = await requireActor('spec:manage');
+  return json(await getSpec(actor, await idParam(params, 'spec')));
+});
+
+export const PATCH = route<Context>(async (request, { params }) => {
+  const actor = await requireActor('spec:manage');
+  const id = await idParam(params, 'spec');
+  const body = await parseJson(request, z.unknown());
+  return json(await updateSpec(actor, id, updateSpecSchema.parse(body, { error: specErrorMap })));
+});
