@@ -8,7 +8,9 @@ import { LoudnessAnalyzer } from './analyzers/loudness';
 import { NoiseFloorAnalyzer } from './analyzers/noiseFloor';
 import { SpectrumAnalyzer } from './analyzers/spectrum';
 import { StereoAnalyzer } from './analyzers/stereo';
+import { ToneAnalyzer } from './analyzers/tone';
 import { TruePeakAnalyzer } from './analyzers/truePeak';
+import { WaveformPeaksAnalyzer } from './analyzers/waveformPeaks';
 import { judgeReport } from './findings';
 import { WorkerAnalyzers } from './parallel/WorkerAnalyzers';
 import { openWav } from './reader/wavReader';
@@ -63,11 +65,13 @@ export async function analyzeStream(readable: Readable, options: AnalyzeOptions 
   const stereo = format.channels === 2 ? new StereoAnalyzer(format) : null;
   const spectrum = new SpectrumAnalyzer(format);
   const noise = new NoiseFloorAnalyzer(format);
+  const tone = new ToneAnalyzer(format);
+  const peaks = options.peaksPath ? new WaveformPeaksAnalyzer(format, { outputPath: options.peaksPath }) : null;
   const truePeak = remote ? null : new TruePeakAnalyzer(format);
   const loudness = remote ? null : new LoudnessAnalyzer(format);
   const clipping = remote ? null : new ClippingAnalyzer(format);
-  const local: Analyzer<unknown>[] = [levels, dropouts, spectrum, noise];
-  for (const analyzer of [stereo, truePeak, loudness, clipping]) if (analyzer) local.push(analyzer);
+  const local: Analyzer<unknown>[] = [levels, dropouts, spectrum, noise, tone];
+  for (const analyzer of [stereo, peaks, truePeak, loudness, clipping]) if (analyzer) local.push(analyzer);
 
   const totalBytes = options.totalBytes ?? null;
   let lastProgressAt = 0;
@@ -99,6 +103,8 @@ export async function analyzeStream(readable: Readable, options: AnalyzeOptions 
   const stereoResult = stereo?.finish() ?? null;
   const bandwidth = spectrum.finish();
   const noiseResult = noise.finish();
+  const toneResult = tone.finish();
+  const peaksResult = peaks?.finish() ?? null;
 
   const channels = levelResult.channels.map((channel, index) => ({
     samplePeakDbfs: dbOrNull(channel.samplePeak),
@@ -160,8 +166,8 @@ export async function analyzeStream(readable: Readable, options: AnalyzeOptions 
       polarityInverted: stereoResult.polarityInverted,
       antiPhaseShare: roundTo(stereoResult.antiPhaseShare, 4),
     },
-    tone: null,
-    waveform: null,
+    tone: toneResult,
+    waveform: peaksResult,
     findings: [],
   };
   report.findings = judgeReport(report, spec);

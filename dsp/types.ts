@@ -158,6 +158,12 @@ export interface AnalysisReport {
     likelyRecordedRate: number | null;
   } | null;
   /** The waveform peaks file written for the review screen, or null when none was asked for. */
-  waveform?: { path: string; [key: string]: unknown } | null;
+  waveform?: {
+    path: string;
+    channels: number;
+    sampleRate: number;
+    frames: number;
+    levels: { framesPerBucket: number; buckets: number }[];
+  } | null;
   findings: Finding[];
 }
