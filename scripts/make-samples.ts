@@ -36,8 +36,8 @@ export const DEMO_TAKES: DemoTake[] = [
   },
   {
     file: 'take-02-hot-preamp.wav',
-    scenario: 'Same voice with the preamp driven too hard: flat-topped peaks at −3 dBFS (3–6 s), then full-scale clipping (8–10 s).',
-    expect: 'Clipping events below full scale and at full scale; true peak above the limit.',
+    scenario: 'A two-microphone interview recorded too hot: the host preamp (left) flattens peaks at −3 dBFS from 3 to 6 s; the guest channel (right) clips at full scale from 8 to 10 s.',
+    expect: 'Clipping below full scale on the left channel and at full scale on the right; true peak above the limit.',
   },
   {
     file: 'take-03-16bit-padded.wav',
@@ -293,16 +293,14 @@ function build(take: string): { fs: number; bits: 16 | 24; codes: Int32Array[] }
       return { fs: FS, bits: 24, codes: out.map((c) => toCodes(c, 24, rand)) };
     }
     case 'take-02-hot-preamp.wav': {
-      const voice = atLoudness(programme(frames, FS, 12, -200), FS, -17);
+      const voice = atLoudness(programme(frames, FS, 12, -200), FS, -20);
       const out = converterFilter(mix(voice, room(frames, FS, -76)), FS);
       const fullScale = (2 ** 23 - 1) / 2 ** 23;
-      for (const c of out) {
-        // 3–6 s: an overdriven stage flattens the peaks at −3 dBFS.
-        const flat = 10 ** (-3 / 20);
-        for (let i = 3 * FS; i < 6 * FS; i++) c[i] = Math.max(-flat, Math.min(flat, 3 * c[i]));
-        // 8–10 s: the gain is pushed further and the converter runs out of codes.
-        for (let i = 8 * FS; i < 10 * FS; i++) c[i] = Math.max(-1, Math.min(fullScale, 3 * c[i]));
-      }
+      const flat = 10 ** (-3 / 20);
+      // Left (host microphone), 3–6 s: an overdriven preamp flattens the peaks at −3 dBFS.
+      for (let i = 3 * FS; i < 6 * FS; i++) out[0][i] = Math.max(-flat, Math.min(flat, 3 * out[0][i]));
+      // Right (guest microphone), 8–10 s: the gain is pushed and the converter runs out of codes.
+      for (let i = 8 * FS; i < 10 * FS; i++) out[1][i] = Math.max(-1, Math.min(fullScale, 5 * out[1][i]));
       // Dither everything except the clipped samples: a flat top is one repeated code.
       const flatCode = Math.round(10 ** (-3 / 20) * 2 ** 23);
       const codes = out.map((c) => {
