@@ -1,0 +1,24 @@
+import 'server-only';
+import type { Actor } from '@/lib/auth/guard';
+import { assertCan } from '@/lib/auth/guard';
+import { audit } from '@/lib/audit';
+import { AppError } from '@/lib/errors';
+import { composeReportMail } from '@/lib/reports/send';
+import { loadReport } from '@/lib/reports/sessionReport';
+import { resendInvitation } from '@/lib/team';
+import { attemptDelivery, deliveryPayload, findDelivery, type DeliveryView } from './deliveries';
+
+/** Sends a failed e-mail again, rendered from the current data (an invitation gets a fresh link). */
+export async function retryDelivery(actor: Actor, id: number): Promise<DeliveryView> {
+  const delivery = await findDelivery(actor, id);
+  assertCan(actor, delivery.kind === 'invitation' ? 'user:manage' : 'report:send');
+  if (delivery.status !== 'failed') throw new AppError('conflict:delivery_not_failed', 'Only an e-mail that failed can be sent again.');
+  if (delivery.kind === 'invitation') {
+    return (await resendInvitation(actor, Number(deliveryPayload(delivery).userId), delivery)).delivery;
+  }
+  const { sessionId, message } = deliveryPayload(delivery) as { sessionId: number; message: string | null };
+  const data = await loadReport(actor, Number(sessionId));
+  await audit(actor, 'mail.retry', { type: 'session', id: Number(sessionId) }, { deliveryId: delivery.id });
+  const to = typeof delivery.recipients === 'string' ? (JSON.parse(delivery.recipients) as string[]) : delivery.recipients;
+  return attemptDelivery(delivery, await composeReportMail(data, to, message ?? null, actor.name));
+}
