@@ -1,0 +1,84 @@
+import { describe, expect, it } from 'vitest';
+import { LevelsAnalyzer } from '../../../dsp/analyzers/levels';
+import { formatOf, runAnalyzer } from '../../support/analyzerHarness';
+import { seededRandom, sine } from '../../support/testSignals';
+import { analyzeWavBuffer, decodeWav } from '../../support/wavStreams';
+import { encodeSamples, wavFile, type SampleCoding } from '../../support/wavWriter';
+
+const RATE = 48000;
+const dbPower = (meanSquare: number) => 10 * Math.log10(meanSquare);
+const levelsOfWav = (coding: SampleCoding, channels: Float64Array[], extras: { extensibleMask?: number; validBits?: number } = {}) =>
+  analyzeWavBuffer(wavFile({ sampleRate: RATE, channels: channels.length, coding, ...extras }, encodeSamples(channels, coding)), (format) => new LevelsAnalyzer(format));
+
+describe('levels', () => {
+  // Report contract / AES17-style convention A: RMS re a full-scale square wave, so a full-scale sine reads -3.01 dBFS.
+  it('reads a full-scale sine at 0 dBFS peak and -3.01 dBFS RMS', () => {
+    const [channel] = runAnalyzer(new LevelsAnalyzer(formatOf(RATE, 1)), [sine(997, 1, 2, RATE, 0.3)]).channels;
+    expect(20 * Math.log10(channel.samplePeak)).toBeCloseTo(0, 3);
+    expect(dbPower(channel.meanSquare)).toBeCloseTo(-3.0103, 3);
+  });
+
+  it('measures DC offset as the mean sample value', () => {
+    const signal = sine(100, 0.5, 1, RATE).map((x) => x + 0.01);
+    const [channel] = runAnalyzer(new LevelsAnalyzer(formatOf(RATE, 1)), [signal]).channels;
+    expect(channel.dcOffset).toBeCloseTo(0.01, 6);
+    expect(channel.silent).toBe(false);
+  });
+
+  it('marks a dead channel as silent (all zero, or only 16-bit dither and a DC offset)', () => {
+    const random = seededRandom(3);
+    const dither = new Float64Array(RATE).map(() => 0.002 + (random() - random()) / 32768);
+    const { channels } = runAnalyzer(new LevelsAnalyzer(formatOf(RATE, 3)), [sine(997, 0.1, 1, RATE), new Float64Array(RATE), dither]);
+    expect(channels.map((channel) => channel.silent)).toEqual([false, true, true]);
+    expect(channels[1].effectiveBits).toBe(0);
+  });
+});
+
+describe('effective bits (OR of integer codes, trailing zeros)', () => {
+  const tone = sine(997, 0.5, 0.5, RATE, 0.1);
+  const quantise = (signal: Float64Array, bits: number) => signal.map((x) => Math.round(x * 2 ** (bits - 1)) / 2 ** (bits - 1));
+
+  it('reads 24 for real 24-bit audio and 16 for 16-bit audio in a 24-bit container', async () => {
+    expect((await levelsOfWav('pcm24', [tone])).channels[0].effectiveBits).toBe(24);
+    expect((await levelsOfWav('pcm24', [quantise(tone, 16)])).channels[0].effectiveBits).toBe(16);
+  });
+
+  it('reads 20 for 20-bit audio declared as 20 valid bits in WAVE_FORMAT_EXTENSIBLE', async () => {
+    const result = await levelsOfWav('pcm24', [quantise(tone, 20)], { extensibleMask: 0x4, validBits: 20 });
+    expect(result.channels[0].effectiveBits).toBe(20);
+  });
+
+  it('reads 16 and 24 for float files holding 16- and 24-bit values, 32 for true float audio', async () => {
+    expect((await levelsOfWav('float32', [quantise(tone, 16)])).channels[0].effectiveBits).toBe(16);
+    expect((await levelsOfWav('float32', [quantise(tone, 24)])).channels[0].effectiveBits).toBe(24);
+    expect((await levelsOfWav('float32', [tone.map((x) => x * 0.987654321)])).channels[0].effectiveBits).toBe(32);
+    expect((await levelsOfWav('float64', [quantise(tone, 16)])).channels[0].effectiveBits).toBe(16);
+  });
+
+  it('reads 8 for 8-bit PCM and 32 for real 32-bit PCM', async () => {
+    expect((await levelsOfWav('pcm8', [tone])).channels[0].effectiveBits).toBe(8);
+    expect((await levelsOfWav('pcm32', [tone])).channels[0].effectiveBits).toBe(32);
+  });
+});
+
+describe('ideal quantiser SNR = 6.02·N + 1.76 dB (textbook; e.g. Analog Devices MT-001)', () => {
+  // A full-scale 997 Hz sine quantised to N bits, read back through the reader:
+  // the error power relative to the sine's power is the quantisation SNR.
+  it.each([
+    [8, 'pcm8' as const],
+    [16, 'pcm16' as const],
+    [24, 'pcm24' as const],
+  ])('%i-bit: within 0.1 dB of 6.02N + 1.76', async (bits, coding) => {
+    // Amplitude one LSB under full scale keeps the positive peak codable.
+    const amplitude = 1 - 2 ** (1 - bits);
+    const ideal = sine(997, amplitude, 10, RATE, 0.123);
+    const decoded = (await decodeWav(wavFile({ sampleRate: RATE, channels: 1, coding }, encodeSamples([ideal], coding)), 65537)).channels[0];
+    let signalPower = 0, errorPower = 0;
+    for (let n = 0; n < ideal.length; n++) {
+      signalPower += ideal[n] * ideal[n];
+      errorPower += (decoded[n] - ideal[n]) ** 2;
+    }
+    const snr = 10 * Math.log10(signalPower / errorPower);
+    expect(Math.abs(snr - (6.02 * bits + 1.76))).toBeLessThan(0.1);
+  });
+});

@@ -1,0 +1,135 @@
+import { describe, expect, it } from 'vitest';
+import { TruePeakAnalyzer } from '../../../dsp/analyzers/truePeak';
+import { TRUE_PEAK_PHASES } from '../../../dsp/filters/truePeakFilter';
+import { formatOf, runAnalyzer } from '../../support/analyzerHarness';
+import { fadeEnds, seededRandom, sine } from '../../support/testSignals';
+
+const RATE = 48000;
+const truePeakDb = (signal: Float64Array, blockSizes?: number[]) =>
+  20 * Math.log10(runAnalyzer(new TruePeakAnalyzer(formatOf(RATE, 1)), [signal], blockSizes).channelTruePeaks[0]);
+
+/** Tech 3341 Table 1 tolerance for true peak: +0.2 / -0.4 dB. */
+const expectTruePeak = (measured: number, expected: number) => {
+  expect(measured).toBeLessThanOrEqual(expected + 0.2);
+  expect(measured).toBeGreaterThanOrEqual(expected - 0.4);
+};
+
+describe('interpolation filter', () => {
+  // BS.1770-4 Annex 2 table: phase 3 is phase 0 reversed, phase 2 is phase 1 reversed;
+  // phase sums (DC gains) 1.00159 and 0.97302 (computed from the published taps).
+  it('has the structure and DC gains of the Annex 2 table', () => {
+    expect(Array.from(TRUE_PEAK_PHASES[3])).toEqual(Array.from(TRUE_PEAK_PHASES[0]).reverse());
+    expect(Array.from(TRUE_PEAK_PHASES[2])).toEqual(Array.from(TRUE_PEAK_PHASES[1]).reverse());
+    const sum = (phase: Float64Array) => phase.reduce((a, b) => a + b, 0);
+    expect(sum(TRUE_PEAK_PHASES[0])).toBeCloseTo(1.00159, 5);
+    expect(sum(TRUE_PEAK_PHASES[1])).toBeCloseTo(0.97302, 5);
+    expect(TRUE_PEAK_PHASES[0][6]).toBe(0.97216796875);
+    expect(TRUE_PEAK_PHASES[1][0]).toBe(-0.0291748046875);
+  });
+});
+
+describe('EBU Tech 3341 true-peak cases (Table 1), tolerance +0.2/-0.4 dB', () => {
+  // Cases 15-19: tapered with 10 ms fades, "duration does not matter".
+  const tone = (fraction: number, amplitude: number, phaseDeg: number) =>
+    fadeEnds(sine(RATE * fraction, amplitude, 1, RATE, (phaseDeg * Math.PI) / 180), 0.01, RATE);
+  it('case 15: fs/4, 0.50 FFS, phase 0: -6.0 dBTP', () => expectTruePeak(truePeakDb(tone(1 / 4, 0.5, 0)), -6.02));
+  it('case 16: fs/4, 0.50 FFS, phase 45: -6.0 dBTP (sample peak -9.03 dBFS)', () => {
+    const signal = tone(1 / 4, 0.5, 45);
+    expectTruePeak(truePeakDb(signal), -6.02);
+    const samplePeak = signal.reduce((peak, x) => Math.max(peak, Math.abs(x)), 0);
+    expect(20 * Math.log10(samplePeak)).toBeCloseTo(-9.03, 2);
+  });
+  it('case 17: fs/6, 0.50 FFS, phase 60: -6.0 dBTP', () => expectTruePeak(truePeakDb(tone(1 / 6, 0.5, 60)), -6.02));
+  it('case 18: fs/8, 0.50 FFS, phase 67.5: -6.0 dBTP', () => expectTruePeak(truePeakDb(tone(1 / 8, 0.5, 67.5)), -6.02));
+  it('case 19: fs/4, 1.41 FFS, phase 45: +3.0 dBTP', () => expectTruePeak(truePeakDb(tone(1 / 4, 1.41, 45)), 3.0));
+
+  /**
+   * Cases 20-23: an fs/6 sine at 0.5 FFS holding one period of an fs/4 sine at 1.0 FFS,
+   * phase-continuous, made at 4·fs, low-passed and taken every 4th sample at offsets 0-3.
+   */
+  function burst(offset: number): Float64Array {
+    const highRate = 4 * RATE;
+    const frames = highRate; // 1 s
+    const high = new Float64Array(frames);
+    const burstStart = 96000; // a rising zero crossing of the fs/6 (8 kHz) sine: 96000 = 4000 periods of 24 samples
+    const burstLength = 16; // one period of 12 kHz at 192 kHz
+    for (let n = 0; n < frames; n++) {
+      const inBurst = n >= burstStart && n < burstStart + burstLength;
+      high[n] = inBurst ? Math.sin((2 * Math.PI * 12000 * (n - burstStart)) / highRate) : 0.5 * Math.sin((2 * Math.PI * 8000 * n) / highRate);
+    }
+    fadeEnds(high, 0.01, highRate);
+    // Anti-alias low-pass: Blackman-windowed sinc, cut-off 22 kHz, 1023 taps (textbook FIR design).
+    const taps = 1023;
+    const half = (taps - 1) / 2;
+    const cutoff = 22000 / highRate;
+    const kernel = new Float64Array(taps);
+    let gain = 0;
+    for (let k = 0; k < taps; k++) {
+      const m = k - half;
+      const sinc = m === 0 ? 2 * cutoff : Math.sin(2 * Math.PI * cutoff * m) / (Math.PI * m);
+      const window = 0.42 - 0.5 * Math.cos((2 * Math.PI * k) / (taps - 1)) + 0.08 * Math.cos((4 * Math.PI * k) / (taps - 1));
+      kernel[k] = sinc * window;
+      gain += kernel[k];
+    }
+    const low = new Float64Array(frames / 4);
+    for (let i = 0; i < low.length; i++) {
+      const centre = 4 * i + offset;
+      let sum = 0;
+      for (let k = 0; k < taps; k++) {
+        const n = centre + k - half;
+        if (n >= 0 && n < frames) sum += kernel[k] * high[n];
+      }
+      low[i] = sum / gain;
+    }
+    return low;
+  }
+  it.each([0, 1, 2, 3])('cases 20-23: burst down-sampled with a %i-sample offset: 0.0 dBTP', (offset) => {
+    const measured = truePeakDb(burst(offset));
+    expectTruePeak(measured, 0);
+  });
+});
+
+describe('bound skipping', () => {
+  /** The Annex 2 interpolation computed on every sample, no shortcut. */
+  function bruteForce(signal: Float64Array): number {
+    let peak = 0;
+    const padded = new Float64Array(signal.length + 22);
+    padded.set(signal, 11);
+    for (let n = 11; n < padded.length; n++) {
+      for (const phase of TRUE_PEAK_PHASES) {
+        let sum = 0;
+        for (let k = 0; k < 12; k++) sum += phase[k] * padded[n - k];
+        peak = Math.max(peak, Math.abs(sum));
+      }
+      peak = Math.max(peak, Math.abs(padded[n]));
+    }
+    return peak;
+  }
+
+  it('gives exactly the brute-force result on programme-like and bursty signals, for any block size', () => {
+    const random = seededRandom(7);
+    const signal = new Float64Array(200_000);
+    for (let n = 0; n < signal.length; n++) {
+      const envelope = 0.05 + 0.9 * Math.abs(Math.sin(n / 9000)) ** 6;
+      signal[n] = envelope * (random() * 2 - 1) * (n % 50_000 < 100 ? 1.2 : 0.5);
+    }
+    const expected = bruteForce(signal);
+    for (const blockSizes of [[65536], [1, 2, 3, 1000], [777]]) {
+      const measured = runAnalyzer(new TruePeakAnalyzer(formatOf(RATE, 1)), [signal], blockSizes).channelTruePeaks[0];
+      expect(measured).toBe(expected);
+    }
+  });
+
+  it('keeps channels apart and never reads below the sample peak', () => {
+    const left = sine(RATE / 4, 0.5, 0.5, RATE, Math.PI / 4);
+    const right = sine(1000, 0.25, 0.5, RATE);
+    const [leftPeak, rightPeak] = runAnalyzer(new TruePeakAnalyzer(formatOf(RATE, 2)), [left, right]).channelTruePeaks;
+    expect(20 * Math.log10(leftPeak)).toBeGreaterThan(-6.3);
+    expect(rightPeak).toBeGreaterThanOrEqual(right.reduce((peak, x) => Math.max(peak, Math.abs(x)), 0));
+    expect(rightPeak).toBeLessThan(0.26);
+  });
+
+  it('refuses a format without channels', () => {
+    expect(() => new TruePeakAnalyzer(formatOf(RATE, 0))).toThrow(RangeError);
+  });
+});
