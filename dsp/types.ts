@@ -134,6 +134,8 @@ export interface AnalysisReport {
     impliedSourceRate: number | null;
     nearNyquistDb: number | null;
     aliasingRisk: boolean;
+    /** Frequency of the strongest line in the long-term spectrum above 20 Hz, Hz. */
+    peakHz?: number | null;
     /** Long-term average spectrum, a few hundred log-spaced points, dB relative to the passband. */
     spectrum?: { hz: number[]; db: number[] };
   };
@@ -156,6 +158,8 @@ export interface AnalysisReport {
     thdnDb: number;
     enobBits: number;
     likelyRecordedRate: number | null;
+    /** Channel the tone was measured on (the strongest), 0-based. */
+    channel?: number;
   } | null;
   /** The waveform peaks file written for the review screen, or null when none was asked for. */
   waveform?: {
