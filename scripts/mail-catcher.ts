@@ -1,6 +1,7 @@
 // A local SMTP server for development and tests: accepts every message on 127.0.0.1 and saves it
 // under MAIL_OUTBOX_DIR as <id>.eml, with a <id>.json summary that the Outbox page reads.
-// It never relays anything anywhere.
+// It never relays anything anywhere. To try the failure path, an address whose local part starts
+// with `refuse-once` is refused the first time the catcher sees it, and accepted after that.
 import { randomBytes } from 'node:crypto';
 import { mkdir, rename, writeFile } from 'node:fs/promises';
 import path from 'node:path';
@@ -41,6 +42,7 @@ async function save(raw: Buffer, envelopeTo: string[]): Promise<string> {
 }
 
 await mkdir(outbox, { recursive: true });
+const refusedOnce = new Set<string>();
 
 const server = new SMTPServer({
   name: 'takeproof-mail-catcher',
@@ -49,6 +51,15 @@ const server = new SMTPServer({
   disabledCommands: ['AUTH', 'STARTTLS'],
   size: MAX_BYTES,
   logger: false,
+  onRcptTo(address, _session, callback) {
+    const to = address.address.toLowerCase();
+    if (to.startsWith('refuse-once') && !refusedOnce.has(to)) {
+      refusedOnce.add(to);
+      callback(Object.assign(new Error(`Mailbox ${to} is not available right now`), { responseCode: 550 }));
+      return;
+    }
+    callback();
+  },
   onData(stream, session, callback) {
     const chunks: Buffer[] = [];
     stream.on('data', (c: Buffer) => chunks.push(c));

@@ -43,9 +43,9 @@ function shape(doc: PDFKit.PDFDocument, kind: Shape, x: number, y: number, color
 }
 
 const COLUMNS = [
-  { key: 'name', title: 'Take', width: 196 },
+  { key: 'name', title: 'Take', width: 178 },
   { key: 'format', title: 'Format', width: 118 },
-  { key: 'verdict', title: 'Verdict', width: 74 },
+  { key: 'verdict', title: 'Verdict', width: 92 },
   { key: 'decision', title: 'Decision', width: 78 },
   { key: 'truePeak', title: 'True peak', width: 62 },
   { key: 'loudness', title: 'Loudness', width: 62 },

@@ -1,0 +1,11 @@
+import { requireActor } from '@/lib/auth/guard';
+import { idParam, json, route } from '@/lib/http';
+import { retryDelivery } from '@/lib/mail/retry';
+
+type Context = { params: Promise<{ id: string }> };
+
+/** Sends a failed e-mail again → 202 with the delivery's new state. */
+export const POST = route<Context>(async (_request, { params }) => {
+  const actor = await requireActor();
+  return json({ delivery: await retryDelivery(actor, await idParam(params, 'delivery')) }, 202);
+});

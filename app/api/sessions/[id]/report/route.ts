@@ -1,0 +1,25 @@
+import { requireActor } from '@/lib/auth/guard';
+import { idParam, json, parseJson, route } from '@/lib/http';
+import { listDeliveries } from '@/lib/mail/deliveries';
+import { sendSessionReport } from '@/lib/reports/send';
+import { sendReportSchema } from '@/lib/schemas/report';
+import { findSession } from '@/lib/sessions';
+
+type Context = { params: Promise<{ id: string }> };
+
+/** The reports sent for this session, newest first. */
+export const GET = route<Context>(async (_request, { params }) => {
+  const actor = await requireActor('report:send');
+  const id = await idParam(params, 'session');
+  await findSession(actor, id);
+  return json({ deliveries: await listDeliveries(actor, { type: 'session', id }) });
+});
+
+/** `{ to: string[], message?: string }` → 202 with the delivery (its status says whether the mail server took it). */
+export const POST = route<Context>(async (request, { params }) => {
+  const actor = await requireActor('report:send');
+  const id = await idParam(params, 'session');
+  await findSession(actor, id);
+  const input = await parseJson(request, sendReportSchema);
+  return json({ delivery: await sendSessionReport(actor, id, input) }, 202);
+});
