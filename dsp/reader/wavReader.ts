@@ -245,7 +245,10 @@ export async function openWav(readable: Readable, options: OpenWavOptions = {}):
   /** Reads metadata chunks that follow the audio (bext and iXML are often written last). */
   async function readTrailingChunks(declaredBytes: number): Promise<void> {
     if (declaredBytes % 2 === 1) await source.skip(1);
-    for (;;) {
+    // Bytes past the end the RIFF header declares are not chunks; checkRiffSize reports them.
+    const declaredEnd = declaredFileBytes();
+    const chunksEnd = declaredEnd ?? Number.POSITIVE_INFINITY;
+    while (source.position < chunksEnd) {
       const chunkHeader = await source.read(8);
       if (chunkHeader.length === 0) return;
       if (chunkHeader.length < 8) {
@@ -262,17 +265,25 @@ export async function openWav(readable: Readable, options: OpenWavOptions = {}):
         return;
       }
     }
+    // Drain what follows the declared end so its length can be reported.
+    await source.skip(Number.POSITIVE_INFINITY);
+  }
+
+  /** File length the RIFF (or ds64) size declares, or null when the field holds no usable value. */
+  function declaredFileBytes(): number | null {
+    if (riffSizeField === 0 || (container === 'RIFF' && riffSizeField === SIZE_IN_DS64)) return null;
+    if (container === 'RIFF') return riffSizeField + 8;
+    return ds64 && ds64.riffBytes > 0 ? ds64.riffBytes + 8 : null;
   }
 
   function checkRiffSize(fileBytes: number): void {
-    const declaredFileBytes = container === 'RIFF' ? riffSizeField + 8 : ds64 ? ds64.riffBytes + 8 : null;
+    const declared = declaredFileBytes();
     // With the data size unknown or already reported short, the RIFF size adds nothing new.
-    if (plan.declaredBytes === null || audioCutShort || declaredFileBytes === null) return;
-    if (riffSizeField === 0 || (container === 'RIFF' && riffSizeField === SIZE_IN_DS64)) return;
-    if (declaredFileBytes > fileBytes + 1) {
-      issues.push(`The header says the file is ${formatBytes(declaredFileBytes)} but it is ${formatBytes(fileBytes)}: it was probably cut short.`);
-    } else if (declaredFileBytes < fileBytes) {
-      issues.push(`The file has ${formatBytes(fileBytes - declaredFileBytes)} after the end its header declares.`);
+    if (plan.declaredBytes === null || audioCutShort || declared === null) return;
+    if (declared > fileBytes + 1) {
+      issues.push(`The header says the file is ${formatBytes(declared)} but it is ${formatBytes(fileBytes)}: it was probably cut short.`);
+    } else if (declared < fileBytes) {
+      issues.push(`The file has ${formatBytes(fileBytes - declared)} after the end its header declares.`);
     }
   }
 
