@@ -105,10 +105,11 @@ interface HealthRow {
   rateMismatchTakes: unknown;
 }
 
-/** Baseline-versus-recent aggregates per recorder, in one grouped query. */
+/** Baseline-versus-recent aggregates per recorder, in one grouped query (baseline: the `baselineDays` before the recent window). */
 export async function recorderHealth(studioId: number, now = new Date(), settings: AlertSettings = DEFAULT_ALERT_SETTINGS, recorderId?: number): Promise<Map<number, Omit<RecorderHealth, 'label'>>> {
   const minBits = await studioMinEffectiveBits(studioId);
   const recentFrom = new Date(now.getTime() - settings.recentDays * DAY_MS);
+  const baselineFrom = new Date(recentFrom.getTime() - settings.baselineDays * DAY_MS);
   const rows = await db().query<HealthRow>(
     `SELECT recorderId,
             SUM(recent = 0) AS baselineTakes,
@@ -123,9 +124,9 @@ export async function recorderHealth(studioId: number, now = new Date(), setting
                     MEDIAN(noiseFloorDbfs) OVER (PARTITION BY recorderId, recent) AS medianFloor
                FROM (SELECT recorderId, noiseFloorDbfs, effectiveBits, belowFullScaleClipEvents, rateMismatch,
                             measuredAt >= :recentFrom AS recent
-                       FROM takes WHERE ${periodWhere(null, recorderId)}) AS s) AS t
+                       FROM takes WHERE ${periodWhere(baselineFrom, recorderId)}) AS s) AS t
       GROUP BY recorderId`,
-    { type: QueryTypes.SELECT, replacements: { studioId, now, recentFrom, minBits, recorderId } },
+    { type: QueryTypes.SELECT, replacements: { studioId, now, from: baselineFrom, recentFrom, minBits, recorderId } },
   );
   return new Map(
     rows.map((r) => [

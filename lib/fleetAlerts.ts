@@ -6,8 +6,10 @@
 export interface AlertSettings {
   /** Noise-floor rise against the recorder's own baseline that raises an alert, dB. Project default: 3 dB. */
   driftDb: number;
-  /** The recent window the alerts look at, days; the baseline is everything measured before it. */
+  /** The recent window the alerts look at, days. */
   recentDays: number;
+  /** The baseline: the takes of this many days before the recent window. */
+  baselineDays: number;
   /** Fewest takes each side of the split before a drift is judged at all. */
   minBaselineTakes: number;
   minRecentTakes: number;
@@ -22,6 +24,7 @@ export interface AlertSettings {
 export const DEFAULT_ALERT_SETTINGS: AlertSettings = {
   driftDb: 3,
   recentDays: 14,
+  baselineDays: 90,
   minBaselineTakes: 5,
   minRecentTakes: 3,
   lowBitsTakes: 2,
@@ -82,7 +85,7 @@ export function recorderAlerts(h: RecorderHealth, settings: AlertSettings = DEFA
         kind: 'noise-drift',
         severity: rise > 2 * settings.driftDb ? 'fail' : 'warn',
         title: `Noise floor up ${dB(rise)}`,
-        message: `The median noise floor of ${window} is ${recent.medianFloorDbfs.toFixed(1)} dBFS, ${dB(rise)} above this recorder’s own baseline of ${baseline.medianFloorDbfs.toFixed(1)} dBFS (alert above ${dB(settings.driftDb)}, a Takeproof default). Check its power supply, cabling and input gain.`,
+        message: `The median noise floor of ${window} is ${recent.medianFloorDbfs.toFixed(1)} dBFS, ${dB(rise)} above this recorder’s own baseline of ${baseline.medianFloorDbfs.toFixed(1)} dBFS over the ${settings.baselineDays} days before (alert above ${dB(settings.driftDb)}, a Takeproof default). Check its power supply, cabling and input gain.`,
       });
     }
   }
