@@ -1,5 +1,6 @@
 import type { Metadata } from 'next';
 import Link from 'next/link';
+import { SessionReportPanel } from '@/components/SessionReportPanel';
 import { SessionSettings } from '@/components/SessionSettings';
 import { SwrProvider } from '@/components/SwrProvider';
 import { TakeTable } from '@/components/TakeTable';
@@ -51,6 +52,7 @@ export default async function SessionPage({ params }: { params: Promise<{ id: st
         </p>
         {mayUpload && <TakeUploader sessionId={session.id} recorders={recorders} takesKey={takesKey} />}
         <TakeTable takesKey={takesKey} />
+        <SessionReportPanel sessionId={session.id} maySend={can(actor.role, 'report:send')} />
       </article>
     </SwrProvider>
   );
