@@ -4,7 +4,7 @@ import { AnalysisJob, Take } from '@/models';
 import { db } from './db';
 
 /** A running job whose worker has not been heard from for this long is taken over by another worker. */
-export const STALE_AFTER_SEC = 30;
+export const STALE_AFTER_SEC = Number(process.env.JOB_STALE_AFTER_SEC ?? 30);
 /** A take that made a worker die this many times is given up on, with a message. */
 export const MAX_ATTEMPTS = 3;
 
@@ -39,11 +39,10 @@ export async function claimJob(workerId: string): Promise<ClaimedJob | null> {
 /** Keeps the claim alive and publishes progress (0–100). Returns false if another worker took the job over. */
 export async function heartbeat(job: ClaimedJob, workerId: string, progress: number): Promise<boolean> {
   const sequelize = db();
-  const [affected] = await AnalysisJob.update(
-    { heartbeatAt: sequelize.fn('NOW') as unknown as Date },
-    { where: { id: job.jobId, workerId, state: 'running' } },
-  );
-  if (affected === 0) return false;
+  const mine = { id: job.jobId, workerId, state: 'running' as const };
+  const [changed] = await AnalysisJob.update({ heartbeatAt: sequelize.fn('NOW') as unknown as Date }, { where: mine });
+  // MariaDB counts changed rows only: a beat within the same second changes nothing yet is still ours.
+  if (changed === 0 && (await AnalysisJob.count({ where: mine })) === 0) return false;
   await Take.update({ progress: Math.max(0, Math.min(100, progress)) }, { where: { id: job.takeId } });
   return true;
 }

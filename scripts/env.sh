@@ -36,5 +36,7 @@ wait_for_http() {
   return 1
 }
 
-# tsx with the react-server condition, so modules marked `server-only` load outside Next.js.
-run_ts() { node --conditions=react-server --import tsx "$@"; }
+# node + tsx with the react-server condition, so modules marked `server-only` load outside Next.js.
+# An array rather than a function, so `"${RUN_TS[@]}" x.ts &` leaves $! as node's own pid.
+RUN_TS=(node --conditions=react-server --import tsx)
+run_ts() { "${RUN_TS[@]}" "$@"; }

@@ -39,8 +39,8 @@ if [ ! -f .next/BUILD_ID ] || [ -n "$(find app components lib models dsp public 
   npx next build > var/build.log 2>&1 || { tail -40 var/build.log; echo "The build failed; the full log is in var/build.log" >&2; exit 1; }
 fi
 
-[ -f scripts/mail-catcher.ts ] && { run_ts scripts/mail-catcher.ts & PIDS+=($!); }
-[ -f scripts/worker.ts ] && { run_ts scripts/worker.ts & PIDS+=($!); }
+[ -f scripts/mail-catcher.ts ] && { "${RUN_TS[@]}" scripts/mail-catcher.ts & PIDS+=($!); }
+[ -f scripts/worker.ts ] && { "${RUN_TS[@]}" scripts/worker.ts & PIDS+=($!); }
 node node_modules/next/dist/bin/next start -H "$HOST" -p "$PORT" & PIDS+=($!)
 
 if wait_for_http "http://$HOST:$PORT/signin" 60; then

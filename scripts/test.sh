@@ -16,7 +16,7 @@ export NODE_ENV=production HOST=127.0.0.1 PORT=$((3100 + SLOT))
 export DB_HOST=127.0.0.1 DB_PORT=$((3317 + SLOT)) DB_NAME=takeproof_test DB_USER=takeproof_test DB_PASSWORD=test-password-not-secret
 export DB_DATA_DIR="$TEST_DIR/mariadb" STORAGE_DIR="$TEST_DIR/storage" MAIL_OUTBOX_DIR="$TEST_DIR/mail" TAKEPROOF_TEST_DIR="$TEST_DIR"
 export SMTP_PORT=$((2526 + SLOT)); export SMTP_URL="smtp://127.0.0.1:$SMTP_PORT" MAIL_FROM="Takeproof test <takeproof@demo.test>"
-export NEXTAUTH_SECRET=test-secret-for-the-throwaway-test-server-only DEMO_PASSWORD=demo-takes-2026 UPLOAD_MAX_BYTES=268435456
+export NEXTAUTH_SECRET=test-secret-for-the-throwaway-test-server-only DEMO_PASSWORD=demo-takes-2026 UPLOAD_MAX_BYTES=134217728 JOB_STALE_AFTER_SEC=6
 export NEXTAUTH_URL="http://$HOST:$PORT" TAKEPROOF_TEST_URL="http://$HOST:$PORT" NEXT_TELEMETRY_DISABLED=1
 
 missing=()
@@ -48,8 +48,8 @@ run_ts scripts/seed.ts || exit 1
 
 echo "Building the app for the browser and HTTP tests…"
 npx next build > "$TEST_DIR/build.log" 2>&1 || { tail -60 "$TEST_DIR/build.log"; echo "next build failed" >&2; exit 1; }
-[ -f scripts/mail-catcher.ts ] && { run_ts scripts/mail-catcher.ts > "$TEST_DIR/mail.log" 2>&1 & PIDS+=($!); }
-[ -f scripts/worker.ts ] && { run_ts scripts/worker.ts > "$TEST_DIR/worker.log" 2>&1 & PIDS+=($!); }
+[ -f scripts/mail-catcher.ts ] && { "${RUN_TS[@]}" scripts/mail-catcher.ts > "$TEST_DIR/mail.log" 2>&1 & PIDS+=($!); }
+[ -f scripts/worker.ts ] && { "${RUN_TS[@]}" scripts/worker.ts > "$TEST_DIR/worker.log" 2>&1 & PIDS+=($!); export TAKEPROOF_WORKER_PID=$!; }
 node node_modules/next/dist/bin/next start -H "$HOST" -p "$PORT" > "$TEST_DIR/server.log" 2>&1 & PIDS+=($!)
 wait_for_http "$TAKEPROOF_TEST_URL/signin" 60 || { tail -40 "$TEST_DIR/server.log"; echo "The test server did not start" >&2; exit 1; }
 

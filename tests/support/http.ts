@@ -16,7 +16,7 @@ export type DemoPerson = keyof typeof DEMO;
 export class Client {
   private cookies = new Map<string, string>();
 
-  private cookieHeader() {
+  cookieHeader() {
     return [...this.cookies].map(([k, v]) => `${k}=${v}`).join('; ');
   }
 

@@ -1,0 +1,43 @@
+import { existsSync } from 'node:fs';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { Browser } from 'playwright-core';
+import { launchBrowser, screenshot, signInAs } from '../support/browser';
+
+let browser: Browser;
+beforeAll(async () => {
+  browser = await launchBrowser();
+});
+afterAll(async () => {
+  await browser?.close();
+});
+
+const SAMPLES = ['samples/take-01-clean-interview.wav', 'samples/take-02-preamp-clipping.wav'];
+
+describe('an engineer uploads takes after a session', () => {
+  it.runIf(SAMPLES.every((f) => existsSync(f)))('uploads two demo takes, watches them get measured and sees their verdicts', async () => {
+    const context = await browser.newContext();
+    const page = await context.newPage();
+    await signInAs(page, 'engineer');
+    await page.getByRole('link', { name: 'Sessions' }).click();
+    await page.getByLabel('Title').fill('Harbour Lights — pickups');
+    await page.getByRole('button', { name: 'Create session' }).click();
+    await page.waitForURL(/\/sessions\/\d+$/);
+    await expect(page.getByText('No takes yet.').isVisible()).resolves.toBe(true);
+
+    await page.getByTestId('take-file-input').setInputFiles(SAMPLES);
+    await page.getByText('✓ Uploaded — queued for measuring').nth(1).waitFor({ timeout: 60_000 });
+    const rows = page.locator('tbody tr');
+    await expect.poll(() => rows.count(), { timeout: 30_000 }).toBe(2);
+    // Both reach "Measured" without a reload, through the table's live polling.
+    await expect.poll(async () => (await page.getByTestId('status').allTextContents()).join('|'), { timeout: 90_000 }).toBe('Measured|Measured');
+    const verdicts = await page.getByTestId('verdict').allTextContents();
+    expect(verdicts).toHaveLength(2);
+    for (const v of verdicts) expect(v).toMatch(/Pass|Warn|Fail/);
+    // The clipped take must not pass.
+    const clippedRow = page.locator('tbody tr', { hasText: 'take-02-preamp-clipping.wav' });
+    await expect(clippedRow.getByTestId('verdict').textContent()).resolves.toMatch(/Fail/);
+    await expect(page.getByTestId('take-summary').textContent()).resolves.toMatch(/2 takes/);
+    await screenshot(page, 'session-with-takes');
+    await context.close();
+  });
+});
