@@ -10,3 +10,11 @@ export function sessionsKey(q = '', status = 'all'): string {
 export function sessionTakesKey(sessionId: number): string {
   return `/api/sessions/${sessionId}/takes`;
 }
+
+export function takeKey(takeId: number): string {
+  return `/api/takes/${takeId}`;
+}
+
+export function takeCommentsKey(takeId: number): string {
+  return `/api/takes/${takeId}/comments`;
+}

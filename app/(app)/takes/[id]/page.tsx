@@ -1,0 +1,42 @@
+import type { Metadata } from 'next';
+import { SwrProvider } from '@/components/SwrProvider';
+import { TakeReview } from '@/components/review/TakeReview';
+import { requireActor } from '@/lib/auth/guard';
+import { can } from '@/lib/auth/policy';
+import { loadPage } from '@/lib/pages';
+import { getSession } from '@/lib/sessions';
+import { specForSession } from '@/lib/specs';
+import { takeCommentsKey, takeKey } from '@/lib/swrKeys';
+import { listComments, sessionNeighbours } from '@/lib/takeReview';
+import { getTake } from '@/lib/takes';
+
+export const metadata: Metadata = { title: 'Take review' };
+
+export default async function TakePage({ params }: { params: Promise<{ id: string }> }) {
+  const data = await loadPage(async () => {
+    const actor = await requireActor('session:view');
+    const raw = Number((await params).id);
+    const id = Number.isInteger(raw) && raw > 0 && raw < 2 ** 31 ? raw : 0;
+    const take = await getTake(actor, id);
+    const [session, spec, comments, neighbours] = await Promise.all([
+      getSession(actor, take.sessionId),
+      specForSession(take.sessionId),
+      listComments(actor, id),
+      sessionNeighbours(actor, take),
+    ]);
+    return { actor, take, session, spec, comments, neighbours };
+  });
+  const { actor, take, session, spec, comments, neighbours } = data;
+  return (
+    <SwrProvider fallback={{ [takeKey(take.id)]: take, [takeCommentsKey(take.id)]: { comments } }}>
+      <TakeReview
+        takeId={take.id}
+        session={{ id: session.id, title: session.title }}
+        spec={spec}
+        neighbours={neighbours}
+        canDecide={can(actor.role, 'take:decide')}
+        canComment={can(actor.role, 'take:comment')}
+      />
+    </SwrProvider>
+  );
+}

@@ -1,0 +1,105 @@
+'use client';
+
+import { useState } from 'react';
+import { DecisionMark } from '@/components/StatusMarks';
+import { FormField } from '@/components/FormField';
+import type { FieldErrors } from '@/lib/errors';
+import { ApiError, fetchJson } from '@/lib/fetcher';
+import { fieldErrorsOf } from '@/lib/formErrors';
+import { decisionSchema } from '@/lib/schemas/take';
+import type { TakeDetail } from '@/lib/takeViews';
+
+const when = (iso: string) => new Date(iso).toLocaleString('en-GB', { dateStyle: 'medium', timeStyle: 'short' });
+
+/** The producer's decision on the take: shown to everyone, made by producers and managers. */
+export function DecisionPanel({ take, canDecide, onDecided }: { take: TakeDetail; canDecide: boolean; onDecided: (take: TakeDetail) => void }) {
+  const [note, setNote] = useState('');
+  const [fields, setFields] = useState<FieldErrors>({});
+  const [error, setError] = useState<string | null>(null);
+  const [busy, setBusy] = useState(false);
+  const measured = take.status === 'measured';
+
+  async function send(decision: 'approved' | 'rejected' | 'pending') {
+    setError(null);
+    const parsed = decisionSchema.safeParse({ decision, note });
+    if (!parsed.success) {
+      setFields(fieldErrorsOf(parsed.error));
+      return;
+    }
+    setFields({});
+    setBusy(true);
+    try {
+      const updated = await fetchJson<TakeDetail>(`/api/takes/${take.id}/decision`, { method: 'POST', json: { decision, note } });
+      setNote('');
+      onDecided(updated);
+    } catch (e) {
+      const apiError = e as ApiError;
+      setFields(apiError.fields ?? {});
+      setError(apiError.message);
+    } finally {
+      setBusy(false);
+    }
+  }
+
+  return (
+    <section className="tp-card p-4" aria-labelledby="decision-heading">
+      <h2 id="decision-heading" className="text-lg font-semibold">
+        Decision
+      </h2>
+      <div className="mt-2 text-sm" data-testid="decision-state">
+        <DecisionMark decision={take.decision} />
+        {take.decision !== 'pending' && (
+          <span className="text-muted">
+            {' '}
+            by {take.decidedBy ?? 'someone no longer in the studio'}
+            {take.decidedAt && <> on {when(take.decidedAt)}</>}
+          </span>
+        )}
+        {take.decision === 'pending' && <span className="text-muted"> — no one has decided on this take yet.</span>}
+      </div>
+      {take.decisionNote && (
+        <blockquote className="mt-2 border-l-4 border-line pl-3 text-sm whitespace-pre-line" data-testid="decision-note">
+          {take.decisionNote}
+        </blockquote>
+      )}
+      {canDecide ? (
+        <form className="mt-4 space-y-3" onSubmit={(e) => e.preventDefault()} noValidate aria-label="Decide on this take">
+          <FormField id="decision-note" label={take.decision === 'pending' ? 'Note for the engineer' : 'New note'} hint="Optional when approving; needed to reject." errors={fields.note}>
+            <textarea
+              id="decision-note"
+              className="tp-input min-h-20"
+              value={note}
+              maxLength={2000}
+              onChange={(e) => setNote(e.target.value)}
+              aria-invalid={!!fields.note}
+              aria-describedby={fields.note ? 'decision-note-error' : 'decision-note-hint'}
+              placeholder="e.g. Clipped on the laugh at 2:14; please send the backup recorder's file."
+            />
+          </FormField>
+          <div className="flex flex-wrap gap-2">
+            <button type="button" className="tp-button" disabled={busy || !measured} onClick={() => send('approved')}>
+              <span aria-hidden="true">●</span> Approve for the edit
+            </button>
+            <button type="button" className="tp-button-quiet border-fail text-fail" disabled={busy} onClick={() => send('rejected')}>
+              <span aria-hidden="true">■</span> Reject
+            </button>
+            {take.decision !== 'pending' && (
+              <button type="button" className="tp-button-quiet" disabled={busy} onClick={() => send('pending')}>
+                <span aria-hidden="true">○</span> Reopen
+              </button>
+            )}
+          </div>
+          {!measured && <p className="text-xs text-muted">Approval opens once the take has been measured.</p>}
+          {error && !Object.keys(fields).length && (
+            <p role="alert" className="tp-field-error">
+              <span aria-hidden="true">✕ </span>
+              {error}
+            </p>
+          )}
+        </form>
+      ) : (
+        <p className="mt-3 text-xs text-muted">Producers and studio managers decide on takes.</p>
+      )}
+    </section>
+  );
+}

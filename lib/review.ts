@@ -1,0 +1,322 @@
+/**
+ * What the take review page shows, worked out from a stored report: the marks
+ * on the waveform, the measures with their pass/warn/fail mark, the hearing
+ * caution. Pure and safe to import from the browser.
+ */
+import type { DeliverySpec } from '@/dsp/spec';
+import type { AnalysisReport, Finding, Severity } from '@/dsp/types';
+
+export type Mark = 'pass' | 'warn' | 'fail' | 'none';
+
+/** A stretch of the take worth hearing: one region on the waveform and one line in the findings list. */
+export interface TimedMarker {
+  id: string;
+  kind: 'clip' | 'flat-top' | 'dropout' | 'tone' | 'finding';
+  check: Finding['check'];
+  severity: Severity;
+  startSec: number;
+  endSec: number;
+  channel: number | null;
+  /** A few words drawn on the region. */
+  label: string;
+  /** The sentence in the findings list. */
+  message: string;
+}
+
+/** Clip events drawn one by one before the rest are left to the findings text. */
+export const MAX_CLIP_MARKERS = 200;
+/** Shortest region drawn, so a one-sample clip stays visible and clickable. */
+const MIN_REGION_SEC = 0.02;
+
+export function formatClock(seconds: number): string {
+  const tenths = Math.max(0, Math.round(seconds * 10));
+  const h = Math.floor(tenths / 36000);
+  const m = Math.floor((tenths % 36000) / 600);
+  const s = ((tenths % 600) / 10).toFixed(1).padStart(4, '0');
+  return h ? `${h}:${String(m).padStart(2, '0')}:${s}` : `${m}:${s}`;
+}
+
+export function channelLabel(channel: number | null | undefined, channels: number): string {
+  if (channel == null) return '';
+  if (channels === 2) return channel === 0 ? 'L' : 'R';
+  return `ch ${channel + 1}`;
+}
+
+const channelWords = (channel: number, channels: number) => (channels === 2 ? (channel === 0 ? 'left channel' : 'right channel') : `channel ${channel + 1}`);
+
+function severityOf(findings: Finding[], check: Finding['check'], channel?: number, fallback: Severity = 'warn'): Severity {
+  const own = findings.filter((f) => f.check === check && (channel === undefined || f.channel === undefined || f.channel === channel));
+  return worst(own.map((f) => f.severity)) ?? fallback;
+}
+
+function worst(severities: Severity[]): Severity | null {
+  if (severities.includes('fail')) return 'fail';
+  if (severities.includes('warn')) return 'warn';
+  if (severities.includes('info')) return 'info';
+  return null;
+}
+
+/** Every stretch of the take the report places in time, in time order. */
+export function timedMarkers(report: AnalysisReport): TimedMarker[] {
+  const markers: TimedMarker[] = [];
+  const channels = report.file.channels;
+  const widen = (start: number, end: number) => (end - start < MIN_REGION_SEC ? { startSec: start, endSec: start + MIN_REGION_SEC } : { startSec: start, endSec: end });
+
+  report.clipping.events.slice(0, MAX_CLIP_MARKERS).forEach((event, i) => {
+    const flat = event.level === 'belowFullScale';
+    const ch = channelLabel(event.channel, channels);
+    markers.push({
+      id: `clip-${i}`,
+      kind: flat ? 'flat-top' : 'clip',
+      check: 'clipping',
+      severity: severityOf(report.findings, 'clipping', event.channel),
+      ...widen(event.startSec, event.endSec),
+      channel: event.channel,
+      label: `${flat ? 'Flat top' : 'Clip'} ${ch}`.trim(),
+      message: flat
+        ? `Flat-topped at ${event.levelDbfs.toFixed(1)} dBFS on the ${channelWords(event.channel, channels)}: something before the converter clipped.`
+        : `Clipped at full scale on the ${channelWords(event.channel, channels)}.`,
+    });
+  });
+
+  report.dropouts.forEach((gap, i) => {
+    markers.push({
+      id: `dropout-${i}`,
+      kind: 'dropout',
+      check: 'dropout',
+      severity: severityOf(report.findings, 'dropout'),
+      ...widen(gap.startSec, gap.endSec),
+      channel: null,
+      label: 'Dropout',
+      message: `Digital silence for ${Math.round((gap.endSec - gap.startSec) * 1000)} ms inside the take.`,
+    });
+  });
+
+  if (report.tone) {
+    const t = report.tone;
+    markers.push({
+      id: 'tone',
+      kind: 'tone',
+      check: 'tone',
+      severity: 'info',
+      ...widen(t.startSec, t.endSec),
+      channel: null,
+      label: 'Line-up tone',
+      message: `Line-up tone, ${t.frequencyHz.toFixed(1)} Hz at ${t.levelDbfs.toFixed(1)} dBFS.`,
+    });
+  }
+
+  // Timed findings the lists above do not already cover (e.g. a tone that reads at the wrong rate).
+  report.findings.forEach((f, i) => {
+    if (f.startSec == null) return;
+    if (f.check === 'clipping' || f.check === 'dropout' || f.check === 'tone') return;
+    markers.push({
+      id: `finding-${i}`,
+      kind: 'finding',
+      check: f.check,
+      severity: f.severity,
+      ...widen(f.startSec, f.endSec ?? f.startSec),
+      channel: f.channel ?? null,
+      label: CHECK_LABEL[f.check],
+      message: f.message,
+    });
+  });
+
+  return markers.sort((a, b) => a.startSec - b.startSec || a.id.localeCompare(b.id));
+}
+
+export const CHECK_LABEL: Record<Finding['check'], string> = {
+  container: 'File structure',
+  format: 'Format',
+  resolution: 'Bit depth',
+  clipping: 'Clipping',
+  'true-peak': 'True peak',
+  loudness: 'Loudness',
+  'noise-floor': 'Noise floor',
+  hum: 'Hum',
+  bandwidth: 'Bandwidth',
+  aliasing: 'Aliasing',
+  'dc-offset': 'DC offset',
+  dropout: 'Dropout',
+  'silent-channel': 'Silent channel',
+  stereo: 'Stereo',
+  tone: 'Line-up tone',
+  'sample-rate': 'Sample rate',
+};
+
+/** The index of the marker to move to from `time` (arrow keys): the next one after it, or the one before. */
+export function neighbourMarker(markers: readonly { startSec: number }[], time: number, direction: 1 | -1): number | null {
+  if (markers.length === 0) return null;
+  const epsilon = 0.05;
+  if (direction === 1) {
+    const i = markers.findIndex((m) => m.startSec > time + epsilon);
+    return i < 0 ? null : i;
+  }
+  for (let i = markers.length - 1; i >= 0; i--) if (markers[i].startSec < time - epsilon) return i;
+  return null;
+}
+
+/** Playback from this many seconds before a marker, so the ear hears what leads into it. */
+export const PRE_ROLL_SEC = 1;
+export const cueTime = (startSec: number) => Math.max(0, startSec - PRE_ROLL_SEC);
+
+/** Why the monitors should come down before playing, or null when nothing in the take calls for it. */
+export function hearingCaution(report: AnalysisReport | null): string | null {
+  if (!report) return null;
+  const fullScaleClips = report.clipping.events.filter((e) => e.level === 'fullScale').length;
+  const tp = report.peak.truePeakDbtp;
+  const reasons: string[] = [];
+  if (fullScaleClips > 0) reasons.push(`${fullScaleClips} full-scale clipping event${fullScaleClips === 1 ? '' : 's'}`);
+  if (tp !== null && tp > 0) reasons.push(`true peaks up to ${tp.toFixed(1)} dBTP`);
+  if (!reasons.length) return null;
+  return `This take has ${reasons.join(' and ')}. Lower your monitor level before you press play.`;
+}
+
+export interface MeasureRow {
+  key: string;
+  title: string;
+  /** The measured values, short. */
+  value: string;
+  mark: Mark;
+  /** One plain sentence on what the value means for the edit. */
+  explanation: string;
+  /** The findings behind the mark, in full. */
+  findings: Finding[];
+}
+
+function markOf(findings: Finding[]): Mark {
+  const w = worst(findings.map((f) => f.severity));
+  return w === 'fail' ? 'fail' : w === 'warn' ? 'warn' : 'pass';
+}
+
+const fmt = (v: number | null | undefined, digits = 1, unit = '') => (v == null || !Number.isFinite(v) ? '—' : `${v.toFixed(digits)}${unit ? ` ${unit}` : ''}`);
+const kHz = (hz: number) => `${Number((hz / 1000).toFixed(1))} kHz`;
+
+/** The measures panel: one row per aspect of the take, each marked from the findings of its checks. */
+export function measureRows(report: AnalysisReport, spec: DeliverySpec): MeasureRow[] {
+  const f = report.findings;
+  const pick = (...checks: Finding['check'][]) => f.filter((x) => checks.includes(x.check));
+  const file = report.file;
+  const rows: MeasureRow[] = [];
+  const add = (row: Omit<MeasureRow, 'mark'> & { mark?: Mark }) => rows.push({ ...row, mark: row.mark ?? markOf(row.findings) });
+
+  const declared = file.encoding === 'float' ? `${file.bitsPerSample}-bit float` : `${file.bitsPerSample}-bit`;
+  const used = report.resolution.effectiveBits;
+  const formatFindings = pick('container', 'format', 'resolution', 'sample-rate');
+  add({
+    key: 'format',
+    title: 'Format',
+    value: `${declared} file, ${used > 0 ? `${used} bits used` : 'no audio bits used'} · ${kHz(file.sampleRate)} · ${file.channels === 1 ? 'mono' : file.channels === 2 ? 'stereo' : `${file.channels} channels`} · ${file.container}`,
+    findings: formatFindings,
+    explanation:
+      used > 0 && used < file.bitsPerSample && file.encoding === 'pcm'
+        ? `The file has room for ${file.bitsPerSample} bits but the audio only uses ${used}, so it holds no more detail than a ${used}-bit recording.`
+        : 'The file’s declared format and the resolution its audio really uses agree.',
+  });
+
+  const clipCount = report.clipping.events.length;
+  add({
+    key: 'peaks',
+    title: 'Peaks and clipping',
+    value: `sample peak ${fmt(report.peak.samplePeakDbfs, 1, 'dBFS')} · true peak ${fmt(report.peak.truePeakDbtp, 1, 'dBTP')} (limit ${fmt(spec.maxTruePeakDbtp, 1, 'dBTP')}) · ${clipCount} clipping event${clipCount === 1 ? '' : 's'}`,
+    findings: pick('clipping', 'true-peak'),
+    explanation:
+      clipCount > 0
+        ? 'Clipped stretches are distorted for good: they cannot be repaired by turning the level down in the edit.'
+        : 'True peak estimates the loudest point after conversion; above the limit it may distort on playback or encoding.',
+  });
+
+  const lufs = report.loudness.integratedLufs;
+  add({
+    key: 'loudness',
+    title: 'Loudness',
+    value: `${fmt(lufs, 1, 'LUFS')} integrated (target ${fmt(spec.loudnessTargetLufs, 1, 'LUFS')} ± ${spec.loudnessToleranceLu} LU) · range ${fmt(report.loudness.rangeLu, 1, 'LU')} · short-term max ${fmt(report.loudness.shortTermMaxLufs, 1, 'LUFS')}`,
+    findings: pick('loudness'),
+    explanation:
+      lufs == null
+        ? 'The take is too short or too quiet for an overall loudness reading.'
+        : `The take’s overall loudness is ${Math.abs(lufs - spec.loudnessTargetLufs).toFixed(1)} LU ${lufs > spec.loudnessTargetLufs ? 'above' : 'below'} the delivery target; a raw take is usually levelled in the edit.`,
+  });
+
+  add({
+    key: 'noise',
+    title: 'Noise floor and hum',
+    value: `${fmt(report.noise.floorDbfs, 1, 'dBFS')} in the quiet passages (limit ${fmt(spec.maxNoiseFloorDbfs, 0, 'dBFS')}) · ${report.noise.humHz ? `hum at ${report.noise.humHz} Hz` : 'no mains hum'}`,
+    findings: pick('noise-floor', 'hum'),
+    explanation: report.noise.humHz
+      ? 'A steady mains hum sits under the quiet passages; it usually comes from a ground loop or a nearby power cable.'
+      : 'The noise floor is the hiss heard between words; the lower it is, the cleaner the pauses.',
+  });
+
+  const bw = report.bandwidth;
+  add({
+    key: 'bandwidth',
+    title: 'Bandwidth',
+    value: `${bw.effectiveHz != null ? `audio up to ${kHz(bw.effectiveHz)}` : '—'} of ${kHz(file.sampleRate / 2)} possible${bw.impliedSourceRate ? ` · probably made at ${kHz(bw.impliedSourceRate)}` : ''}${bw.aliasingRisk ? ' · aliasing risk' : ''}`,
+    findings: pick('bandwidth', 'aliasing'),
+    explanation: bw.impliedSourceRate
+      ? 'The highest frequencies are missing, as if the take was recorded at a lower sample rate and converted up afterwards.'
+      : 'How high the recorded frequencies reach; a take cut off well below the file’s limit sounds dull.',
+  });
+
+  const worstDc = report.channels.reduce((m, c) => (Math.abs(c.dcOffset) > Math.abs(m) ? c.dcOffset : m), 0);
+  add({
+    key: 'dc',
+    title: 'DC offset',
+    value: `${(Math.abs(worstDc) * 100).toPrecision(2)} % of full scale at most (limit ${(spec.maxDcOffset * 100).toPrecision(2)} %)`,
+    findings: pick('dc-offset'),
+    explanation: 'A DC offset shifts the whole waveform off centre; it wastes headroom and can click at edits.',
+  });
+
+  if (report.stereo) {
+    const s = report.stereo;
+    add({
+      key: 'stereo',
+      title: 'Stereo',
+      value: `correlation ${s.correlation.toFixed(2)}${s.identicalChannels ? ' · both channels identical' : ''}${s.polarityInverted ? ' · polarity inverted' : ''}${s.antiPhaseShare != null ? ` · ${Math.round(s.antiPhaseShare * 100)} % in anti-phase` : ''}`,
+      findings: pick('stereo', 'silent-channel'),
+      explanation: s.polarityInverted
+        ? 'One channel is upside down relative to the other, so the take will cancel out when played in mono.'
+        : 'Correlation near +1 means the channels agree; near −1 means they cancel each other when summed to mono.',
+    });
+  } else {
+    add({ key: 'stereo', title: 'Channels', value: file.channels === 1 ? 'mono take' : `${file.channels} channels`, findings: pick('silent-channel'), explanation: 'Stereo checks apply to two-channel takes only.' });
+  }
+
+  const dropoutCount = report.dropoutCount ?? report.dropouts.length;
+  add({
+    key: 'dropouts',
+    title: 'Dropouts',
+    value: `${dropoutCount} dropout${dropoutCount === 1 ? '' : 's'}`,
+    findings: pick('dropout'),
+    explanation: dropoutCount ? 'Short stretches of digital silence inside the audio, usually a cable, card or buffer fault during recording.' : 'No stretch of digital silence interrupts the audio.',
+  });
+
+  const tone = report.tone;
+  add({
+    key: 'tone',
+    title: 'Line-up tone',
+    value: tone ? `${tone.frequencyHz.toFixed(1)} Hz at ${tone.levelDbfs.toFixed(1)} dBFS, ${formatClock(tone.startSec)}–${formatClock(tone.endSec)} · SINAD ${tone.sinadDb.toFixed(1)} dB` : 'none found',
+    findings: pick('tone'),
+    mark: tone ? undefined : 'none',
+    explanation: tone
+      ? 'The reference tone at the head of the take shows the recorder’s level and how cleanly it converts.'
+      : 'No reference tone was found at the head or tail of the take; that is fine unless the delivery asks for one.',
+  });
+
+  return rows;
+}
+
+/** Findings without a place in time, for the list under the timed ones. */
+export function untimedFindings(report: AnalysisReport): Finding[] {
+  return report.findings.filter((f) => f.startSec == null);
+}
+
+/** Reads a time typed as seconds, m:ss(.s) or h:mm:ss(.s); null when it is not one. */
+export function parseClock(text: string): number | null {
+  const t = text.trim();
+  if (!/^\d+(:\d{1,2}){0,2}(\.\d+)?$/.test(t)) return null;
+  const parts = t.split(':').map(Number);
+  if (parts.slice(1).some((p) => p >= 60)) return null;
+  return parts.reduce((total, p) => total * 60 + p, 0);
+}
