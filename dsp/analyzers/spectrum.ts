@@ -9,8 +9,8 @@ import { assertAnalysableFormat, declaredFrames, hannWindow, isPowerOfTwo } from
  *
  * Estimate variance: each Welch bin averages K windows × C channels of
  * independent periodograms, so for noise-like content its relative variance is
- * about 1/(K·C), a standard deviation of ≈ 4.34/√(K·C) dB (K = 2000, C = 2:
- * 0.07 dB per bin). The band and plot averages below pool many bins and are
+ * about 1/(K·C), a standard deviation of ≈ 4.34/√(K·C) dB (K = 1000, C = 2:
+ * 0.1 dB per bin). The band and plot averages below pool many bins and are
  * steadier still. Programme is not stationary, so the estimate describes the
  * windows taken: with windows spread evenly over the take, that is a uniform
  * time sample of it.
@@ -19,7 +19,7 @@ import { assertAnalysableFormat, declaredFrames, hannWindow, isPowerOfTwo } from
 export interface SpectrumOptions {
   /** FFT length, samples (power of two, 1024–65536). Default 8192. */
   fftSize?: number;
-  /** Most windows taken from a take whose length the header declares. Default 2000. */
+  /** Most windows taken from a take whose length the header declares. Default 1000. */
   maxWindows?: number;
   /** Points in the plotted spectrum (log-spaced 20 Hz … Nyquist), 16–4096. Default 240. */
   plotPoints?: number;
@@ -110,7 +110,7 @@ export class SpectrumAnalyzer implements Analyzer<BandwidthResult> {
     if (!isPowerOfTwo(fftSize) || fftSize < 1024 || fftSize > 65536) {
       throw new RangeError(`SpectrumAnalyzer: fftSize ${fftSize} must be a power of two from 1024 to 65536.`);
     }
-    const maxWindows = options.maxWindows ?? 2000;
+    const maxWindows = options.maxWindows ?? 1000;
     if (!Number.isInteger(maxWindows) || maxWindows < 1 || maxWindows > 1_000_000) {
       throw new RangeError(`SpectrumAnalyzer: maxWindows ${maxWindows} must be an integer from 1 to 1000000.`);
     }

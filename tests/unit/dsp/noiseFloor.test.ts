@@ -110,11 +110,27 @@ describe('NoiseFloorAnalyzer: mains hum', () => {
   });
 });
 
+describe('NoiseFloorAnalyzer: sampling long takes', () => {
+  it('gives the same floor and hum from evenly spread segments as from the whole take, length declared or not', () => {
+    const seconds = 90;
+    const x = addInto(addInto(speechLike(FS * seconds, FS, 0.5, 40), whiteNoise(FS * seconds, 10 ** (-72 / 20), 41)), mainsHum(FS * seconds, FS, 60, -80));
+    const whole = analyse([x]);
+    const run = (declared: boolean) =>
+      pushInBlocks(new NoiseFloorAnalyzer(pcmFormat(FS, 1, 24, declared ? x.length : null), { maxSegments: 12 }), [x], 65536);
+    for (const sampled of [run(true), run(false)]) {
+      expect(Math.abs(sampled.floorDbfs! - whole.floorDbfs!)).toBeLessThan(1);
+      expect(sampled.humHz).toBe(60);
+    }
+    expect(whole.humHz).toBe(60);
+  });
+});
+
 describe('NoiseFloorAnalyzer: configuration', () => {
   it('rejects impossible configuration with a message', () => {
     expect(() => new NoiseFloorAnalyzer(pcmFormat(-48000, 2))).toThrow(/sample rate/);
     expect(() => new NoiseFloorAnalyzer(pcmFormat(48000, 1.5))).toThrow(/channel count/);
     expect(() => new NoiseFloorAnalyzer(pcmFormat(48000, 2), { floorPercentile: 0 })).toThrow(/floorPercentile/);
     expect(() => new NoiseFloorAnalyzer(pcmFormat(48000, 2), { humProminenceDb: Number.NaN })).toThrow(/humProminenceDb/);
+    expect(() => new NoiseFloorAnalyzer(pcmFormat(48000, 2), { maxSegments: 2.5 })).toThrow(/maxSegments/);
   });
 });
