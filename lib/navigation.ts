@@ -4,4 +4,7 @@ import type { Capability } from './auth/policy';
 export const NAVIGATION: { href: string; label: string; capability: Capability }[] = [
   { href: '/', label: 'Overview', capability: 'session:view' },
   { href: '/sessions', label: 'Sessions', capability: 'session:view' },
+  { href: '/team', label: 'Team', capability: 'user:manage' },
+  { href: '/audit', label: 'Audit log', capability: 'audit:view' },
+  { href: '/outbox', label: 'Outbox', capability: 'mail:view' },
 ];

@@ -1,0 +1,68 @@
+'use client';
+
+import Link from 'next/link';
+import { useState } from 'react';
+import { ApiError, fetchJson } from '@/lib/fetcher';
+import type { FieldErrors } from '@/lib/errors';
+import { FormField } from './FormField';
+
+/** Sets the invited person's password; the account is active as soon as this succeeds. */
+export function InviteAcceptForm({ token, email, minLength }: { token: string; email: string; minLength: number }) {
+  const [fields, setFields] = useState<FieldErrors>({});
+  const [error, setError] = useState<string | null>(null);
+  const [busy, setBusy] = useState(false);
+  const [done, setDone] = useState(false);
+
+  async function onSubmit(event: React.FormEvent<HTMLFormElement>) {
+    event.preventDefault();
+    const form = new FormData(event.currentTarget);
+    setBusy(true);
+    setFields({});
+    setError(null);
+    try {
+      await fetchJson('/api/invitations/accept', { method: 'POST', json: { token, password: form.get('password'), confirm: form.get('confirm') } });
+      setDone(true);
+    } catch (e) {
+      const apiError = e as ApiError;
+      setFields(apiError.fields ?? {});
+      setError(apiError.fields ? null : apiError.message);
+    } finally {
+      setBusy(false);
+    }
+  }
+
+  if (done) {
+    return (
+      <div role="status">
+        <p className="font-semibold text-pass">
+          <span aria-hidden="true">✓ </span>Your account is ready.
+        </p>
+        <p className="mt-2 text-sm text-muted">Sign in with {email} and the password you just chose.</p>
+        <Link href="/signin" className="tp-button mt-4">
+          Sign in
+        </Link>
+      </div>
+    );
+  }
+
+  return (
+    <form onSubmit={onSubmit} noValidate className="space-y-4" aria-label="Set your password">
+      <input type="email" name="username" value={email} autoComplete="username" readOnly hidden />
+      <FormField id="password" label="New password" hint={`At least ${minLength} characters.`} errors={fields.password}>
+        <input id="password" name="password" type="password" autoComplete="new-password" minLength={minLength} required className="tp-input" aria-invalid={!!fields.password} />
+      </FormField>
+      <FormField id="confirm" label="Repeat the password" errors={fields.confirm}>
+        <input id="confirm" name="confirm" type="password" autoComplete="new-password" required className="tp-input" aria-invalid={!!fields.confirm} />
+      </FormField>
+      {error && (
+        <p role="alert" className="tp-field-error">
+          <span aria-hidden="true">✕ </span>
+          {error}
+        </p>
+      )}
+      <button type="submit" className="tp-button w-full justify-center" disabled={busy}>
+        {busy ? 'Saving…' : 'Set password and activate'}
+      </button>
+    </form>
+  );
+}

@@ -1,0 +1,221 @@
+'use client';
+
+import { useState } from 'react';
+import useSWR from 'swr';
+import { ApiError, fetchJson, swrFetcher } from '@/lib/fetcher';
+import type { FieldErrors } from '@/lib/errors';
+import type { DeliveryView } from '@/lib/mail/deliveries';
+import type { TeamMember } from '@/lib/team';
+import { FormField } from './FormField';
+
+const KEY = '/api/users';
+const ROLE_LABEL = { engineer: 'Engineer', producer: 'Producer', manager: 'Studio manager' } as const;
+const STATUS = {
+  active: { mark: '●', word: 'Active', tone: 'text-pass' },
+  invited: { mark: '○', word: 'Invited', tone: 'text-warn' },
+  deactivated: { mark: '✕', word: 'Deactivated', tone: 'text-muted' },
+} as const;
+
+function Notice({ notice }: { notice: { ok: boolean; text: string } | null }) {
+  if (!notice) return null;
+  return (
+    <p role={notice.ok ? 'status' : 'alert'} className={`mb-3 text-sm font-semibold ${notice.ok ? 'text-pass' : 'text-fail'}`}>
+      <span aria-hidden="true">{notice.ok ? '✓ ' : '✕ '}</span>
+      {notice.text}
+    </p>
+  );
+}
+
+function InviteForm({ onDone }: { onDone: (text: string, ok: boolean) => Promise<void> }) {
+  const [fields, setFields] = useState<FieldErrors>({});
+  const [error, setError] = useState<string | null>(null);
+  const [busy, setBusy] = useState(false);
+
+  async function onSubmit(event: React.FormEvent<HTMLFormElement>) {
+    event.preventDefault();
+    const formElement = event.currentTarget;
+    const form = Object.fromEntries(new FormData(formElement)) as Record<string, string>;
+    setBusy(true);
+    setFields({});
+    setError(null);
+    try {
+      const { member, delivery } = await fetchJson<{ member: TeamMember; delivery: DeliveryView }>(KEY, { method: 'POST', json: form });
+      formElement.reset();
+      await onDone(
+        delivery.status === 'sent' ? `Invitation sent to ${member.email}.` : `${member.name} was added, but the invitation e-mail was not sent: ${delivery.error} Use “Resend invitation” to try again.`,
+        delivery.status === 'sent',
+      );
+    } catch (e) {
+      const apiError = e as ApiError;
+      setFields(apiError.fields ?? {});
+      setError(apiError.message);
+    } finally {
+      setBusy(false);
+    }
+  }
+
+  return (
+    <form onSubmit={onSubmit} noValidate aria-label="Invite a person" className="grid gap-4">
+      <FormField id="invite-name" label="Name" errors={fields.name}>
+        <input id="invite-name" name="name" className="tp-input" maxLength={160} autoComplete="off" aria-invalid={!!fields.name} />
+      </FormField>
+      <FormField id="invite-email" label="E-mail" errors={fields.email}>
+        <input id="invite-email" name="email" type="email" className="tp-input" maxLength={254} autoComplete="off" aria-invalid={!!fields.email} />
+      </FormField>
+      <FormField id="invite-role" label="Role" errors={fields.role}>
+        <select id="invite-role" name="role" className="tp-input" defaultValue="engineer">
+          {Object.entries(ROLE_LABEL).map(([value, label]) => (
+            <option key={value} value={value}>
+              {label}
+            </option>
+          ))}
+        </select>
+      </FormField>
+      {error && (
+        <p role="alert" className="tp-field-error">
+          <span aria-hidden="true">✕ </span>
+          {error}
+        </p>
+      )}
+      <div>
+        <button type="submit" className="tp-button" disabled={busy}>
+          {busy ? 'Sending…' : 'Send invitation'}
+        </button>
+      </div>
+    </form>
+  );
+}
+
+/** The studio's people: role changes, deactivation, invitations. */
+export function TeamManager({ initial, selfId }: { initial: TeamMember[]; selfId: number }) {
+  const { data, mutate } = useSWR<{ users: TeamMember[] }, ApiError>(KEY, swrFetcher, { fallbackData: { users: initial } });
+  const [notice, setNotice] = useState<{ ok: boolean; text: string } | null>(null);
+  const [busy, setBusy] = useState<number | null>(null);
+  const users = data?.users ?? initial;
+
+  async function act(id: number, run: () => Promise<string>) {
+    setBusy(id);
+    setNotice(null);
+    try {
+      setNotice({ ok: true, text: await run() });
+    } catch (e) {
+      setNotice({ ok: false, text: (e as ApiError).message });
+    } finally {
+      setBusy(null);
+      await mutate();
+    }
+  }
+
+  const patch = (u: TeamMember, body: Record<string, unknown>, done: string) =>
+    act(u.id, async () => {
+      await fetchJson(`/api/users/${u.id}`, { method: 'PATCH', json: body });
+      return done;
+    });
+
+  const resend = (u: TeamMember) =>
+    act(u.id, async () => {
+      const { delivery } = await fetchJson<{ delivery: DeliveryView }>(`/api/users/${u.id}/invitation`, { method: 'POST' });
+      if (delivery.status !== 'sent') throw new ApiError(502, 'internal:mail', `The invitation was not sent: ${delivery.error}`);
+      return `A new invitation link was sent to ${u.email}.`;
+    });
+
+  return (
+    <div className="grid gap-6 lg:grid-cols-[1fr_20rem]">
+      <section aria-labelledby="people" className="tp-card">
+        <h2 id="people" className="border-b border-line p-4 text-lg font-semibold">
+          People
+        </h2>
+        <div className="p-4 pb-0">
+          <Notice notice={notice} />
+        </div>
+        <div className="overflow-x-auto">
+          <table className="w-full text-left text-sm">
+            <thead className="bg-sunken text-muted">
+              <tr>
+                <th scope="col" className="px-4 py-2 font-semibold">Name</th>
+                <th scope="col" className="px-4 py-2 font-semibold">E-mail</th>
+                <th scope="col" className="px-4 py-2 font-semibold">Role</th>
+                <th scope="col" className="px-4 py-2 font-semibold">Status</th>
+                <th scope="col" className="px-4 py-2 font-semibold">Actions</th>
+              </tr>
+            </thead>
+            <tbody>
+              {users.map((u) => {
+                const s = STATUS[u.status];
+                return (
+                  <tr key={u.id} className="border-t border-line align-top">
+                    <td className="px-4 py-2 font-semibold">
+                      {u.name}
+                      {u.id === selfId && <span className="ml-1 font-normal text-muted">(you)</span>}
+                    </td>
+                    <td className="break-all px-4 py-2">{u.email}</td>
+                    <td className="px-4 py-2">
+                      <label className="sr-only" htmlFor={`role-${u.id}`}>
+                        Role of {u.name}
+                      </label>
+                      <select
+                        id={`role-${u.id}`}
+                        className="tp-input w-40"
+                        value={u.role}
+                        disabled={busy === u.id}
+                        onChange={(e) => patch(u, { role: e.target.value }, `${u.name} is now ${ROLE_LABEL[e.target.value as keyof typeof ROLE_LABEL].toLowerCase()}.`)}
+                      >
+                        {Object.entries(ROLE_LABEL).map(([value, label]) => (
+                          <option key={value} value={value}>
+                            {label}
+                          </option>
+                        ))}
+                      </select>
+                    </td>
+                    <td className={`px-4 py-2 font-semibold ${s.tone}`}>
+                      <span aria-hidden="true">{s.mark} </span>
+                      {s.word}
+                      {u.status === 'invited' && u.invitationExpiresAt && (
+                        <span className="block text-xs font-normal text-muted">
+                          {Date.parse(u.invitationExpiresAt) > Date.now() ? `link valid until ${u.invitationExpiresAt.slice(0, 16).replace('T', ' ')} UTC` : 'link expired'}
+                        </span>
+                      )}
+                      {u.status === 'invited' && u.lastInvitation?.status === 'failed' && (
+                        <span className="block text-xs font-normal text-fail">✕ E-mail not sent: {u.lastInvitation.error}</span>
+                      )}
+                    </td>
+                    <td className="px-4 py-2">
+                      <div className="flex flex-wrap gap-2">
+                        {u.status === 'invited' && (
+                          <button type="button" className="tp-button-quiet" disabled={busy === u.id} onClick={() => resend(u)}>
+                            Resend invitation
+                          </button>
+                        )}
+                        {u.status === 'active' && (
+                          <button type="button" className="tp-button-quiet" disabled={busy === u.id} onClick={() => patch(u, { active: false }, `${u.name} can no longer sign in.`)}>
+                            Deactivate
+                          </button>
+                        )}
+                        {u.status === 'deactivated' && (
+                          <button type="button" className="tp-button-quiet" disabled={busy === u.id} onClick={() => patch(u, { active: true }, `${u.name} can sign in again.`)}>
+                            Reactivate
+                          </button>
+                        )}
+                      </div>
+                    </td>
+                  </tr>
+                );
+              })}
+            </tbody>
+          </table>
+        </div>
+      </section>
+      <section aria-labelledby="invite" className="tp-card p-4">
+        <h2 id="invite" className="mb-3 text-lg font-semibold">
+          Invite a person
+        </h2>
+        <InviteForm
+          onDone={async (text, ok) => {
+            setNotice({ ok, text });
+            await mutate();
+          }}
+        />
+      </section>
+    </div>
+  );
+}
