@@ -1,0 +1,39 @@
+import type { Metadata } from 'next';
+import Link from 'next/link';
+import { RecorderForm } from '@/components/RecorderForm';
+import { requireActor } from '@/lib/auth/guard';
+import { loadPage } from '@/lib/pages';
+import { getRecorder } from '@/lib/recorders';
+
+export const metadata: Metadata = { title: 'Recorder' };
+
+export default async function RecorderEditPage({ params, searchParams }: { params: Promise<{ id: string }>; searchParams: Promise<{ created?: string }> }) {
+  const recorder = await loadPage(async () => {
+    const actor = await requireActor('recorder:manage');
+    const id = Number((await params).id);
+    return getRecorder(actor, Number.isInteger(id) && id > 0 ? id : 0);
+  });
+  const { created } = await searchParams;
+  return (
+    <div className="max-w-3xl">
+      <p className="mb-2 text-sm">
+        <Link href="/recorders" className="text-accent hover:underline">← All recorders</Link>
+      </p>
+      <h1 className="text-2xl font-semibold">{recorder.label}</h1>
+      <p className="mb-4 mt-1 text-muted">
+        {recorder.active ? '● In service' : '○ Retired'} · {recorder.takeCount} takes ·{' '}
+        <Link href={`/fleet/${recorder.id}`} className="text-accent underline">
+          Trends and alerts
+        </Link>
+      </p>
+      {created && (
+        <p role="status" className="mb-4 text-sm text-pass">
+          <span aria-hidden="true">✓ </span>Recorder added.
+        </p>
+      )}
+      <section className="tp-card p-4">
+        <RecorderForm mode="edit" recorder={recorder} />
+      </section>
+    </div>
+  );
+}
