@@ -1,6 +1,6 @@
 import FFT from 'fft.js';
 import type { Analyzer, AudioFormat, SampleBlock } from '../types';
-import { assertAnalysableFormat, declaredFrames, hannWindow } from './formatGuard';
+import { assertAnalysableFormat, hannWindow } from './formatGuard';
 import { STANDARD_RATES_HZ } from './spectrum';
 
 /**
@@ -107,8 +107,6 @@ export class ToneAnalyzer implements Analyzer<ToneResult | null> {
   private headFill = 0;
   private readonly tail: Float32Array[];
   private tailPos = 0;
-  /** Frames before which nothing needs to enter the tail ring (known take length). */
-  private readonly tailSkip: number;
   private framesSeen = 0;
   private startTone: Candidate | null = null;
   private headDone = false;
@@ -156,8 +154,6 @@ export class ToneAnalyzer implements Analyzer<ToneResult | null> {
     this.fftOut = new Float64Array(2 * this.chunk);
     this.head = Array.from({ length: this.channels }, () => new Float32Array(this.headFrames));
     this.tail = Array.from({ length: this.channels }, () => new Float32Array(this.tailFrames));
-    const frames = declaredFrames(format);
-    this.tailSkip = frames === null ? 0 : Math.max(0, frames - this.tailFrames - this.fs);
   }
 
   push(block: SampleBlock): void {
@@ -173,10 +169,11 @@ export class ToneAnalyzer implements Analyzer<ToneResult | null> {
       if (this.headFill === this.headFrames) this.analyseHead();
     }
     if (this.tracking && offset < n) this.follow(block, offset, n);
-    // Tail ring: only what can still be among the last tailFrames frames.
+    // Tail ring: every block passes through it (a header's length cannot be trusted to skip
+    // ahead: a truncated take ends early); only its last tailFrames frames matter.
     const end = start + n;
-    if (end > this.tailSkip) {
-      const from = Math.max(0, this.tailSkip - start, n - this.tailFrames);
+    {
+      const from = Math.max(0, n - this.tailFrames);
       for (let i = from; i < n; ) {
         const run = Math.min(n - i, this.tailFrames - this.tailPos);
         for (let c = 0; c < this.channels; c++) this.tail[c].set(block.channels[c].subarray(i, i + run), this.tailPos);

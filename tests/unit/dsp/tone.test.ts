@@ -104,6 +104,13 @@ describe('ToneAnalyzer: finding the tone', () => {
     }
   });
 
+  it('still finds the end tone of a take shorter than its header declares', () => {
+    const take = concat(speechLike(FS * 20, FS, 0.3, 18), sine(FS * 2, FS, 997, 0.2));
+    const analyzer = new ToneAnalyzer(pcmFormat(FS, 1, 24, take.length + FS * 30));
+    const r = pushInBlocks(analyzer, [take], 65536)!;
+    expect(Math.abs(r.endSec - 22)).toBeLessThan(0.01);
+  });
+
   it('follows a tone that runs past the kept head', () => {
     const take = concat(sine(FS * 7, FS, 1000, 0.2), whiteNoise(FS * 2, 0.05, 10));
     const r = analyse([take], FS, { headSec: 3 })!;
