@@ -109,6 +109,12 @@ describe('sending a session report', () => {
 
     const takes = await takesOf(sessionId);
     expect(takes).toHaveLength(2);
+    expect(takes.map((t) => t.status)).toEqual(['measured', 'measured']);
+    // The key measures appear with their units.
+    for (const t of takes) {
+      expect(html).toContain(`${t.truePeakDbtp!.toFixed(1)} dBTP`);
+      expect(html).toContain(`${t.integratedLufs!.toFixed(1)} LUFS`);
+    }
     // Status always has a word (and a mark) beside any colour.
     for (const t of takes) {
       const word = { pass: '✓ Pass', warn: '▲ Warn', fail: '✕ Fail' }[t.verdict ?? ''] ?? '○ Not measured';
