@@ -111,10 +111,7 @@ export default async function AuditLogPage({ searchParams }: { searchParams: Pro
                     <td className="whitespace-nowrap px-4 py-2 font-mono">{e.at.slice(0, 19).replace('T', ' ')}</td>
                     <td className="px-4 py-2">{e.actor?.name ?? '—'}</td>
                     <td className="px-4 py-2 font-mono">{e.action}</td>
-                    <td className="px-4 py-2">
-                      {e.subjectType}
-                      {e.subjectId != null && ` #${e.subjectId}`}
-                    </td>
+                    <td className="px-4 py-2">{`${e.subjectType}${e.subjectId != null ? ` #${e.subjectId}` : ''}`}</td>
                     <td className="break-all px-4 py-2 text-muted">{describe(e.detail)}</td>
                   </tr>
                 ))}
