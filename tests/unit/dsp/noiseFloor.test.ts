@@ -12,13 +12,13 @@ function analyse(channels: Float64Array[], sampleRate = FS, options = {}) {
 
 describe('NoiseFloorAnalyzer: floor level', () => {
   it('reads steady white noise at its RMS level (square-wave reference)', () => {
-    // RMS dBFS = 20·log10(rms) for full scale 1.0 (report contract convention A, standards §6.4).
+    // RMS dBFS = 20·log10(rms) for full scale 1.0 (the report contract's convention; Reiss & McPherson, Audio Effects, ch. 1 [from memory]).
     const r = analyse([whiteNoise(FS * 6, 10 ** (-70 / 20), 1)]);
     expect(r.floorDbfs!).toBeCloseTo(-70, 0);
     expect(Math.abs(r.floorDbfs! + 70)).toBeLessThan(0.3);
   });
 
-  it('reads a steady sine of amplitude 0.5 at −9.03 dBFS RMS (full-scale sine = −3.01 dBFS, §6.4)', () => {
+  it('reads a steady sine of amplitude 0.5 at −9.03 dBFS RMS (full-scale sine = −3.01 dBFS, square-wave reference)', () => {
     const r = analyse([sine(FS * 3, FS, 997, 0.5)]);
     expect(Math.abs(r.floorDbfs! - (20 * Math.log10(0.5) - 3.0103))).toBeLessThan(0.1);
   });
@@ -50,13 +50,13 @@ describe('NoiseFloorAnalyzer: floor level', () => {
     expect(Math.abs(r.floorDbfs! + 66)).toBeLessThan(0.3);
   });
 
-  it('gives 15.2 noise-limited bits for TPDF-dithered 16-bit silence (§6.1: TPDF floor Q²/4, ENOB 15.21)', () => {
-    // Zero signal + 2 LSB p-p TPDF dither, quantised to 16 bits: total noise Q²/4 (Lipshitz et al. [from memory], simulated in §6.1).
+  it('gives 15.2 noise-limited bits for TPDF-dithered 16-bit silence (TPDF floor Q²/4 → 16 − log2(√3) = 15.21)', () => {
+    // Zero signal + 2 LSB p-p TPDF dither, quantised to 16 bits: total noise Q²/4 (Lipshitz, Wannamaker & Vanderkooy, JAES 1992 [from memory]).
     const r = analyse([quantise(new Float64Array(FS * 6), 16, 11)]);
     expect(Math.abs(r.noiseLimitedBits! - 15.21)).toBeLessThan(0.1);
   });
 
-  it('gives 16.0 noise-limited bits for uniform noise of one 16-bit LSB step (Q²/12, ideal quantiser 6.02N + 1.76, §6.1)', () => {
+  it('gives 16.0 noise-limited bits for uniform noise of one 16-bit LSB step (Q²/12, textbook ideal quantiser, 6.02N + 1.76 dB)', () => {
     const rand = seededRandom(12);
     const q = 2 ** -15;
     const x = Float64Array.from({ length: FS * 6 }, () => (rand() - 0.5) * q);

@@ -32,7 +32,7 @@ describe('SpectrumAnalyzer: usable bandwidth', () => {
   it('finds the cut-off of 16 kHz noise up-sampled to 48 kHz by sox: ≈ 8 kHz, source rate 16000', () => {
     // Fixture: sox synthesises white noise at 16 kHz and resamples it to 48 kHz (its default
     // high-quality low-pass). A resampler's low-pass sits just below the original Nyquist
-    // (standards notes §8: "16 kHz wideband speech: 7–8 kHz") [common practice].
+    // (16 kHz wideband speech shows a cut-off at about 7–8 kHz) [common practice].
     const fx = generateWithTool('sox', (out) => ['-r', '16000', '-n', '-b', '24', out, 'synth', '4', 'whitenoise', 'gain', '-10', 'rate', '48000']);
     expect(fx.sampleRate).toBe(48000);
     const r = analyse(fx.channels);
@@ -43,8 +43,9 @@ describe('SpectrumAnalyzer: usable bandwidth', () => {
     expect(r.nearNyquistDb!).toBeLessThan(-60);
   });
 
-  it('finds the cut-off of 44.1 kHz noise resampled to 48 kHz by ffmpeg: 20–22.05 kHz, implied rate null (T42)', () => {
-    // T42 (standards notes §10): cut-off at about 20–22 kHz ±0.5 kHz, not 24 kHz; the report contract
+  it('finds the cut-off of 44.1 kHz noise resampled to 48 kHz by ffmpeg: 20–22.05 kHz, implied rate null', () => {
+    // A 44.1 kHz origin cuts off at about 20–22.05 kHz (below its 22.05 kHz Nyquist), ±0.5 kHz, not 24 kHz
+    // [common practice]; the report contract
     // leaves impliedSourceRate null because 20–22 kHz is above 0.42 × 48 kHz = 20.16 kHz.
     const fx = generateWithTool('ffmpeg', (out) => [
       '-hide_banner', '-loglevel', 'error', '-y', '-f', 'lavfi', '-i', 'anoisesrc=d=4:c=white:r=44100:a=0.3:seed=7',
@@ -86,7 +87,7 @@ describe('SpectrumAnalyzer: usable bandwidth', () => {
 });
 
 describe('SpectrumAnalyzer: spectral lines and aliasing', () => {
-  it('shows a 30 kHz tone sampled at 48 kHz at its alias 18 kHz (f_a = |f − k·fs|, T40)', () => {
+  it('shows a 30 kHz tone sampled at 48 kHz at its alias 18 kHz (textbook f_a = |f − k·fs|)', () => {
     // Textbook alias formula, k = round(30000/48000) = 1 → |30000 − 48000| = 18000 Hz.
     const tone = sine(FS * 2, FS, 30000, 0.5);
     addInto(tone, whiteNoise(FS * 2, 1e-4, 9));
@@ -99,7 +100,7 @@ describe('SpectrumAnalyzer: spectral lines and aliasing', () => {
     expect(Math.abs(Math.log(r.spectrum.hz[iMax] / 18000))).toBeLessThan(Math.log(ratio));
   });
 
-  it('also folds 25 kHz at 44.1 kHz to 19.1 kHz (T40 companion vector)', () => {
+  it('also folds 25 kHz at 44.1 kHz to |25000 − 44100| = 19.1 kHz (same formula)', () => {
     const fs = 44100;
     const r = analyse([addInto(sine(fs * 2, fs, 25000, 0.5), whiteNoise(fs * 2, 1e-4, 10))], fs);
     expect(Math.abs(r.peakHz! - 19100)).toBeLessThan(fs / 8192 / 2);
