@@ -191,33 +191,15 @@ export class WaveformPeaksAnalyzer implements Analyzer<WaveformPeaksResult> {
   }
 }
 
-/** Widens min[c]/max[c] to cover x[from..to). A small leaf function with four accumulators: it stays hot and short-chained. */
+/** Widens min[c]/max[c] to cover x[from..to). A small leaf function, so the engine keeps it hot. */
 function extendMinMax(x: Float64Array, from: number, to: number, min: Float64Array, max: Float64Array, c: number): void {
-  let mn0 = min[c];
-  let mx0 = max[c];
-  let mn1 = mn0, mn2 = mn0, mn3 = mn0;
-  let mx1 = mx0, mx2 = mx0, mx3 = mx0;
-  let j = from;
-  for (; j + 3 < to; j += 4) {
-    const v0 = x[j], v1 = x[j + 1], v2 = x[j + 2], v3 = x[j + 3];
-    mn0 = v0 < mn0 ? v0 : mn0;
-    mx0 = v0 > mx0 ? v0 : mx0;
-    mn1 = v1 < mn1 ? v1 : mn1;
-    mx1 = v1 > mx1 ? v1 : mx1;
-    mn2 = v2 < mn2 ? v2 : mn2;
-    mx2 = v2 > mx2 ? v2 : mx2;
-    mn3 = v3 < mn3 ? v3 : mn3;
-    mx3 = v3 > mx3 ? v3 : mx3;
-  }
-  for (; j < to; j++) {
+  let mn = min[c];
+  let mx = max[c];
+  for (let j = from; j < to; j++) {
     const v = x[j];
-    mn0 = v < mn0 ? v : mn0;
-    mx0 = v > mx0 ? v : mx0;
+    if (v < mn) mn = v;
+    if (v > mx) mx = v;
   }
-  mn0 = mn0 < mn2 ? mn0 : mn2;
-  mn1 = mn1 < mn3 ? mn1 : mn3;
-  mx0 = mx0 > mx2 ? mx0 : mx2;
-  mx1 = mx1 > mx3 ? mx1 : mx3;
-  min[c] = mn0 < mn1 ? mn0 : mn1;
-  max[c] = mx0 > mx1 ? mx0 : mx1;
+  min[c] = mn;
+  max[c] = mx;
 }
