@@ -61,6 +61,8 @@ export function TakeWorkspace({ takeId, durationSec, channels, markers, comments
   const [peaks, setPeaks] = useState<PeaksAnswer | null>(null);
   const volumeRef = useRef(volume);
   volumeRef.current = volume;
+  const timeRef = useRef(0);
+  timeRef.current = time;
   const onTimeRef = useRef(onTime);
   onTimeRef.current = onTime;
 
@@ -121,7 +123,11 @@ export function TakeWorkspace({ takeId, durationSec, channels, markers, comments
       });
       wsRef.current = ws;
       regionsRef.current = regions;
-      ws.on('ready', () => setReady(true));
+      ws.on('ready', () => {
+        // Drawn again after a theme change: carry on from where the playhead was.
+        if (timeRef.current > 0) ws?.setTime(timeRef.current);
+        setReady(true);
+      });
       ws.on('decode', () => setReady(true));
       ws.on('play', () => setPlaying(true));
       ws.on('pause', () => setPlaying(false));
@@ -239,8 +245,16 @@ export function TakeWorkspace({ takeId, durationSec, channels, markers, comments
         goTo(index, ws.isPlaying());
       }
     };
+    // A focused button would also "click" on the space key's release; the key already played or paused.
+    const onKeyUp = (event: KeyboardEvent) => {
+      if (event.key === ' ' && !isTyping(event.target) && wsRef.current) event.preventDefault();
+    };
     window.addEventListener('keydown', onKey);
-    return () => window.removeEventListener('keydown', onKey);
+    window.addEventListener('keyup', onKeyUp);
+    return () => {
+      window.removeEventListener('keydown', onKey);
+      window.removeEventListener('keyup', onKeyUp);
+    };
   }, [goTo, selected]);
 
   const severityCounts = useMemo(() => {
