@@ -150,7 +150,7 @@ export function SessionReportPanel({ sessionId, maySend }: { sessionId: number; 
         </form>
       )}
       {result && (
-        <p role="status" className={`mt-3 text-sm font-semibold ${STATUS[result.status].tone}`}>
+        <p role="status" data-testid="report-result" className={`mt-3 text-sm font-semibold ${STATUS[result.status].tone}`}>
           <span aria-hidden="true">{STATUS[result.status].mark} </span>
           {result.status === 'sent' ? `Report sent to ${result.recipients.join(', ')}.` : `The report was not sent: ${result.error}`}
         </p>

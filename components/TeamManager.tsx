@@ -19,7 +19,7 @@ const STATUS = {
 function Notice({ notice }: { notice: { ok: boolean; text: string } | null }) {
   if (!notice) return null;
   return (
-    <p role={notice.ok ? 'status' : 'alert'} className={`mb-3 text-sm font-semibold ${notice.ok ? 'text-pass' : 'text-fail'}`}>
+    <p role={notice.ok ? 'status' : 'alert'} data-testid="team-notice" className={`mb-3 text-sm font-semibold ${notice.ok ? 'text-pass' : 'text-fail'}`}>
       <span aria-hidden="true">{notice.ok ? '✓ ' : '✕ '}</span>
       {notice.text}
     </p>
