@@ -6,9 +6,9 @@ import type { Actor } from './auth/guard';
 import { db } from './db';
 import { DEFAULT_ALERT_SETTINGS, recorderAlerts, type AlertSettings, type FleetAlert, type RecorderHealth } from './fleetAlerts';
 import { findRecorder } from './recorders';
-import type { FleetPeriod, FleetRow, RecentTake, WeekPoint } from './fleetViews';
+import type { FleetPeriod, FleetRow, RecentTake, RecorderTrendWeek, WeekPoint } from './fleetViews';
 
-export type { FleetPeriod, FleetRow, RecentTake, WeekPoint } from './fleetViews';
+export type { FleetPeriod, FleetRow, RecentTake, RecorderTrendWeek, WeekPoint } from './fleetViews';
 
 const DAY_MS = 86_400_000;
 
@@ -201,16 +201,6 @@ export async function fleetOverview(actor: Actor, period: FleetPeriod, now = new
   return { period, from: from?.toISOString() ?? null, recorders: rows };
 }
 
-export interface RecorderTrendWeek {
-  weekStart: string;
-  takes: number;
-  medianFloorDbfs: number | null;
-  minEffectiveBits: number | null;
-  medianEffectiveBits: number | null;
-  p10Lufs: number | null;
-  medianLufs: number | null;
-  p90Lufs: number | null;
-}
 
 /** One recorder's weekly trends: noise floor, effective bits and the spread of integrated loudness. */
 export async function recorderTrends(actor: Actor, recorderId: number, period: FleetPeriod, now = new Date()): Promise<RecorderTrendWeek[]> {

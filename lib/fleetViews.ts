@@ -57,3 +57,14 @@ export interface RecentTake {
   verdict: 'pass' | 'warn' | 'fail' | null;
   decision: 'pending' | 'approved' | 'rejected';
 }
+
+export interface RecorderTrendWeek {
+  weekStart: string;
+  takes: number;
+  medianFloorDbfs: number | null;
+  minEffectiveBits: number | null;
+  medianEffectiveBits: number | null;
+  p10Lufs: number | null;
+  medianLufs: number | null;
+  p90Lufs: number | null;
+}

@@ -2,6 +2,7 @@ import Link from 'next/link';
 import { requireActor } from '@/lib/auth/guard';
 import { loadPage } from '@/lib/pages';
 import { DashboardTakeList } from '@/components/DashboardTakeList';
+import { FleetAlertsSummary } from '@/components/FleetAlertsSummary';
 import { can } from '@/lib/auth/policy';
 import { openSessionsFor, recentRejects, takesAwaitingReview, takesInMeasurement } from '@/lib/dashboard';
 
@@ -59,6 +60,7 @@ export default async function OverviewPage() {
         )}
       </section>
       </div>
+      {can(actor.role, 'fleet:view') && <FleetAlertsSummary actor={actor} />}
     </div>
   );
 }

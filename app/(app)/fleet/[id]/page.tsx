@@ -1,0 +1,128 @@
+import type { Metadata } from 'next';
+import Link from 'next/link';
+import { AlertList } from '@/components/AlertList';
+import { RecorderTrends } from '@/components/RecorderTrends';
+import { requireActor } from '@/lib/auth/guard';
+import { fleetAlerts, recorderRecentTakes, recorderTrends } from '@/lib/fleet';
+import { DEFAULT_ALERT_SETTINGS } from '@/lib/fleetAlerts';
+import { FLEET_PERIODS, PERIOD_LABEL, parsePeriod } from '@/lib/fleetViews';
+import { loadPage } from '@/lib/pages';
+import { getRecorder } from '@/lib/recorders';
+
+export const metadata: Metadata = { title: 'Recorder trends' };
+
+const fixed = (v: number | null, d = 1) => (v === null ? '—' : v.toFixed(d));
+const VERDICT = { pass: '✓ Pass', warn: '▲ Warn', fail: '✕ Fail' } as const;
+const DECISION = { pending: '○ Pending', approved: '● Approved', rejected: '✕ Rejected' } as const;
+
+export default async function RecorderTrendsPage({ params, searchParams }: { params: Promise<{ id: string }>; searchParams: Promise<{ days?: string }> }) {
+  const period = parsePeriod((await searchParams).days) ?? 90;
+  const { recorder, weeks, takes, alerts } = await loadPage(async () => {
+    const actor = await requireActor('fleet:view');
+    const raw = Number((await params).id);
+    const id = Number.isInteger(raw) && raw > 0 ? raw : 0;
+    const recorder = await getRecorder(actor, id);
+    const [weeks, takes, alerts] = await Promise.all([recorderTrends(actor, id, period), recorderRecentTakes(actor, id), fleetAlerts(actor, { recorderId: id })]);
+    return { recorder, weeks, takes, alerts };
+  });
+  const s = DEFAULT_ALERT_SETTINGS;
+  return (
+    <article>
+      <p className="mb-2 text-sm">
+        <Link href="/fleet" className="text-accent hover:underline">← Fleet</Link>
+      </p>
+      <header className="mb-4 flex flex-wrap items-end gap-3">
+        <div className="mr-auto">
+          <h1 className="text-2xl font-semibold">{recorder.label}</h1>
+          <p className="text-sm text-muted">
+            {recorder.makeModel ?? 'Make not recorded'} · {recorder.location ?? 'No location'} · serial <span className="font-mono">{recorder.serial ?? '—'}</span> ·{' '}
+            {recorder.active ? '● In service' : '○ Retired'} ·{' '}
+            <Link href={`/recorders/${recorder.id}`} className="text-accent underline">
+              Edit
+            </Link>
+          </p>
+        </div>
+        <nav aria-label="Period" className="flex gap-1">
+          {FLEET_PERIODS.map((p) => (
+            <Link
+              key={p}
+              href={`/fleet/${recorder.id}?days=${p}`}
+              aria-current={p === period ? 'page' : undefined}
+              className={p === period ? 'tp-button' : 'tp-button-quiet'}
+            >
+              {PERIOD_LABEL[String(p)]}
+            </Link>
+          ))}
+        </nav>
+      </header>
+
+      <section className="tp-card mb-6" aria-labelledby="alerts-heading">
+        <h2 id="alerts-heading" className="border-b border-line p-4 text-lg font-semibold">
+          Alerts
+        </h2>
+        {!recorder.active ? (
+          <p className="p-4 text-muted">This recorder is retired; it raises no alerts.</p>
+        ) : alerts.length === 0 ? (
+          <p className="p-4 text-muted">
+            <span aria-hidden="true">● </span>No alerts: over the last {s.recentDays} days this recorder measures like its own previous {s.baselineDays} days.
+          </p>
+        ) : (
+          <AlertList alerts={alerts} />
+        )}
+      </section>
+
+      <h2 className="mb-2 text-lg font-semibold">Trends · {PERIOD_LABEL[String(period)]}</h2>
+      <RecorderTrends weeks={weeks} />
+
+      <section className="tp-card mt-6" aria-labelledby="recent-heading">
+        <h2 id="recent-heading" className="border-b border-line p-4 text-lg font-semibold">
+          Recent takes
+        </h2>
+        {takes.length === 0 ? (
+          <p className="p-4 text-muted">No measured takes from this recorder yet.</p>
+        ) : (
+          <div className="overflow-x-auto">
+            <table className="w-full text-left text-sm">
+              <thead className="bg-sunken text-muted">
+                <tr>
+                  <th scope="col" className="px-3 py-2 font-semibold">Take</th>
+                  <th scope="col" className="px-3 py-2 font-semibold">Measured</th>
+                  <th scope="col" className="px-3 py-2 font-semibold">Noise floor (dBFS)</th>
+                  <th scope="col" className="px-3 py-2 font-semibold">Effective bits</th>
+                  <th scope="col" className="px-3 py-2 font-semibold">Loudness (LUFS)</th>
+                  <th scope="col" className="px-3 py-2 font-semibold">True peak (dBTP)</th>
+                  <th scope="col" className="px-3 py-2 font-semibold">Clip events</th>
+                  <th scope="col" className="px-3 py-2 font-semibold">Verdict</th>
+                  <th scope="col" className="px-3 py-2 font-semibold">Decision</th>
+                </tr>
+              </thead>
+              <tbody>
+                {takes.map((t) => (
+                  <tr key={t.id} className="border-t border-line">
+                    <td className="px-3 py-2">
+                      <Link href={`/takes/${t.id}`} className="font-semibold text-accent underline-offset-2 hover:underline">
+                        {t.originalName}
+                      </Link>
+                      <div className="text-xs text-muted">{t.sessionTitle}</div>
+                    </td>
+                    <td className="px-3 py-2 font-mono">{t.measuredAt.slice(0, 10)}</td>
+                    <td className="px-3 py-2 font-mono">{fixed(t.noiseFloorDbfs)}</td>
+                    <td className="px-3 py-2 font-mono">{t.effectiveBits ?? '—'}</td>
+                    <td className="px-3 py-2 font-mono">{fixed(t.integratedLufs)}</td>
+                    <td className="px-3 py-2 font-mono">{fixed(t.truePeakDbtp)}</td>
+                    <td className="px-3 py-2 font-mono">
+                      {t.clipEvents ?? '—'}
+                      {t.belowFullScaleClipEvents ? ` (${t.belowFullScaleClipEvents} below 0 dBFS)` : ''}
+                    </td>
+                    <td className="px-3 py-2">{t.verdict ? VERDICT[t.verdict] : '—'}</td>
+                    <td className="px-3 py-2">{DECISION[t.decision]}</td>
+                  </tr>
+                ))}
+              </tbody>
+            </table>
+          </div>
+        )}
+      </section>
+    </article>
+  );
+}

@@ -1,0 +1,31 @@
+import type { Metadata } from 'next';
+import Link from 'next/link';
+import { FleetTable } from '@/components/FleetTable';
+import { SwrProvider } from '@/components/SwrProvider';
+import { requireActor } from '@/lib/auth/guard';
+import { DEFAULT_ALERT_SETTINGS } from '@/lib/fleetAlerts';
+import { fleetOverview } from '@/lib/fleet';
+import { fleetKey } from '@/lib/fleetKeys';
+import { loadPage } from '@/lib/pages';
+
+export const metadata: Metadata = { title: 'Fleet' };
+
+export default async function FleetPage() {
+  const overview = await loadPage(async () => fleetOverview(await requireActor('fleet:view'), 30));
+  const s = DEFAULT_ALERT_SETTINGS;
+  return (
+    <SwrProvider fallback={{ [fleetKey(30)]: overview }}>
+      <div className="mb-2 flex flex-wrap items-center gap-3">
+        <h1 className="mr-auto text-2xl font-semibold">Fleet</h1>
+        <Link href="/recorders" className="tp-button-quiet">
+          Manage recorders
+        </Link>
+      </div>
+      <p className="mb-4 max-w-prose text-muted">
+        How each recorder’s takes measure over time. Alerts compare the last {s.recentDays} days with the recorder’s own {s.baselineDays} days before: a noise floor
+        more than {s.driftDb} dB higher (a Takeproof default), effective bits below the studio’s delivery specs, repeated clipping below full scale, and sample-rate mismatches.
+      </p>
+      <FleetTable initialPeriod={30} />
+    </SwrProvider>
+  );
+}
