@@ -53,7 +53,8 @@ export class TruePeakAnalyzer implements Analyzer<TruePeakResult> {
     }
     extended.set(samples.subarray(0, frames), HISTORY);
     let peak = this.peaks[channel];
-    const [phase0, phase1, phase2, phase3] = TRUE_PEAK_PHASES;
+    const [a0, a1, a2, a3, a4, a5, a6, a7, a8, a9, a10, a11] = TRUE_PEAK_PHASES[0];
+    const [b0, b1, b2, b3, b4, b5, b6, b7, b8, b9, b10, b11] = TRUE_PEAK_PHASES[1];
     for (let chunkStart = 0; chunkStart < frames; chunkStart += CHUNK) {
       const chunkEnd = Math.min(frames, chunkStart + CHUNK);
       // Window of the chunk's outputs: samples chunkStart-11 .. chunkEnd-1 (offset by HISTORY in `extended`).
@@ -72,14 +73,14 @@ export class TruePeakAnalyzer implements Analyzer<TruePeakResult> {
         const newestMagnitude = Math.abs(extended[newest]);
         if (newestMagnitude > peak) peak = newestMagnitude;
         if (TRUE_PEAK_CENTRE_GAIN * (centre5 > centre6 ? centre5 : centre6) + sideBound <= peak) continue;
-        let sum0 = 0, sum1 = 0, sum2 = 0, sum3 = 0;
-        for (let k = 0; k < TRUE_PEAK_TAPS_PER_PHASE; k++) {
-          const x = extended[newest - k];
-          sum0 += phase0[k] * x;
-          sum1 += phase1[k] * x;
-          sum2 += phase2[k] * x;
-          sum3 += phase3[k] * x;
-        }
+        // The 12 taps unrolled; phases 3 and 2 are phases 0 and 1 reversed (Annex 2 table).
+        const x0 = extended[newest], x1 = extended[newest - 1], x2 = extended[newest - 2], x3 = extended[newest - 3];
+        const x4 = extended[newest - 4], x5 = extended[newest - 5], x6 = extended[newest - 6], x7 = extended[newest - 7];
+        const x8 = extended[newest - 8], x9 = extended[newest - 9], x10 = extended[newest - 10], x11 = extended[newest - 11];
+        const sum0 = a0 * x0 + a1 * x1 + a2 * x2 + a3 * x3 + a4 * x4 + a5 * x5 + a6 * x6 + a7 * x7 + a8 * x8 + a9 * x9 + a10 * x10 + a11 * x11;
+        const sum3 = a11 * x0 + a10 * x1 + a9 * x2 + a8 * x3 + a7 * x4 + a6 * x5 + a5 * x6 + a4 * x7 + a3 * x8 + a2 * x9 + a1 * x10 + a0 * x11;
+        const sum1 = b0 * x0 + b1 * x1 + b2 * x2 + b3 * x3 + b4 * x4 + b5 * x5 + b6 * x6 + b7 * x7 + b8 * x8 + b9 * x9 + b10 * x10 + b11 * x11;
+        const sum2 = b11 * x0 + b10 * x1 + b9 * x2 + b8 * x3 + b7 * x4 + b6 * x5 + b5 * x6 + b4 * x7 + b3 * x8 + b2 * x9 + b1 * x10 + b0 * x11;
         const magnitude = Math.max(Math.abs(sum0), Math.abs(sum1), Math.abs(sum2), Math.abs(sum3));
         if (magnitude > peak) peak = magnitude;
       }
