@@ -20,7 +20,7 @@ export default async function InvitePage({ params }: { params: Promise<{ token: 
         <div className="tp-card p-6 shadow-sm">
           {check.state === 'valid' ? (
             <>
-              <h1 className="mb-2 text-xl font-semibold">Welcome, {check.name}</h1>
+              <h1 className="mb-2 text-xl font-semibold">{`Welcome, ${check.name}`}</h1>
               <p className="mb-4 text-sm text-muted">
                 You have been invited to {check.studio} on Takeproof. Choose a password of at least {PASSWORD_MIN} characters for <span className="font-semibold text-ink">{check.email}</span>.
               </p>
