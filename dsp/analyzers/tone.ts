@@ -6,8 +6,9 @@ import { STANDARD_RATES_HZ } from './spectrum';
 /**
  * Steady line-up tone at the start or end of a take.
  *
- * Only the first `headSec` and the last `tailSec` seconds are kept (Float32
- * copies: lossless for integer PCM up to 24 bits and for float32 files). Both
+ * Only the first `headSec` and the last `tailSec` seconds of the first eight
+ * channels are kept (each buffer at most 2^21 samples, 16 MB, but never under
+ * 2 s; float64, so keeping the tail is a plain copy of every block). Both
  * are cut into ≈ 85 ms chunks; a chunk is tonal when one Hann-windowed spectral
  * peak holds all but −30 dB of its power. A run of consistent tonal chunks
  * lasting at least `minToneSec` that begins within `leadInSec` of the start
@@ -64,6 +65,10 @@ const EDGE_RESIDUAL_RATIO = 0.1;
 const EDGE_BLOCK_SEC = 0.005;
 /** Longest span fed to the sine fit, seconds (precision gains little beyond it). */
 const MAX_FIT_SEC = 4;
+/** Channels searched for a tone (line-up tone is sent to all channels). */
+const MAX_TONE_CHANNELS = 8;
+/** Samples per kept buffer (head or tail, all channels), unless that is under 2 s. */
+const MAX_BUFFER_SAMPLES = 2 ** 21;
 
 interface SineFit {
   a: number;
@@ -103,9 +108,9 @@ export class ToneAnalyzer implements Analyzer<ToneResult | null> {
   private readonly hannEnergy: number;
   private readonly fftIn: Float64Array;
   private readonly fftOut: Float64Array;
-  private readonly head: Float32Array[];
+  private readonly head: Float64Array[];
   private headFill = 0;
-  private readonly tail: Float32Array[];
+  private readonly tail: Float64Array[];
   private tailPos = 0;
   private framesSeen = 0;
   private startTone: Candidate | null = null;
@@ -139,9 +144,10 @@ export class ToneAnalyzer implements Analyzer<ToneResult | null> {
       throw new RangeError(`ToneAnalyzer: leadInSec ${leadInSec} must be from 0 to 30 s.`);
     }
     this.fs = format.sampleRate;
-    this.channels = format.channels;
-    this.headFrames = Math.round(headSec * this.fs);
-    this.tailFrames = Math.round(tailSec * this.fs);
+    this.channels = Math.min(format.channels, MAX_TONE_CHANNELS);
+    const cap = Math.max(2 * this.fs, Math.floor(MAX_BUFFER_SAMPLES / this.channels));
+    this.headFrames = Math.min(cap, Math.round(headSec * this.fs));
+    this.tailFrames = Math.min(cap, Math.round(tailSec * this.fs));
     this.minToneFrames = Math.round(minToneSec * this.fs);
     this.leadInFrames = Math.round(leadInSec * this.fs);
     // ≈ 85 ms chunks (4096 at 48 kHz), a power of two for the FFT.
@@ -152,8 +158,8 @@ export class ToneAnalyzer implements Analyzer<ToneResult | null> {
     this.hannEnergy = this.hann.reduce((s, w) => s + w * w, 0);
     this.fftIn = new Float64Array(this.chunk);
     this.fftOut = new Float64Array(2 * this.chunk);
-    this.head = Array.from({ length: this.channels }, () => new Float32Array(this.headFrames));
-    this.tail = Array.from({ length: this.channels }, () => new Float32Array(this.tailFrames));
+    this.head = Array.from({ length: this.channels }, () => new Float64Array(this.headFrames));
+    this.tail = Array.from({ length: this.channels }, () => new Float64Array(this.tailFrames));
   }
 
   push(block: SampleBlock): void {
@@ -196,7 +202,7 @@ export class ToneAnalyzer implements Analyzer<ToneResult | null> {
     const total = this.framesSeen;
     if (total === 0) return null;
     // End tone: from the head when the whole take fits in it, else from the unrolled tail ring.
-    let buffers: Float32Array[];
+    let buffers: Float64Array[];
     let length: number;
     let offsetFrame: number;
     if (total <= this.headFrames) {
@@ -207,7 +213,7 @@ export class ToneAnalyzer implements Analyzer<ToneResult | null> {
       length = Math.min(total, this.tailFrames);
       offsetFrame = total - length;
       buffers = this.tail.map((ring) => {
-        const lin = new Float32Array(length);
+        const lin = new Float64Array(length);
         const first = (this.tailPos - length + this.tailFrames) % this.tailFrames;
         const firstRun = Math.min(length, this.tailFrames - first);
         lin.set(ring.subarray(first, first + firstRun), 0);
@@ -276,7 +282,7 @@ export class ToneAnalyzer implements Analyzer<ToneResult | null> {
   }
 
   /** Finds and measures a tone in each channel of a buffer; keeps the strongest. */
-  private findTone(buffers: Float32Array[], length: number, offsetFrame: number, where: 'start' | 'end'): Candidate | null {
+  private findTone(buffers: Float64Array[], length: number, offsetFrame: number, where: 'start' | 'end'): Candidate | null {
     let best: Candidate | null = null;
     for (let c = 0; c < this.channels; c++) {
       const cand = this.measureChannel(buffers[c], length, offsetFrame, where, c);
@@ -285,7 +291,7 @@ export class ToneAnalyzer implements Analyzer<ToneResult | null> {
     return best;
   }
 
-  private measureChannel(x: Float32Array, length: number, offsetFrame: number, where: 'start' | 'end', channel: number): Candidate | null {
+  private measureChannel(x: Float64Array, length: number, offsetFrame: number, where: 'start' | 'end', channel: number): Candidate | null {
     const m = this.chunk;
     const chunks = Math.floor(length / m);
     if (chunks === 0) return null;
@@ -374,7 +380,7 @@ export class ToneAnalyzer implements Analyzer<ToneResult | null> {
   }
 
   /** One chunk's dominant spectral peak, or null when the chunk is not a steady pure tone. */
-  private classifyChunk(x: Float32Array, from: number): { bin: number; levelDb: number } | null {
+  private classifyChunk(x: Float64Array, from: number): { bin: number; levelDb: number } | null {
     const m = this.chunk;
     let mean = 0;
     for (let i = 0; i < m; i++) mean += x[from + i];
@@ -408,7 +414,7 @@ export class ToneAnalyzer implements Analyzer<ToneResult | null> {
   }
 
   /** Frequency from one long Hann FFT of the span, with a parabolic log-peak interpolation; rad/sample. */
-  private coarseFrequency(x: Float32Array, from: number, length: number): number {
+  private coarseFrequency(x: Float64Array, from: number, length: number): number {
     const n = 2 ** Math.min(16, Math.floor(Math.log2(length)));
     const fft = n === this.chunk ? this.fft : new FFT(n);
     const input = new Float64Array(n);
@@ -440,7 +446,7 @@ export class ToneAnalyzer implements Analyzer<ToneResult | null> {
  * t = n − origin: Gauss–Newton on ω from a three-parameter start, over growing
  * spans (0.5 s → 2 s → all) so a small initial frequency error cannot wrap the phase.
  */
-function fitSine(x: Float32Array, from: number, length: number, omega0: number, sampleRate: number): SineFit | null {
+function fitSine(x: Float64Array, from: number, length: number, omega0: number, sampleRate: number): SineFit | null {
   let omega = omega0;
   const spans = [Math.min(length, Math.round(0.5 * sampleRate)), Math.min(length, 2 * sampleRate), length].filter((v, i, arr) => i === 0 || v > arr[i - 1]);
   let fit: SineFit | null = null;
@@ -461,7 +467,7 @@ function fitSine(x: Float32Array, from: number, length: number, omega0: number, 
 }
 
 /** Three-parameter least squares (known ω): a, b, c and the residual mean square. */
-function solveThree(x: Float32Array, from: number, length: number, origin: number, omega: number): SineFit | null {
+function solveThree(x: Float64Array, from: number, length: number, origin: number, omega: number): SineFit | null {
   let scc = 0, sss = 0, scs = 0, sc = 0, ss = 0, sxc = 0, sxs = 0, sx = 0, sxx = 0;
   for (let n = from; n < from + length; n++) {
     const t = n - origin;
@@ -493,7 +499,7 @@ function solveThree(x: Float32Array, from: number, length: number, origin: numbe
 }
 
 /** One Gauss–Newton step in ω for the four-parameter model, linearised at (a, b, ω). */
-function solveFourStep(x: Float32Array, from: number, length: number, origin: number, omega: number, a: number, b: number): number | null {
+function solveFourStep(x: Float64Array, from: number, length: number, origin: number, omega: number, a: number, b: number): number | null {
   const m = [[0, 0, 0, 0], [0, 0, 0, 0], [0, 0, 0, 0], [0, 0, 0, 0]];
   const rhs = [0, 0, 0, 0];
   const col = [0, 0, 0, 0];
