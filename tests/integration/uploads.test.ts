@@ -28,6 +28,20 @@ function storedFiles(): string[] {
   return out;
 }
 
+/** Waits out unfinished writes, then checks that no file which appeared since `before` lacks a take. */
+async function expectNoOrphansSince(before: Set<string>) {
+  const { checkStorage } = await import('@/lib/storageCheck');
+  let report = await checkStorage();
+  const until = Date.now() + 5000;
+  while (report.partialWrites.length && Date.now() < until) {
+    await new Promise((r) => setTimeout(r, 100));
+    report = await checkStorage();
+  }
+  expect(report.partialWrites).toEqual([]);
+  const appeared = storedFiles().filter((f) => !before.has(f)).map((f) => path.relative(storageDir, f).split(path.sep).join('/'));
+  expect(appeared.filter((key) => report.filesWithoutRows.includes(key))).toEqual([]);
+}
+
 async function takeCount(): Promise<number> {
   return (await (await as.engineer.fetch(`/api/sessions/${sessionId}/takes`)).json()).takes.length;
 }
@@ -68,35 +82,35 @@ describe('POST /api/sessions/:id/takes', () => {
 
   it('refuses a file that is not a WAV with 415 and a plain message, keeping nothing', async () => {
     const before = await takeCount();
-    const filesBefore = storedFiles().length;
+    const filesBefore = new Set(storedFiles());
     const { status, body } = await uploadTakes(as.engineer, sessionId, [{ name: 'notes.txt', bytes: Buffer.from('Interview notes, not audio. '.repeat(100)) }]);
     expect(status).toBe(415);
     expect(body.message).toMatch(/“notes\.txt” is not a WAV file/);
     expect(await takeCount()).toBe(before);
-    expect(storedFiles().length).toBe(filesBefore);
+    await expectNoOrphansSince(filesBefore);
   });
 
   it('keeps nothing from a request whose second file is refused', async () => {
     const before = await takeCount();
-    const filesBefore = storedFiles().length;
+    const filesBefore = new Set(storedFiles());
     const { status } = await uploadTakes(as.engineer, sessionId, [
       { name: 'good.wav', bytes: makeWav({ seconds: 1, seed: 21 }) },
       { name: 'bad.wav', bytes: Buffer.from('RIFX0000WAVE-not-really') },
     ]);
     expect(status).toBe(415);
     expect(await takeCount()).toBe(before);
-    expect(storedFiles().length).toBe(filesBefore);
+    await expectNoOrphansSince(filesBefore);
   });
 
   it('refuses a file over the size limit with 413', async () => {
     const limit = Number(process.env.UPLOAD_MAX_BYTES ?? 134217728);
     const big = Buffer.alloc(limit + 1024);
     makeWav({ seconds: 0.01 }).copy(big);
-    const filesBefore = storedFiles().length;
+    const filesBefore = new Set(storedFiles());
     const { status, body } = await uploadTakes(as.engineer, sessionId, [{ name: 'too-long-room-tone.wav', bytes: big }]);
     expect(status).toBe(413);
     expect(body.message).toMatch(/larger than/);
-    expect(storedFiles().length).toBe(filesBefore);
+    await expectNoOrphansSince(filesBefore);
   });
 
   it('refuses the same file twice in a session with 409 naming the take it already is', async () => {
@@ -114,7 +128,7 @@ describe('POST /api/sessions/:id/takes', () => {
 
   it('leaves no take and no file behind when the upload is cut off', async () => {
     const before = await takeCount();
-    const filesBefore = storedFiles().length;
+    const filesBefore = new Set(storedFiles());
     const cookie = as.engineer.cookieHeader();
     const boundary = 'takeproofcutoff';
     const head = Buffer.from(`--${boundary}\r\nContent-Disposition: form-data; name="file"; filename="cut.wav"\r\nContent-Type: audio/wav\r\n\r\n`);
@@ -135,11 +149,8 @@ describe('POST /api/sessions/:id/takes', () => {
         }, 300);
       });
     });
-    // The server notices the dropped connection and cleans up.
-    const until = Date.now() + 5000;
-    while (storedFiles().length !== filesBefore && Date.now() < until) await new Promise((r) => setTimeout(r, 100));
-    expect(storedFiles().length).toBe(filesBefore);
-    expect(storedFiles().some((f) => f.endsWith('.partial'))).toBe(false);
+    // The server notices the dropped connection and removes the half-written file.
+    await expectNoOrphansSince(filesBefore);
     expect(await takeCount()).toBe(before);
   });
 
