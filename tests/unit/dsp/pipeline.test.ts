@@ -1,0 +1,156 @@
+import { existsSync } from 'node:fs';
+import { Readable } from 'node:stream';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { ClippingAnalyzer } from '../../../dsp/analyzers/clipping';
+import { LoudnessAnalyzer } from '../../../dsp/analyzers/loudness';
+import { TruePeakAnalyzer } from '../../../dsp/analyzers/truePeak';
+import { WorkerAnalyzers } from '../../../dsp/parallel/WorkerAnalyzers';
+import { PARALLEL_MIN_BYTES, PROGRESS_INTERVAL_MS, analyzeFile, analyzeStream } from '../../../dsp/pipeline';
+import { UnreadableWavError } from '../../../dsp/reader/UnreadableWavError';
+import type { AnalysisReport } from '../../../dsp/types';
+import { formatOf } from '../../support/analyzerHarness';
+import { ffmpegEbur128, soxStats } from '../../support/referenceTools';
+import { tempDirectory } from '../../support/tempFiles';
+import { ProgrammeGenerator, sine } from '../../support/testSignals';
+import { bufferStream } from '../../support/wavStreams';
+import { encodeSamples, wavFile } from '../../support/wavWriter';
+
+const RATE = 48000;
+const temp = tempDirectory();
+afterAll(() => temp.remove());
+
+function programme(seconds: number, seed: number): Float64Array[] {
+  const channels = [new Float64Array(seconds * RATE), new Float64Array(seconds * RATE)];
+  new ProgrammeGenerator(RATE, 2, seed).fill(channels, seconds * RATE);
+  return channels;
+}
+
+describe('cross-checks on 40 s of programme-like material against ffmpeg and sox', () => {
+  let path: string;
+  let report: AnalysisReport;
+  beforeAll(async () => {
+    path = temp.write('programme.wav', wavFile({ sampleRate: RATE, channels: 2, coding: 'pcm24' }, encodeSamples(programme(40, 5), 'pcm24')));
+    report = await analyzeFile(path);
+  });
+
+  // ffmpeg's ebur128 filter is an independent BS.1770 / Tech 3342 implementation; it prints one decimal,
+  // so ±0.1 LU is the Tech 3341 tolerance plus its rounding.
+  it('integrated loudness within 0.15 LU, loudness range within 1 LU (Tech 3342 tolerance) of ffmpeg ebur128', () => {
+    const reference = ffmpegEbur128(path);
+    expect(Math.abs(report.loudness.integratedLufs! - reference.integratedLufs)).toBeLessThanOrEqual(0.15);
+    expect(Math.abs(report.loudness.rangeLu! - reference.rangeLu)).toBeLessThanOrEqual(1);
+    // True peak: EBU R 128 allows ±0.3 dB between true-peak meters (signals band-limited to 20 kHz); ffmpeg uses its own over-sampler.
+    expect(Math.abs(report.peak.truePeakDbtp! - reference.truePeakDbfs)).toBeLessThanOrEqual(0.3);
+  });
+
+  // sox stats: "Pk lev dB" is the sample peak; "RMS lev dB" is 20·log10(rms), the same full-scale-square reference (a full-scale sine reads -3.01).
+  it('sample peak, RMS and DC per channel match sox stats to its printed precision', () => {
+    const stats = soxStats(path);
+    for (let channel = 0; channel < 2; channel++) {
+      expect(Math.abs(report.channels[channel].samplePeakDbfs! - Number(stats.get('Pk lev dB')![channel + 1]))).toBeLessThanOrEqual(0.006);
+      expect(Math.abs(report.channels[channel].rmsDbfs! - Number(stats.get('RMS lev dB')![channel + 1]))).toBeLessThanOrEqual(0.006);
+      expect(Math.abs(report.channels[channel].dcOffset - Number(stats.get('DC offset')![channel + 1]))).toBeLessThanOrEqual(0.0000006);
+    }
+  });
+
+  it('fills every field of the report contract, with null where a measure does not apply', () => {
+    const contractKeys = ['file', 'bext', 'channels', 'resolution', 'peak', 'clipping', 'loudness', 'noise', 'bandwidth', 'dropouts', 'stereo', 'tone', 'findings'];
+    for (const key of contractKeys) expect(report).toHaveProperty(key);
+    expect(Object.keys(report.file)).toEqual(expect.arrayContaining(['container', 'encoding', 'sampleRate', 'bitsPerSample', 'channels', 'frames', 'durationSec']));
+    expect(report.file).toMatchObject({ container: 'RIFF', encoding: 'pcm', sampleRate: RATE, bitsPerSample: 24, channels: 2, frames: 40 * RATE, durationSec: 40 });
+    expect(Object.keys(report.channels[0]).sort()).toEqual(['clippedSamples', 'dcOffset', 'effectiveBits', 'rmsDbfs', 'samplePeakDbfs', 'silent', 'truePeakDbtp']);
+    expect(Object.keys(report.loudness)).toEqual(expect.arrayContaining(['integratedLufs', 'rangeLu', 'momentaryMaxLufs', 'shortTermMaxLufs']));
+    expect(Object.keys(report.bandwidth)).toEqual(expect.arrayContaining(['effectiveHz', 'impliedSourceRate', 'nearNyquistDb', 'aliasingRisk']));
+    expect(Object.keys(report.noise).sort()).toEqual(['floorDbfs', 'humHz']);
+    expect(report.resolution.effectiveBits).toBe(24);
+    expect(report.bext).toBeNull();
+    expect(report.stereo).not.toBeNull();
+    expect(report.clipping.events).toEqual([]);
+    expect(report.dropouts).toEqual([]);
+    expect(report.loudness.shortTermSeries!.values).toHaveLength(40);
+    expect(JSON.parse(JSON.stringify(report))).toEqual(report);
+  });
+});
+
+describe('report details', () => {
+  it('a mono take has no stereo section; noise-limited bits follow the floor', async () => {
+    const report = await analyzeStream(bufferStream(wavFile({ sampleRate: RATE, channels: 1, coding: 'pcm16' }, encodeSamples([sine(997, 0.25, 3, RATE)], 'pcm16'))));
+    expect(report.stereo).toBeNull();
+    if (report.noise.floorDbfs !== null) {
+      // Ideal quantiser noise: -6.02·N - 4.77 dBFS (square-wave reference) -> N = (-floor - 4.77)/6.02.
+      expect(report.resolution.noiseLimitedBits).toBeCloseTo((-report.noise.floorDbfs - 4.77) / 6.02, 1);
+    }
+  });
+
+  it('a truncated take is analysed and the findings carry a container problem', async () => {
+    const file = wavFile({ sampleRate: RATE, channels: 2, coding: 'pcm16' }, encodeSamples(programme(2, 1), 'pcm16'));
+    const report = await analyzeStream(bufferStream(file.subarray(0, file.length - RATE * 4)));
+    expect(report.file.frames).toBe(RATE);
+    expect(report.file.headerIssues!.length).toBeGreaterThan(0);
+    expect(report.findings.find((finding) => finding.check === 'container')?.message).toMatch(/cut short/);
+  });
+
+  it('a take whose data size was never written is analysed whole', async () => {
+    const file = wavFile({ sampleRate: RATE, channels: 1, coding: 'pcm24' }, encodeSamples([sine(997, 0.5, 1.5, RATE)], 'pcm24'), { dataSizeField: 0 });
+    const report = await analyzeStream(bufferStream(file));
+    expect(report.file.frames).toBe(1.5 * RATE);
+    expect(report.findings.some((finding) => finding.check === 'container' && finding.severity === 'warn')).toBe(true);
+  });
+
+  it('an unreadable stream rejects with UnreadableWavError', async () => {
+    await expect(analyzeStream(Readable.from([Buffer.from('not a wav file at all')]))).rejects.toBeInstanceOf(UnreadableWavError);
+  });
+
+  it('reports progress in bytes, throttled, ending at the total', async () => {
+    const path = temp.write('progress.wav', wavFile({ sampleRate: RATE, channels: 2, coding: 'pcm24' }, encodeSamples(programme(20, 2), 'pcm24')));
+    const calls: { done: number; total: number | null; at: number }[] = [];
+    const started = Date.now();
+    await analyzeFile(path, { parallel: false, onProgress: (done, total) => calls.push({ done, total, at: Date.now() }) });
+    const elapsed = Date.now() - started;
+    expect(calls.length).toBeGreaterThanOrEqual(2);
+    expect(calls.length).toBeLessThanOrEqual(Math.floor(elapsed / PROGRESS_INTERVAL_MS) + 2);
+    const last = calls[calls.length - 1];
+    expect(last.done).toBe(last.total);
+    for (let i = 1; i < calls.length - 1; i++) {
+      expect(calls[i].at - calls[i - 1].at).toBeGreaterThanOrEqual(PROGRESS_INTERVAL_MS);
+      expect(calls[i].done).toBeGreaterThanOrEqual(calls[i - 1].done);
+    }
+  });
+
+  it('writes the waveform peaks file when asked', async () => {
+    const path = temp.write('peaks-source.wav', wavFile({ sampleRate: RATE, channels: 1, coding: 'pcm16' }, encodeSamples([sine(200, 0.5, 2, RATE)], 'pcm16')));
+    const report = await analyzeFile(path, { peaksPath: temp.path('take.peaks') });
+    expect(report.waveform?.path).toBe(temp.path('take.peaks'));
+    expect(existsSync(temp.path('take.peaks'))).toBe(true);
+  });
+});
+
+describe('second thread', () => {
+  it('the worker gives the same results as the analyzers on this thread', async () => {
+    const format = formatOf(RATE, 2, { encoding: 'pcm', bitsPerSample: 24, validBitsPerSample: 24, blockAlign: 6 });
+    const remote = await WorkerAnalyzers.start(format);
+    expect(remote).not.toBeNull();
+    const local = { truePeak: new TruePeakAnalyzer(format), loudness: new LoudnessAnalyzer(format), clipping: new ClippingAnalyzer(format) };
+    const signal = programme(12, 3);
+    for (let start = 0; start < signal[0].length; start += 65536) {
+      const frames = Math.min(65536, signal[0].length - start);
+      const block = { channels: signal.map((channel) => channel.slice(start, start + frames)), frames, startFrame: start };
+      await remote!.push(block);
+      local.truePeak.push(block);
+      local.loudness.push(block);
+      local.clipping.push(block);
+    }
+    const results = await remote!.finish();
+    expect(results.truePeak).toEqual(local.truePeak.finish());
+    expect(results.loudness).toEqual(local.loudness.finish());
+    expect(results.clipping).toEqual(local.clipping.finish());
+  });
+
+  it('a take large enough for two threads gives the same report either way', async () => {
+    const seconds = Math.ceil(PARALLEL_MIN_BYTES / (RATE * 6)) + 5;
+    const path = temp.write('long.wav', wavFile({ sampleRate: RATE, channels: 2, coding: 'pcm24' }, encodeSamples(programme(seconds, 4), 'pcm24')));
+    const parallel = await analyzeFile(path);
+    const single = await analyzeFile(path, { parallel: false });
+    expect(parallel).toEqual(single);
+  }, 120_000);
+});
