@@ -1,0 +1,158 @@
+import { describe, expect, it } from 'vitest';
+import { formatTime, judgeReport, verdictOf } from '../../../dsp/findings';
+import { DEFAULT_SPEC, type DeliverySpec } from '../../../dsp/spec';
+import type { AnalysisReport, Finding } from '../../../dsp/types';
+
+/** A report of a clean 24-bit stereo take at -23 LUFS. */
+function cleanReport(): AnalysisReport {
+  const channel = { samplePeakDbfs: -6, truePeakDbtp: -5.8, rmsDbfs: -26, dcOffset: 0.00001, effectiveBits: 24, clippedSamples: 0, silent: false };
+  return {
+    file: { container: 'RIFF', encoding: 'pcm', sampleRate: 48000, bitsPerSample: 24, channels: 2, frames: 480000, durationSec: 10, headerIssues: [] },
+    bext: null,
+    channels: [{ ...channel }, { ...channel }],
+    resolution: { effectiveBits: 24, noiseLimitedBits: 16 },
+    peak: { samplePeakDbfs: -6, truePeakDbtp: -5.8 },
+    clipping: { clippedSamples: 0, events: [] },
+    loudness: { integratedLufs: -23.2, rangeLu: 6, momentaryMaxLufs: -15, shortTermMaxLufs: -18 },
+    noise: { floorDbfs: -80, humHz: null },
+    bandwidth: { effectiveHz: 20000, impliedSourceRate: null, nearNyquistDb: -70, aliasingRisk: false },
+    dropouts: [],
+    stereo: { correlation: 0.4, identicalChannels: false, polarityInverted: false, antiPhaseShare: 0 },
+    tone: null,
+    findings: [],
+  };
+}
+
+const judge = (change: (report: AnalysisReport) => void, spec: DeliverySpec = DEFAULT_SPEC) => {
+  const report = cleanReport();
+  change(report);
+  return judgeReport(report, spec);
+};
+const only = (findings: Finding[], check: Finding['check']) => findings.filter((finding) => finding.check === check);
+
+describe('judgeReport', () => {
+  it('finds nothing wrong with a clean take at the target', () => {
+    const findings = judgeReport(cleanReport(), DEFAULT_SPEC);
+    expect(findings.filter((finding) => finding.severity !== 'info')).toEqual([]);
+    expect(verdictOf(findings)).toBe('pass');
+  });
+
+  it('is pure: leaves the report untouched and gives the same answer twice', () => {
+    const report = cleanReport();
+    report.clipping.events.push({ channel: 0, startSec: 1, endSec: 1.2, level: 'fullScale', levelDbfs: 0 });
+    const frozen = JSON.stringify(report);
+    const first = judgeReport(report, DEFAULT_SPEC);
+    expect(JSON.stringify(report)).toBe(frozen);
+    expect(judgeReport(report, DEFAULT_SPEC)).toEqual(first);
+  });
+
+  it('container: each header issue becomes a warning', () => {
+    const findings = only(judge((r) => (r.file.headerIssues = ['The header declares 10 MiB of audio but the file holds only 2 MiB: it was probably cut short.'])), 'container');
+    expect(findings).toEqual([{ check: 'container', severity: 'warn', message: expect.stringMatching(/cut short/) }]);
+  });
+
+  it('format and sample-rate: the delivery\'s required depth and rate', () => {
+    const spec = { ...DEFAULT_SPEC, requiredBitDepth: 16 as const, requiredSampleRate: 44100 };
+    const findings = judge(() => {}, spec);
+    expect(only(findings, 'format')[0]).toMatchObject({ severity: 'fail', message: 'The file is 24-bit; the delivery asks for 16-bit.' });
+    expect(only(findings, 'sample-rate')[0]).toMatchObject({ severity: 'fail', message: 'The take is 48 kHz; the delivery asks for 44.1 kHz.' });
+    expect(only(judge((r) => (r.file.encoding = 'float'), { ...DEFAULT_SPEC, requiredBitDepth: 24 }), 'format')[0].severity).toBe('fail');
+  });
+
+  it('resolution: 16 of 24 bits used', () => {
+    const findings = only(judge((r) => (r.resolution.effectiveBits = 16)), 'resolution');
+    expect(findings[0]).toMatchObject({ severity: 'fail', message: 'Only 16 of 24 bits carry audio: the recorder was likely set to 16-bit.' });
+  });
+
+  it('clipping: fails past the allowed count, with channel and time', () => {
+    const findings = only(judge((r) => {
+      r.clipping.events = [
+        { channel: 1, startSec: 61.25, endSec: 61.3, level: 'fullScale', levelDbfs: 0 },
+        { channel: 1, startSec: 75, endSec: 75.1, level: 'belowFullScale', levelDbfs: -6.2 },
+      ];
+    }), 'clipping');
+    expect(findings).toHaveLength(2);
+    expect(findings[0]).toMatchObject({ severity: 'fail', channel: 1, startSec: 61.25, endSec: 61.3, message: '1 clipping event on right channel at full scale (at 1:01.3).' });
+    expect(findings[1].message).toMatch(/flat-topped at -6.2 dBFS.*before the converter clipped/);
+    expect(only(judge((r) => (r.clipping.events = [{ channel: 0, startSec: 1, endSec: 2, level: 'fullScale', levelDbfs: 0 }]), { ...DEFAULT_SPEC, maxClipEvents: 3 }), 'clipping')[0].severity).toBe('warn');
+  });
+
+  it('true-peak: above the limit warns on a raw take, fails on a strict delivery or above 0 dBTP', () => {
+    expect(only(judge((r) => (r.channels[0].truePeakDbtp = -0.5)), 'true-peak')[0]).toMatchObject({ severity: 'warn', channel: 0 });
+    expect(only(judge((r) => (r.channels[0].truePeakDbtp = -0.5), { ...DEFAULT_SPEC, loudnessIsStrict: true }), 'true-peak')[0].severity).toBe('fail');
+    expect(only(judge((r) => (r.channels[1].truePeakDbtp = 0.4)), 'true-peak')[0]).toMatchObject({ severity: 'fail', channel: 1 });
+  });
+
+  it('loudness: outside the tolerance band, and a take too short to measure', () => {
+    const loud = only(judge((r) => (r.loudness.integratedLufs = -16.04)), 'loudness')[0];
+    expect(loud).toMatchObject({ severity: 'warn', message: 'Integrated loudness is -16.0 LUFS, 7.0 LU louder than the -23.0 LUFS target (±1 LU).' });
+    expect(only(judge((r) => (r.loudness.integratedLufs = -23.9)), 'loudness')).toEqual([]);
+    expect(only(judge((r) => (r.loudness.integratedLufs = null)), 'loudness')[0].severity).toBe('info');
+  });
+
+  it('noise-floor, hum, bandwidth, aliasing', () => {
+    const findings = judge((r) => {
+      r.noise = { floorDbfs: -52, humHz: 50 };
+      r.bandwidth = { effectiveHz: 15000, impliedSourceRate: null, nearNyquistDb: -10, aliasingRisk: true };
+    });
+    expect(only(findings, 'noise-floor')[0].message).toBe('The noise floor in the quiet passages is -52.0 dBFS, above the -60.0 dBFS limit.');
+    expect(only(findings, 'hum')[0].message).toMatch(/50 Hz/);
+    expect(only(findings, 'bandwidth')[0].message).toMatch(/reaches only 15 kHz/);
+    expect(only(findings, 'aliasing')[0].severity).toBe('warn');
+    const upsampled = judge((r) => (r.bandwidth = { effectiveHz: 16000, impliedSourceRate: 32000, nearNyquistDb: -90, aliasingRisk: false }));
+    expect(only(upsampled, 'sample-rate')[0].message).toMatch(/made at 32 kHz and converted up to 48 kHz/);
+  });
+
+  it('dc-offset: warns past the limit, fails at ten times it', () => {
+    expect(only(judge((r) => (r.channels[0].dcOffset = 0.002)), 'dc-offset')[0]).toMatchObject({ severity: 'warn', channel: 0 });
+    expect(only(judge((r) => (r.channels[1].dcOffset = -0.02)), 'dc-offset')[0]).toMatchObject({ severity: 'fail', channel: 1 });
+  });
+
+  it('dropout: counts, times and severity', () => {
+    const finding = only(judge((r) => (r.dropouts = [{ startSec: 3.2, endSec: 3.225 }])), 'dropout')[0];
+    expect(finding).toMatchObject({ severity: 'fail', startSec: 3.2, endSec: 3.225, message: '1 dropout (digital silence inside the take) at 0:03.2 (25 ms).' });
+  });
+
+  it('silent-channel: one dead channel, or a silent take', () => {
+    expect(only(judge((r) => (r.channels[1].silent = true)), 'silent-channel')[0]).toMatchObject({ severity: 'fail', channel: 1 });
+    const allSilent = only(judge((r) => r.channels.forEach((channel) => (channel.silent = true))), 'silent-channel');
+    expect(allSilent).toHaveLength(1);
+    expect(allSilent[0].message).toMatch(/whole take is silent/);
+  });
+
+  it('stereo: identical channels, inverted polarity, sustained anti-phase', () => {
+    expect(only(judge((r) => (r.stereo!.identicalChannels = true)), 'stereo')[0].message).toMatch(/mono take in a stereo file/);
+    expect(only(judge((r) => Object.assign(r.stereo!, { polarityInverted: true, correlation: -0.93 })), 'stereo')[0]).toMatchObject({ severity: 'warn', message: expect.stringMatching(/opposite polarity \(correlation -0.93\)/) });
+    expect(only(judge((r) => (r.stereo!.antiPhaseShare = 0.2)), 'stereo')[0].message).toMatch(/20% of the take/);
+  });
+
+  it('tone: reported as information, and a tone shifted by a wrong rate flags the rate', () => {
+    const findings = judge((r) => (r.tone = { startSec: 0, endSec: 10, frequencyHz: 918.8, levelDbfs: -18, sinadDb: 80, thdnDb: -80, enobBits: 16, likelyRecordedRate: 44100 }));
+    expect(only(findings, 'tone')[0].severity).toBe('info');
+    expect(only(findings, 'sample-rate')[0].message).toMatch(/recorded at 44.1 kHz and is labelled 48 kHz/);
+  });
+
+  it('re-judges a stored report under a different spec without the audio', () => {
+    const report = cleanReport();
+    report.loudness.integratedLufs = -16;
+    expect(verdictOf(judgeReport(report, DEFAULT_SPEC))).toBe('warn');
+    expect(verdictOf(judgeReport(report, { ...DEFAULT_SPEC, loudnessTargetLufs: -16 }))).toBe('pass');
+    expect(verdictOf(judgeReport(report, { ...DEFAULT_SPEC, loudnessIsStrict: true }))).toBe('fail');
+  });
+});
+
+describe('verdictOf and formatTime', () => {
+  it('takes the worst severity', () => {
+    const finding = (severity: Finding['severity']): Finding => ({ check: 'loudness', severity, message: '' });
+    expect(verdictOf([])).toBe('pass');
+    expect(verdictOf([finding('info')])).toBe('pass');
+    expect(verdictOf([finding('info'), finding('warn')])).toBe('warn');
+    expect(verdictOf([finding('warn'), finding('fail'), finding('info')])).toBe('fail');
+  });
+
+  it('writes times as m:ss.s or h:mm:ss.s', () => {
+    expect(formatTime(3.24)).toBe('0:03.2');
+    expect(formatTime(61.25)).toBe('1:01.3');
+    expect(formatTime(3723.5)).toBe('1:02:03.5');
+  });
+});
