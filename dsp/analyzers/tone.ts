@@ -1,6 +1,6 @@
 import FFT from 'fft.js';
 import type { Analyzer, AudioFormat, SampleBlock } from '../types';
-import { assertAnalysableFormat, hannWindow } from './formatGuard';
+import { assertAnalysableFormat, declaredFrames, hannWindow } from './formatGuard';
 import { STANDARD_RATES_HZ } from './spectrum';
 
 /**
@@ -69,6 +69,11 @@ const MAX_FIT_SEC = 4;
 const MAX_TONE_CHANNELS = 8;
 /** Samples per kept buffer (head or tail, all channels), unless that is under 2 s. */
 const MAX_BUFFER_SAMPLES = 2 ** 21;
+/**
+ * With a declared length, the tail ring starts filling this long before the declared end, so
+ * a take cut short by up to this much still has its end searched; one cut shorter has not.
+ */
+const TRUNCATION_MARGIN_SEC = 60;
 
 interface SineFit {
   a: number;
@@ -111,6 +116,8 @@ export class ToneAnalyzer implements Analyzer<ToneResult | null> {
   private readonly head: Float64Array[];
   private headFill = 0;
   private readonly tail: Float64Array[];
+  /** Frames before which nothing needs to enter the tail ring (header length known). */
+  private readonly tailSkip: number;
   private tailPos = 0;
   private framesSeen = 0;
   private startTone: Candidate | null = null;
@@ -158,6 +165,8 @@ export class ToneAnalyzer implements Analyzer<ToneResult | null> {
     this.hannEnergy = this.hann.reduce((s, w) => s + w * w, 0);
     this.fftIn = new Float64Array(this.chunk);
     this.fftOut = new Float64Array(2 * this.chunk);
+    const declared = declaredFrames(format);
+    this.tailSkip = declared === null ? 0 : Math.max(0, declared - this.tailFrames - Math.round(TRUNCATION_MARGIN_SEC * this.fs));
     this.head = Array.from({ length: this.channels }, () => new Float64Array(this.headFrames));
     this.tail = Array.from({ length: this.channels }, () => new Float64Array(this.tailFrames));
   }
@@ -175,11 +184,11 @@ export class ToneAnalyzer implements Analyzer<ToneResult | null> {
       if (this.headFill === this.headFrames) this.analyseHead();
     }
     if (this.tracking && offset < n) this.follow(block, offset, n);
-    // Tail ring: every block passes through it (a header's length cannot be trusted to skip
-    // ahead: a truncated take ends early); only its last tailFrames frames matter.
+    // Tail ring: only what can still be among the last tailFrames frames of a take that is
+    // at most TRUNCATION_MARGIN_SEC shorter than its header declares.
     const end = start + n;
-    {
-      const from = Math.max(0, n - this.tailFrames);
+    if (end > this.tailSkip) {
+      const from = Math.max(0, this.tailSkip - start, n - this.tailFrames);
       for (let i = from; i < n; ) {
         const run = Math.min(n - i, this.tailFrames - this.tailPos);
         for (let c = 0; c < this.channels; c++) this.tail[c].set(block.channels[c].subarray(i, i + run), this.tailPos);
@@ -210,7 +219,9 @@ export class ToneAnalyzer implements Analyzer<ToneResult | null> {
       length = total;
       offsetFrame = 0;
     } else {
-      length = Math.min(total, this.tailFrames);
+      // What the ring holds (less only for a take cut short by more than the margin).
+      length = Math.min(total, this.tailFrames, total - this.tailSkip);
+      if (length < this.chunk) return null;
       offsetFrame = total - length;
       buffers = this.tail.map((ring) => {
         const lin = new Float64Array(length);

@@ -106,9 +106,9 @@ describe('ToneAnalyzer: finding the tone', () => {
     }
   });
 
-  it('still finds the end tone of a take shorter than its header declares', () => {
+  it('still finds the end tone of a take up to a minute shorter than its header declares', () => {
     const take = concat(speechLike(FS * 20, FS, 0.3, 18), sine(FS * 2, FS, 997, 0.2));
-    const analyzer = new ToneAnalyzer(pcmFormat(FS, 1, 24, take.length + FS * 30));
+    const analyzer = new ToneAnalyzer(pcmFormat(FS, 1, 24, take.length + FS * 50));
     const r = pushInBlocks(analyzer, [take], 65536)!;
     expect(Math.abs(r.endSec - 22)).toBeLessThan(0.01);
   });
