@@ -41,6 +41,12 @@ const axis = (colors: ThemeColors, label: string, extra: Partial<uPlot.Axis> = {
 });
 
 const kHzTick = (hz: number) => (hz >= 1000 ? `${Number((hz / 1000).toFixed(1))}k` : `${Math.round(hz)}`);
+/** Labels a log axis at 1, 2 and 5 of each decade only; the other grid lines stay unlabelled. */
+const decadeLabel = (hz: number | null) => {
+  if (hz == null || !(hz > 0)) return '';
+  const lead = hz / 10 ** Math.floor(Math.log10(hz) + 1e-9);
+  return [1, 2, 5].some((d) => Math.abs(lead - d) < 1e-6) ? kHzTick(hz) : '';
+};
 
 /** A vertical marker line with a caption, drawn on top of the plot. */
 function verticalLine(u: uPlot, x: number, color: string, caption: string, row: number) {
@@ -64,14 +70,14 @@ function verticalLine(u: uPlot, x: number, color: string, caption: string, row: 
 
 export function SpectrumPlot({ hz, db, nyquistHz, effectiveHz }: { hz: number[]; db: number[]; nyquistHz: number; effectiveHz: number | null }) {
   const build: Build = (colors, width) => ({
-    data: [hz, db],
+    data: [hz, db.map((v) => (Number.isFinite(v) ? v : null))],
     options: {
       width,
       height: 240,
       legend: { show: false },
       cursor: { drag: { x: false, y: false } },
       scales: { x: { time: false, distr: 3, log: 10, range: () => [20, nyquistHz * 1.05] }, y: { range: (_u, min) => [Math.min(-100, Math.floor(min / 10) * 10), 10] } },
-      axes: [axis(colors, 'Frequency (Hz, log scale)', { values: (_u, splits) => splits.map(kHzTick) }), axis(colors, 'Level (dB re passband)', { size: 56 })],
+      axes: [axis(colors, 'Frequency (Hz, log scale)', { values: (_u, splits) => splits.map(decadeLabel) }), axis(colors, 'Level (dB re passband)', { size: 56 })],
       series: [{ label: 'Frequency' }, { label: 'Long-term spectrum', stroke: colors.accent, width: 2, points: { show: false } }],
       hooks: {
         draw: [

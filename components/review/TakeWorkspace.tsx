@@ -61,8 +61,6 @@ export function TakeWorkspace({ takeId, durationSec, channels, markers, comments
   const [peaks, setPeaks] = useState<PeaksAnswer | null>(null);
   const volumeRef = useRef(volume);
   volumeRef.current = volume;
-  const timeRef = useRef(0);
-  timeRef.current = time;
   const onTimeRef = useRef(onTime);
   onTimeRef.current = onTime;
 
@@ -79,7 +77,12 @@ export function TakeWorkspace({ takeId, durationSec, channels, markers, comments
   }, [takeId, durationSec]);
 
   // Create the waveform once the peaks and the palette are known; again when the theme changes.
+  const colorsRef = useRef(colors);
+  colorsRef.current = colors;
+  const haveColors = colors !== null;
+
   useEffect(() => {
+    const colors = colorsRef.current;
     if (!peaks || !colors || !waveRef.current || !timelineRef.current) return;
     let destroyed = false;
     let ws: WaveSurfer | null = null;
@@ -117,17 +120,14 @@ export function TakeWorkspace({ takeId, durationSec, channels, markers, comments
             container: timelineRef.current,
             height: 22,
             formatTimeCallback: (s) => formatClock(s).replace(/\.0$/, ''),
-            style: { color: colors.muted, fontSize: '11px' },
+            // A CSS variable reaches into the timeline's shadow DOM, so the labels follow the theme.
+            style: { color: 'rgb(var(--tp-muted))', fontSize: '11px' },
           }),
         ],
       });
       wsRef.current = ws;
       regionsRef.current = regions;
-      ws.on('ready', () => {
-        // Drawn again after a theme change: carry on from where the playhead was.
-        if (timeRef.current > 0) ws?.setTime(timeRef.current);
-        setReady(true);
-      });
+      ws.on('ready', () => setReady(true));
       ws.on('decode', () => setReady(true));
       ws.on('play', () => setPlaying(true));
       ws.on('pause', () => setPlaying(false));
@@ -155,7 +155,19 @@ export function TakeWorkspace({ takeId, durationSec, channels, markers, comments
       media.load();
     };
     // eslint-disable-next-line react-hooks/exhaustive-deps
-  }, [peaks, colors, takeId, channels, durationSec]);
+  }, [peaks, haveColors, takeId, channels, durationSec]);
+
+  // A theme change recolours the drawn waveform in place (the playhead stays where it is).
+  useEffect(() => {
+    if (!ready || !colors) return;
+    const lane = { waveColor: colors.ink, progressColor: colors.accent };
+    wsRef.current?.setOptions({
+      waveColor: colors.ink,
+      progressColor: colors.accent,
+      cursorColor: colors.fail,
+      ...(channels > 1 ? { splitChannels: Array.from({ length: channels }, () => ({ ...lane, height: 88 })) } : {}),
+    });
+  }, [colors, ready, channels]);
 
   const markersRef = useRef(markers);
   markersRef.current = markers;

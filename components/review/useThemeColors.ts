@@ -19,7 +19,11 @@ function read(): ThemeColors {
 export function useThemeColors(): ThemeColors | null {
   const [colors, setColors] = useState<ThemeColors | null>(null);
   useEffect(() => {
-    const update = () => setColors(read());
+    // A new object only when a colour really changed, so canvases are not redrawn for nothing.
+    const update = () => setColors((current) => {
+      const next = read();
+      return current && TOKENS.every((t) => current[t] === next[t]) ? current : next;
+    });
     update();
     const observer = new MutationObserver(update);
     observer.observe(document.documentElement, { attributes: true, attributeFilter: ['data-theme', 'class', 'style'] });

@@ -42,6 +42,13 @@ describe('the take review page', () => {
     await clipRegion.first().waitFor({ state: 'attached', timeout: 30_000 });
     await expect(clipRegion.first().getAttribute('data-severity')).resolves.toBe('fail');
     await expect(clipRegion.first().textContent()).resolves.toContain('Clip R');
+    const box = await clipRegion.first().evaluate((el) => {
+      const r = el.getBoundingClientRect();
+      return { width: r.width, height: r.height, bg: getComputedStyle(el).backgroundColor, parent: el.parentElement?.getBoundingClientRect().height, html: el.outerHTML.slice(0, 400) };
+    });
+    console.log('clip region', JSON.stringify(box));
+    // It sits on the right channel's lane, over the clipped stretch.
+    await clipRegion.first().waitFor({ state: 'visible', timeout: 10_000 });
     await expect(page.locator('[data-testid=waveform] [data-kind=dropout]').count()).resolves.toBe(1);
     // The waveform was drawn from server peaks: canvases exist and the full file was never fetched whole.
     await expect(page.locator('[data-testid=waveform] canvas').count()).resolves.toBeGreaterThan(0);
@@ -136,11 +143,13 @@ describe('the take review page', () => {
     await signInAs(page, 'engineer');
     await page.goto(`${BASE_URL}/takes/${takeId}`);
     await expect(page.getByTestId('decision-state').textContent()).resolves.toMatch(/Rejected/);
+    await page.getByTestId('findings-list').waitFor();
     await expect(page.getByRole('button', { name: 'Reject' }).count()).resolves.toBe(0);
     await expect(page.getByRole('button', { name: /Approve/ }).count()).resolves.toBe(0);
-    await expect(page.getByText('Producers and studio managers decide on takes.').isVisible()).resolves.toBe(true);
+    await screenshot(page, 'take-review-engineer');
+    await page.getByText('Producers and studio managers decide on takes.').waitFor({ state: 'visible', timeout: 10_000 });
     // Engineers may still comment.
-    await expect(page.getByRole('button', { name: 'Add comment' }).isVisible()).resolves.toBe(true);
+    await page.getByRole('button', { name: 'Add comment' }).waitFor({ state: 'visible', timeout: 10_000 });
     await page.close();
   });
 });

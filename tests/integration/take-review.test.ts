@@ -11,7 +11,7 @@ beforeAll(async () => {
   as = await signedInAll();
   file = hotInterviewTake(101);
   const sessionId = await createSession(as.engineer, 'Review checks — pickups');
-  takeId = await uploadTake(as.engineer, sessionId, 'pickup "hot" take\u0007 1.wav', file);
+  takeId = await uploadTake(as.engineer, sessionId, "it's (100%) hot take.wav", file);
   const outsideSession = await createSession(as.outsider, 'Outside studio check');
   outsiderTakeId = await uploadTake(as.outsider, outsideSession, 'outside.wav', hotInterviewTake(102));
   await waitMeasured(as.engineer, takeId);
@@ -68,13 +68,13 @@ describe('GET /api/takes/:id/audio', () => {
     expect((await bytesOf(response)).length).toBe(file.length);
   });
 
-  it('names the file safely: no control characters, quotes escaped into the fallback', async () => {
+  it('names the file for saving: an ASCII fallback plus the exact name in RFC 5987 form', async () => {
     const response = await as.producer.fetch(`/api/takes/${takeId}/audio?download=1`, { headers: { range: 'bytes=0-0' } });
-    const disposition = response.headers.get('content-disposition') ?? '';
-    expect(disposition.startsWith('attachment; ')).toBe(true);
-    expect(disposition).toContain('filename="pickup _hot_ take 1.wav"');
-    expect(disposition).toContain("filename*=UTF-8''pickup%20%22hot%22%20take%201.wav");
+    expect(response.headers.get('content-disposition')).toBe(`attachment; filename="it's (100_) hot take.wav"; filename*=UTF-8''it%27s%20%28100%25%29%20hot%20take.wav`);
+    const inline = await as.producer.fetch(`/api/takes/${takeId}/audio`, { headers: { range: 'bytes=0-0' } });
+    expect(inline.headers.get('content-disposition')?.startsWith('inline; ')).toBe(true);
     await response.arrayBuffer();
+    await inline.arrayBuffer();
   });
 
   it('answers 401 signed out and 404 for another studio or a missing take', async () => {
