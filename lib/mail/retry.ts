@@ -8,11 +8,15 @@ import { loadReport } from '@/lib/reports/sessionReport';
 import { resendInvitation } from '@/lib/team';
 import { attemptDelivery, deliveryPayload, findDelivery, type DeliveryView } from './deliveries';
 
+const STUCK_AFTER_MS = 5 * 60_000;
+
 /** Sends a failed e-mail again, rendered from the current data (an invitation gets a fresh link). */
 export async function retryDelivery(actor: Actor, id: number): Promise<DeliveryView> {
   const delivery = await findDelivery(actor, id);
   assertCan(actor, delivery.kind === 'invitation' ? 'user:manage' : 'report:send');
-  if (delivery.status !== 'failed') throw new AppError('conflict:delivery_not_failed', 'Only an e-mail that failed can be sent again.');
+  // A send that never finished (the server stopped mid-way) counts as failed after a few minutes.
+  const stuck = delivery.status === 'sending' && Date.now() - delivery.updatedAt.getTime() > STUCK_AFTER_MS;
+  if (delivery.status !== 'failed' && !stuck) throw new AppError('conflict:delivery_not_failed', 'Only an e-mail that failed can be sent again.');
   if (delivery.kind === 'invitation') {
     return (await resendInvitation(actor, Number(deliveryPayload(delivery).userId), delivery)).delivery;
   }
