@@ -50,3 +50,16 @@ describe('sign-in', () => {
     expect(response.headers.get('location')).toMatch(/\/signin/);
   });
 });
+
+describe('failed sign-in limits', () => {
+  it('answers 429 with Retry-After once an account has failed five times, even with the right password', async () => {
+    const client = new Client();
+    // An account of its own, so other tests' sign-ins are not affected.
+    const email = 'locked-out-probe@demo.test';
+    for (let i = 0; i < 5; i++) expect((await client.signIn(email, `wrong-${i}`)).status).toBe(401);
+    const blocked = await client.signIn(email, 'wrong-again');
+    expect(blocked.status).toBe(429);
+    expect(Number(blocked.headers.get('retry-after'))).toBeGreaterThan(0);
+    expect((await blocked.json()).message).toMatch(/Too many failed sign-ins/);
+  });
+});
