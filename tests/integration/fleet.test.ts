@@ -53,6 +53,7 @@ const within = (rows: SummaryRow[], days: number) => rows.filter((r) => r.measur
 const ids = { steady: 0, drifting: 0, calm: 0 };
 
 beforeAll(async () => {
+  db(); // the models, on the test database
   as = await signedInAll();
   const manager = await User.findOne({ where: { email: 'manager@demo.test' } });
   const session = await (await as.manager.fetch('/api/sessions', { method: 'POST', json: { title: `Fleet figures ${unique()}` } })).json();

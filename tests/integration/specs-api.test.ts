@@ -11,6 +11,7 @@ let as: Record<DemoPerson | 'anonymous', Client>;
 const unique = () => Math.random().toString(36).slice(2, 8);
 
 beforeAll(async () => {
+  db(); // the models, on the test database
   as = await signedInAll();
 });
 afterAll(async () => {
