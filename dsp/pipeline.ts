@@ -55,7 +55,13 @@ const dbOrNull = (amplitude: number, decimals = 3) => roundOrNull(amplitudeToDb(
  */
 export async function analyzeStream(readable: Readable, options: AnalyzeOptions = {}): Promise<AnalysisReport> {
   const spec = options.spec ?? DEFAULT_SPEC;
-  const wav = await openWav(readable, { reopenAt: options.reopenAt });
+  let wav: Awaited<ReturnType<typeof openWav>>;
+  try {
+    wav = await openWav(readable, { reopenAt: options.reopenAt });
+  } catch (error) {
+    readable.destroy();
+    throw error;
+  }
   const { format } = wav;
 
   const audioBytes = format.declaredDataBytes ?? (options.totalBytes ?? 0) - format.dataOffset;
@@ -182,8 +188,8 @@ export async function analyzeStream(readable: Readable, options: AnalyzeOptions 
 export async function analyzeFile(path: string, options: AnalyzeOptions = {}): Promise<AnalysisReport> {
   const { size } = await stat(path);
   return analyzeStream(createReadStream(path, { highWaterMark: 1024 * 1024 }), {
-    totalBytes: size,
-    reopenAt: (byteOffset) => createReadStream(path, { start: byteOffset, highWaterMark: 1024 * 1024 }),
     ...options,
+    totalBytes: options.totalBytes ?? size,
+    reopenAt: options.reopenAt ?? ((byteOffset) => createReadStream(path, { start: byteOffset, highWaterMark: 1024 * 1024 })),
   });
 }

@@ -54,6 +54,9 @@ class ChannelClipState {
   flatRunBefore2 = 0;
   previous1 = 0;
   previous2 = 0;
+  previous3 = 0;
+  /** Whether the previous sample was at a top code (+1 / -1) or not (0). */
+  previousAtLimit = 0;
   positivePeak = 0;
   negativePeak = 0;
   /** Flat-top candidates merged per polarity (index 0 positive, 1 negative). */
@@ -127,6 +130,8 @@ export class ClippingAnalyzer implements Analyzer<ClippingResult> {
     let negativePeak = state.negativePeak;
     let previous1 = state.previous1;
     let previous2 = state.previous2;
+    let previous3 = state.previous3;
+    let previousAtLimit = state.previousAtLimit;
     for (let i = 0; i < frames; i++) {
       const x = samples[i];
       const magnitude = x < 0 ? -x : x;
@@ -157,24 +162,36 @@ export class ClippingAnalyzer implements Analyzer<ClippingResult> {
       }
 
       // Flat-top runs below full scale: same polarity, within tolerance of the run's first sample.
-      const deviation = x - flatRunReference;
-      if (flatRunLength > 0 && atLimit === 0 && (x > 0) === (flatRunReference > 0) && deviation <= flatRunTolerance && deviation >= -flatRunTolerance) {
-        flatRunLength++;
-      } else if (flatRunLength > 0 || magnitude >= MIN_FLAT_TOP_LEVEL) {
-        if (flatRunLength >= MIN_CLIP_RUN) this.closeFlatRun(state, flatRunStart, flatRunLength, flatRunReference, flatRunBefore1, flatRunBefore2);
-        flatRunLength = 0;
-        if (magnitude >= MIN_FLAT_TOP_LEVEL && atLimit === 0) {
-          flatRunStart = startFrame + i;
-          flatRunReference = x;
-          flatRunTolerance = magnitude * FLAT_TOP_RELATIVE_TOLERANCE;
-          if (flatRunTolerance < toleranceFloor) flatRunTolerance = toleranceFloor;
-          flatRunLength = 1;
-          flatRunBefore1 = previous1;
-          flatRunBefore2 = previous2;
+      if (flatRunLength > 0) {
+        const deviation = x - flatRunReference;
+        if (atLimit === 0 && (x > 0) === (flatRunReference > 0) && deviation <= flatRunTolerance && deviation >= -flatRunTolerance) {
+          flatRunLength++;
+        } else {
+          if (flatRunLength >= MIN_CLIP_RUN) this.closeFlatRun(state, flatRunStart, flatRunLength, flatRunReference, flatRunBefore1, flatRunBefore2);
+          flatRunLength = 0;
+        }
+      } else {
+        // A run starts at the previous sample when this one stays within its tolerance
+        // (most loud samples fail the first, cheap test).
+        const step = x - previous1;
+        const previousMagnitude = previous1 < 0 ? -previous1 : previous1;
+        if (previousMagnitude >= MIN_FLAT_TOP_LEVEL && atLimit === 0 && previousAtLimit === 0 && (x > 0) === (previous1 > 0)) {
+          let tolerance = previousMagnitude * FLAT_TOP_RELATIVE_TOLERANCE;
+          if (tolerance < toleranceFloor) tolerance = toleranceFloor;
+          if (step <= tolerance && step >= -tolerance) {
+            flatRunStart = startFrame + i - 1;
+            flatRunReference = previous1;
+            flatRunTolerance = tolerance;
+            flatRunLength = 2;
+            flatRunBefore1 = previous2;
+            flatRunBefore2 = previous3;
+          }
         }
       }
+      previous3 = previous2;
       previous2 = previous1;
       previous1 = x;
+      previousAtLimit = atLimit;
     }
     state.fullScaleRunStart = fullScaleRunStart;
     state.fullScaleRunLength = fullScaleRunLength;
@@ -188,6 +205,8 @@ export class ClippingAnalyzer implements Analyzer<ClippingResult> {
     state.negativePeak = negativePeak;
     state.previous1 = previous1;
     state.previous2 = previous2;
+    state.previous3 = previous3;
+    state.previousAtLimit = previousAtLimit;
   }
 
   /** Adds a run to the groups, merging it into the last group when close in time and (for flat tops) in level. */
