@@ -106,7 +106,7 @@ export function TakeWorkspace({ takeId, durationSec, channels, markers, comments
         duration: peaks.duration || durationSec,
         waveColor: colors.ink,
         progressColor: colors.accent,
-        cursorColor: colors.fail,
+        cursorColor: colors.ink,
         cursorWidth: 2,
         height: channels > 1 ? 88 : 140,
         normalize: false,
@@ -164,7 +164,7 @@ export function TakeWorkspace({ takeId, durationSec, channels, markers, comments
     wsRef.current?.setOptions({
       waveColor: colors.ink,
       progressColor: colors.accent,
-      cursorColor: colors.fail,
+      cursorColor: colors.ink,
       ...(channels > 1 ? { splitChannels: Array.from({ length: channels }, () => ({ ...lane, height: 88 })) } : {}),
     });
   }, [colors, ready, channels]);

@@ -5,7 +5,7 @@ import type { Mark } from '@/lib/review';
 export const SEVERITY = {
   fail: { shape: '✕', word: 'Fail', tone: 'text-fail' },
   warn: { shape: '▲', word: 'Warn', tone: 'text-warn' },
-  info: { shape: 'ⓘ', word: 'Note', tone: 'text-accent' },
+  info: { shape: '◆', word: 'Note', tone: 'text-accent' },
 } as const;
 
 export function SeverityMark({ severity }: { severity: Severity }) {

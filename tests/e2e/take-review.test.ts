@@ -2,17 +2,19 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
 import { BASE_URL, launchBrowser, screenshot, signInAs } from '../support/browser';
 import { signedIn } from '../support/http';
-import { CLIP_AT_SEC, DROPOUT_AT_SEC, createSession, hotInterviewTake, uploadTake, waitMeasured } from '../support/reviewTakes';
+import { CLIP_AT_SEC, DROPOUT_AT_SEC, createSession, hotInterviewTake, unreadableWav, uploadTake, waitMeasured } from '../support/reviewTakes';
 
 let browser: Browser;
 let sessionId: number;
 let takeId: number;
+let brokenId: number;
 
 beforeAll(async () => {
   browser = await launchBrowser();
   const engineer = await signedIn('engineer');
   sessionId = await createSession(engineer, 'The Night Ferry — pickups, scene 17');
   takeId = await uploadTake(engineer, sessionId, 'scene17-guest-hot.wav', hotInterviewTake(201));
+  brokenId = await uploadTake(engineer, sessionId, 'scene17-card-error.wav', unreadableWav());
   await waitMeasured(engineer, takeId);
 }, 150_000);
 
@@ -135,6 +137,21 @@ describe('the take review page', () => {
     await page.getByTestId('comments-list').getByText('Door slam').waitFor();
     await expect(page.getByTestId('comments-list').textContent()).resolves.toMatch(/0:02\.5\s*Door slam/);
     await page.locator('[data-testid=waveform] [data-kind=comment]').first().waitFor({ state: 'attached' });
+    await page.close();
+  });
+
+  it('steps to the next take of the session, which explains in words that its file could not be read', async () => {
+    const page = await browser.newPage();
+    await signInAs(page, 'producer');
+    await page.goto(`${BASE_URL}/takes/${takeId}`);
+    await expect(page.getByText(/Take 1 of 2/).count()).resolves.toBe(1);
+    await page.getByRole('link', { name: 'Next take ›' }).click();
+    await page.waitForURL(`${BASE_URL}/takes/${brokenId}`);
+    const notice = page.getByTestId('unreadable');
+    await notice.waitFor({ timeout: 60_000 });
+    await expect(notice.textContent()).resolves.toMatch(/This file could not be read: \S+/);
+    await page.getByRole('link', { name: '‹ Previous take' }).click();
+    await page.waitForURL(`${BASE_URL}/takes/${takeId}`);
     await page.close();
   });
 

@@ -27,7 +27,6 @@ describe('GET /api/takes/:id/audio', () => {
     expect(response.status).toBe(200);
     expect(response.headers.get('accept-ranges')).toBe('bytes');
     expect(response.headers.get('content-type')).toBe('audio/wav');
-    expect(Number(response.headers.get('content-length'))).toBe(file.length);
     expect((await bytesOf(response)).equals(file)).toBe(true);
   });
 
@@ -35,7 +34,6 @@ describe('GET /api/takes/:id/audio', () => {
     const response = await as.producer.fetch(`/api/takes/${takeId}/audio`, { headers: { range: 'bytes=0-1023' } });
     expect(response.status).toBe(206);
     expect(response.headers.get('content-range')).toBe(`bytes 0-1023/${file.length}`);
-    expect(response.headers.get('content-length')).toBe('1024');
     const body = await bytesOf(response);
     expect(body.length).toBe(1024);
     expect(body.equals(file.subarray(0, 1024))).toBe(true);

@@ -31,13 +31,13 @@ export const GET = route<Context>(async (request, { params }) => {
     ETag: etag,
     'X-Content-Type-Options': 'nosniff',
   });
+  // No Content-Length: Next.js drops it from route handler responses and sends them chunked;
+  // Content-Range tells a media element the full size.
   if (range.kind === 'partial') {
     headers.set('Content-Range', contentRange(range.start, range.end, audio.size));
-    headers.set('Content-Length', String(range.end - range.start + 1));
     const body = Readable.toWeb(storage().getRange(audio.key, { start: range.start, end: range.end })) as ReadableStream<Uint8Array>;
     return new Response(body, { status: 206, headers });
   }
-  headers.set('Content-Length', String(audio.size));
   const body = Readable.toWeb(storage().getRange(audio.key)) as ReadableStream<Uint8Array>;
   return new Response(body, { status: 200, headers });
 });
