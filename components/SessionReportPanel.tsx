@@ -113,7 +113,7 @@ export function SessionReportPanel({ sessionId, maySend }: { sessionId: number; 
         </a>
         {maySend && (
           <button type="button" className="tp-button" aria-expanded={open} aria-controls={`${formId}-form`} onClick={() => setOpen((o) => !o)}>
-            {open ? 'Close' : 'Send report'}
+            Send report
           </button>
         )}
       </div>
@@ -144,7 +144,7 @@ export function SessionReportPanel({ sessionId, maySend }: { sessionId: number; 
           )}
           <div>
             <button type="submit" className="tp-button" disabled={busy}>
-              {busy ? 'Sending…' : 'Send report'}
+              {busy ? 'Sending…' : 'Send to recipients'}
             </button>
           </div>
         </form>

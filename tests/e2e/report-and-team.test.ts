@@ -25,13 +25,14 @@ describe('the session report panel', () => {
     await signInAs(page, 'producer');
     await page.goto(`${BASE_URL}/sessions/${sessionId}`);
     await expect(page.getByRole('link', { name: 'Download PDF' }).getAttribute('href')).resolves.toBe(`/api/sessions/${sessionId}/report.pdf`);
-    const toggle = page.getByRole('button', { name: 'Send report' });
+    const toggle = page.getByRole('button', { name: 'Send report', exact: true });
+    await expect(toggle.getAttribute('aria-expanded')).resolves.toBe('false');
     await toggle.focus();
     await page.keyboard.press('Enter');
     await expect(toggle.getAttribute('aria-expanded')).resolves.toBe('true');
 
     await page.getByLabel('Recipients').fill('edit-suite@demo.test, not-an-address');
-    await page.getByRole('form', { name: 'Send report' }).getByRole('button', { name: 'Send report' }).click();
+    await page.getByRole('button', { name: 'Send to recipients' }).click();
     await expect(page.getByRole('form', { name: 'Send report' }).locator('.tp-field-error').first().textContent()).resolves.toContain('“not-an-address” is not a valid e-mail address');
 
     const to = uniqueAddress('edit-suite');
@@ -59,7 +60,8 @@ describe('the session report panel', () => {
     const page = await browser.newPage();
     await signInAs(page, 'engineer');
     await page.goto(`${BASE_URL}/sessions/${sessionId}`);
-    await expect(page.getByRole('link', { name: 'Download CSV' }).isVisible()).resolves.toBe(true);
+    await screenshot(page, 'session-report-engineer');
+    await page.getByRole('link', { name: 'Download CSV' }).waitFor({ timeout: 10_000 });
     await expect(page.getByRole('button', { name: 'Send report' }).count()).resolves.toBe(0);
     await page.close();
   });
