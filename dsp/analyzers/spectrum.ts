@@ -58,8 +58,12 @@ const CLIFF_MAX_BELOW_CONTENT_DB = 60;
  * falls only ≈ 5 dB over it. [common practice]
  */
 const CLIFF_TRANSITION_FRACTION = 0.15;
-/** The edge is where the level has fallen this far below the passband just under it, dB. [common practice] */
-const EDGE_DROP_DB = 6;
+/**
+ * The edge is the half-power (−3 dB) point relative to the passband just under the cut-off,
+ * the textbook definition of a filter's bandwidth. (A soft resampler such as ffmpeg's default
+ * one is −6 dB only at or just above the original Nyquist frequency, so −6 dB would misread it.)
+ */
+const EDGE_DROP_DB = 3;
 /** Near-Nyquist region, as fractions of Nyquist. */
 const NEAR_NYQUIST_FROM = 0.94;
 const NEAR_NYQUIST_TO = 0.99;
@@ -266,7 +270,7 @@ export class SpectrumAnalyzer implements Analyzer<BandwidthResult> {
   /**
    * Highest frequency before a steep cut-off: the top band that stands at least
    * CLIFF_DROP_DB above everything above its transition band, refined to the
-   * −EDGE_DROP_DB point at bin resolution. A gradual natural roll-off never
+   * −EDGE_DROP_DB point. A gradual natural roll-off never
    * qualifies, so content that fades out towards Nyquist reads Nyquist.
    */
   private effectiveBandwidth(psd: Float64Array, binHz: number, nyquist: number): number {
@@ -297,9 +301,10 @@ export class SpectrumAnalyzer implements Analyzer<BandwidthResult> {
       if (b + gap >= bands) continue;
       if (smooth[b] < contentDb - CLIFF_MAX_BELOW_CONTENT_DB) continue;
       if (smooth[b] - suffixMax[b + gap] < CLIFF_DROP_DB) continue;
-      // Refine: the passband level is taken one transition width below the cut-off band (band b
-      // may already lie inside a steep filter's slope); walk up, on a 5-bin moving average, from
-      // there to where the level falls EDGE_DROP_DB below it.
+      // Edge: the passband level is taken one transition width below the cut-off band (band b
+      // may already lie inside a steep filter's slope); walking up the median-smoothed bands
+      // (a median keeps a monotone edge where it is, and ignores the dips between harmonics),
+      // the edge is where the level crosses EDGE_DROP_DB below it, interpolated between band centres.
       const refEnd = Math.max(1, b - gap);
       let under = 0;
       let count = 0;
@@ -308,13 +313,12 @@ export class SpectrumAnalyzer implements Analyzer<BandwidthResult> {
         count++;
       }
       const edgeDb = dbPower(under / count) - EDGE_DROP_DB;
-      const kEnd = Math.min(half - 2, (b + gap + 1) * binsPerBand);
-      let k = Math.max(2, refEnd * binsPerBand);
-      for (; k < kEnd; k++) {
-        const avg = (psd[k - 2] + psd[k - 1] + psd[k] + psd[k + 1] + psd[k + 2]) / 5;
-        if (dbPower(avg) < edgeDb) break;
-      }
-      return Math.min(nyquist, k * binHz);
+      let j = refEnd + 1;
+      while (j < Math.min(bands, b + gap + 1) && smooth[j] >= edgeDb) j++;
+      const bandHz = binsPerBand * binHz;
+      const centre = (i: number) => (i + 0.5) * bandHz;
+      const fraction = smooth[j - 1] > smooth[j] ? (smooth[j - 1] - edgeDb) / (smooth[j - 1] - smooth[j]) : 0;
+      return Math.min(nyquist, centre(j - 1) + Math.max(0, Math.min(1, fraction)) * bandHz);
     }
     return nyquist;
   }

@@ -3,7 +3,7 @@
  * fixture is computed here or by sox/ffmpeg at test time; nothing is stored.
  */
 import { execFileSync } from 'node:child_process';
-import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
+import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import wavefile from 'wavefile';
@@ -204,4 +204,53 @@ export function rmsDbfs(x: Float64Array): number {
   let s = 0;
   for (let i = 0; i < x.length; i++) s += x[i] * x[i];
   return 10 * Math.log10(s / x.length);
+}
+
+/**
+ * Music-like test material: chords of harmonic notes (harmonics falling 1/h up to
+ * 0.45·fs, each note with a decaying envelope) over a soft pink-noise bed
+ * (cymbal/room-like, 20 dB below), normalised to `peak`.
+ */
+export function musicLike(frames: number, sampleRate: number, peak: number, seed: number): Float64Array {
+  const rand = seededRandom(seed);
+  const x = pinkNoise(frames, 0.1, seed + 1);
+  const noteFrames = Math.floor(0.5 * sampleRate);
+  for (let start = 0; start < frames; start += noteFrames) {
+    for (let voice = 0; voice < 3; voice++) {
+      const f0 = 110 * 2 ** (Math.floor(rand() * 36) / 12);
+      const amp = 0.3 + 0.4 * rand();
+      for (let h = 1; h * f0 < 0.45 * sampleRate; h++) {
+        const w = (2 * Math.PI * h * f0) / sampleRate;
+        const a = amp / h;
+        const phase = 2 * Math.PI * rand();
+        for (let i = 0; i < noteFrames && start + i < frames; i++) x[start + i] += a * Math.exp(-i / (0.25 * sampleRate)) * Math.sin(w * i + phase);
+      }
+    }
+  }
+  let maxAbs = 0;
+  for (let i = 0; i < frames; i++) maxAbs = Math.max(maxAbs, Math.abs(x[i]));
+  for (let i = 0; i < frames; i++) x[i] *= peak / maxAbs;
+  return x;
+}
+
+/** Sends float channels through a command-line tool (sox) as a 24-bit WAV and decodes what it writes. */
+export function processWithTool(
+  channels: Float64Array[],
+  sampleRate: number,
+  argsFor: (inFile: string, outFile: string) => string[],
+): { sampleRate: number; bits: number; channels: Float64Array[] } {
+  const dir = mkdtempSync(join(tmpdir(), 'spectral-fixture-'));
+  try {
+    const input = join(dir, 'in.wav');
+    const wav = new WaveFile();
+    const scale = 2 ** 23;
+    const codes = channels.map((c) => Array.from(c, (v) => Math.max(-scale, Math.min(scale - 1, Math.round(v * scale)))));
+    wav.fromScratch(channels.length, sampleRate, '24', codes);
+    writeFileSync(input, wav.toBuffer());
+    const out = join(dir, 'out.wav');
+    execFileSync('/usr/bin/sox', argsFor(input, out), { stdio: ['ignore', 'ignore', 'pipe'] });
+    return decodeWav(readFileSync(out));
+  } finally {
+    rmSync(dir, { recursive: true, force: true });
+  }
 }

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { SpectrumAnalyzer, STANDARD_RATES_HZ } from '@/dsp/analyzers/spectrum';
 import {
-  addInto, generateWithTool, pcmFormat, pinkNoise, pushInBlocks, sine, whiteNoise,
+  addInto, generateWithTool, musicLike, pcmFormat, pinkNoise, processWithTool, pushInBlocks, sine, whiteNoise,
 } from '@/tests/support/spectralSignals';
 
 const FS = 48000;
@@ -58,12 +58,38 @@ describe('SpectrumAnalyzer: usable bandwidth', () => {
     expect(r.aliasingRisk).toBe(false);
   });
 
+  it('finds the cut-off of 16 kHz noise up-sampled by ffmpeg\'s default (soft) resampler: below 8 kHz, source rate 16000', () => {
+    // ffmpeg's default low-pass lets the band edge run on past 8 kHz; its half-power point stays below it.
+    const fx = generateWithTool('ffmpeg', (out) => [
+      '-hide_banner', '-loglevel', 'error', '-y', '-f', 'lavfi', '-i', 'anoisesrc=d=4:c=white:r=16000:a=0.3:seed=3',
+      '-af', 'aresample=48000', '-c:a', 'pcm_s24le', out,
+    ]);
+    const r = analyse(fx.channels);
+    expect(r.effectiveHz).toBeGreaterThan(7200);
+    expect(r.effectiveHz).toBeLessThan(8000);
+    expect(r.impliedSourceRate).toBe(16000);
+  });
+
   it('reports 8 kHz-origin telephony content (sox) as implied rate 8000', () => {
     const fx = generateWithTool('sox', (out) => ['-r', '8000', '-n', '-b', '24', out, 'synth', '3', 'pinknoise', 'gain', '-10', 'rate', '48000']);
     const r = analyse(fx.channels);
     expect(r.effectiveHz).toBeGreaterThan(3400);
     expect(r.effectiveHz).toBeLessThan(4000);
     expect(r.impliedSourceRate).toBe(8000);
+  });
+
+  it('reads music-like content at 48 kHz near Nyquist, and the same content through sox at 16 kHz as ≈ 8 kHz / 16000', () => {
+    const music = musicLike(FS * 6, FS, 0.5, 31);
+    const full = analyse([music]);
+    expect(full.effectiveHz).toBeGreaterThanOrEqual(0.9 * (FS / 2));
+    expect(full.impliedSourceRate).toBeNull();
+    // Fixture: sox resamples the same samples down to 16 kHz and back up to 48 kHz.
+    const narrow = processWithTool([music], FS, (inFile, outFile) => [inFile, '-b', '24', outFile, 'rate', '16000', 'rate', '48000']);
+    const r = analyse(narrow.channels);
+    // Music slopes down towards the cut-off, so its half-power point sits a little lower than noise's.
+    expect(r.effectiveHz).toBeGreaterThan(6800);
+    expect(r.effectiveHz).toBeLessThan(8000);
+    expect(r.impliedSourceRate).toBe(16000);
   });
 
   it('gives the same answer whether or not the header declares the length (adaptive window spacing)', () => {
