@@ -225,5 +225,25 @@ describe('who may manage the team', () => {
     expect((await one.json()).text.length).toBeGreaterThan(0);
     expect((await as.outsider.fetch(`/api/outbox/${mine[0].id}`)).status).toBe(404);
     expect((await as.manager.fetch('/api/outbox/..%2F..%2Fpackage')).status).toBe(404);
+
+    // The pages show the same: a list with subjects, and one message's text.
+    const listPage = await (await as.manager.fetch('/outbox')).text();
+    expect(listPage).toContain(`/outbox/${mine[0].id}`);
+    const messagePage = await as.manager.fetch(`/outbox/${mine[0].id}`);
+    expect(messagePage.status).toBe(200);
+    expect(await messagePage.text()).toContain(mine[0].to[0]);
+    expect((await as.manager.fetch('/outbox/not-an-id')).status).toBe(404);
+    expect(await (await as.producer.fetch('/outbox')).text()).not.toContain(`/outbox/${mine[0].id}`);
+  });
+
+  it('shows the team page to managers only', async () => {
+    const page = await (await as.manager.fetch('/team')).text();
+    expect(page).toContain('engineer@demo.test');
+    expect(page).toContain('Invite a person');
+    for (const person of ['engineer', 'producer'] as const) {
+      const html = await (await as[person].fetch('/team')).text();
+      expect(html).not.toContain('engineer@demo.test');
+      expect(html).not.toContain('Invite a person');
+    }
   });
 });
