@@ -1,21 +1,21 @@
 import { createReadStream } from 'node:fs';
 import { stat } from 'node:fs/promises';
 import type { Readable } from 'node:stream';
-import { ClippingAnalyzer } from './analyzers/clipping';
-import { DropoutAnalyzer } from './analyzers/dropouts';
-import { LevelsAnalyzer } from './analyzers/levels';
-import { LoudnessAnalyzer } from './analyzers/loudness';
-import { NoiseFloorAnalyzer } from './analyzers/noiseFloor';
-import { SpectrumAnalyzer } from './analyzers/spectrum';
-import { StereoAnalyzer } from './analyzers/stereo';
-import { ToneAnalyzer } from './analyzers/tone';
-import { TruePeakAnalyzer } from './analyzers/truePeak';
-import { WaveformPeaksAnalyzer } from './analyzers/waveformPeaks';
+import { ClippingAnalyzer, type ClippingResult } from './analyzers/clipping';
+import { DropoutAnalyzer, type DropoutResult } from './analyzers/dropouts';
+import { LevelsAnalyzer, type LevelsResult } from './analyzers/levels';
+import { LoudnessAnalyzer, type LoudnessResult } from './analyzers/loudness';
+import { NoiseFloorAnalyzer, type NoiseFloorResult } from './analyzers/noiseFloor';
+import { SpectrumAnalyzer, type BandwidthResult } from './analyzers/spectrum';
+import { StereoAnalyzer, type StereoResult } from './analyzers/stereo';
+import { ToneAnalyzer, type ToneResult } from './analyzers/tone';
+import { TruePeakAnalyzer, type TruePeakResult } from './analyzers/truePeak';
+import { WaveformPeaksAnalyzer, type WaveformPeaksResult } from './analyzers/waveformPeaks';
 import { judgeReport } from './findings';
 import { WorkerAnalyzers } from './parallel/WorkerAnalyzers';
-import { openWav } from './reader/wavReader';
+import { openWav, type OpenedWav, type WavMetadata } from './reader/wavReader';
 import { DEFAULT_SPEC, type DeliverySpec } from './spec';
-import type { AnalysisReport, Analyzer } from './types';
+import type { AnalysisReport, Analyzer, AudioFormat } from './types';
 import { amplitudeToDb, powerToDb, roundOrNull, roundTo } from './util/decibels';
 
 export interface AnalyzeOptions {
@@ -25,7 +25,8 @@ export interface AnalyzeOptions {
   spec?: DeliverySpec;
   /**
    * Called with bytes read so far and the total (null when unknown), at most
-   * every PROGRESS_INTERVAL_MS while reading, and once more when the whole file has been read.
+   * every PROGRESS_INTERVAL_MS while reading, and once more with done = total
+   * when the whole file has been read (before the final computations and findings).
    */
   onProgress?: (doneBytes: number, totalBytes: number | null) => void;
   /** Where to write the waveform peaks file; no peaks file without it. */
@@ -55,7 +56,7 @@ const dbOrNull = (amplitude: number, decimals = 3) => roundOrNull(amplitudeToDb(
  */
 export async function analyzeStream(readable: Readable, options: AnalyzeOptions = {}): Promise<AnalysisReport> {
   const spec = options.spec ?? DEFAULT_SPEC;
-  let wav: Awaited<ReturnType<typeof openWav>>;
+  let wav: OpenedWav;
   try {
     wav = await openWav(readable, { reopenAt: options.reopenAt });
   } catch (error) {
@@ -97,36 +98,55 @@ export async function analyzeStream(readable: Readable, options: AnalyzeOptions 
     await remote?.terminate();
     throw error;
   }
-  options.onProgress?.(wav.bytesRead(), totalBytes ?? wav.bytesRead());
+  const bytesDone = totalBytes ?? wav.bytesRead();
+  options.onProgress?.(bytesDone, bytesDone);
   const remoteResults = remote ? await remote.finish() : null;
 
-  const frames = wav.framesRead();
-  const levelResult = levels.finish();
-  const clipResult = remoteResults?.clipping ?? clipping!.finish();
-  const truePeakResult = remoteResults?.truePeak ?? truePeak!.finish();
-  const loudnessResult = remoteResults?.loudness ?? loudness!.finish();
-  const dropoutResult = dropouts.finish();
-  const stereoResult = stereo?.finish() ?? null;
-  const bandwidth = spectrum.finish();
-  const noiseResult = noise.finish();
-  const toneResult = tone.finish();
-  const peaksResult = peaks?.finish() ?? null;
+  const measurements: Measurements = {
+    levels: levels.finish(),
+    clipping: remoteResults?.clipping ?? clipping!.finish(),
+    truePeak: remoteResults?.truePeak ?? truePeak!.finish(),
+    loudness: remoteResults?.loudness ?? loudness!.finish(),
+    dropouts: dropouts.finish(),
+    stereo: stereo?.finish() ?? null,
+    bandwidth: spectrum.finish(),
+    noise: noise.finish(),
+    tone: tone.finish(),
+    waveform: peaks?.finish() ?? null,
+  };
+  const report = assembleReport(format, wav.metadata, wav.framesRead(), measurements);
+  report.findings = judgeReport(report, spec);
+  return report;
+}
 
-  const channels = levelResult.channels.map((channel, index) => ({
+/** What the analyzers found, before it is shaped into the report. */
+interface Measurements {
+  levels: LevelsResult;
+  clipping: ClippingResult;
+  truePeak: TruePeakResult;
+  loudness: LoudnessResult;
+  dropouts: DropoutResult;
+  stereo: StereoResult | null;
+  bandwidth: BandwidthResult;
+  noise: NoiseFloorResult;
+  tone: ToneResult | null;
+  waveform: WaveformPeaksResult | null;
+}
+
+/** Shapes the measurements into the report contract (levels in dB, rounded; findings left empty). */
+function assembleReport(format: AudioFormat, metadata: WavMetadata, frames: number, m: Measurements): AnalysisReport {
+  const channels = m.levels.channels.map((channel, index) => ({
     samplePeakDbfs: dbOrNull(channel.samplePeak),
-    truePeakDbtp: dbOrNull(truePeakResult.channelTruePeaks[index]),
+    truePeakDbtp: dbOrNull(m.truePeak.channelTruePeaks[index]),
     // Mean square re a full-scale square wave: a full-scale sine reads -3.01 dBFS.
     rmsDbfs: roundOrNull(powerToDb(channel.meanSquare), 3),
     dcOffset: channel.dcOffset,
     effectiveBits: channel.effectiveBits,
-    clippedSamples: clipResult.channelClippedSamples[index],
+    clippedSamples: m.clipping.channelClippedSamples[index],
     silent: channel.silent,
   }));
-  const samplePeak = Math.max(...levelResult.channels.map((channel) => channel.samplePeak));
-  const truePeakMax = Math.max(...truePeakResult.channelTruePeaks);
-  const floorDbfs = noiseResult.floorDbfs;
-
-  const report: AnalysisReport = {
+  const floorDbfs = m.noise.floorDbfs;
+  return {
     file: {
       container: format.container,
       encoding: format.encoding,
@@ -137,47 +157,48 @@ export async function analyzeStream(readable: Readable, options: AnalyzeOptions 
       channelMask: format.channelMask,
       frames,
       durationSec: frames / format.sampleRate,
-      headerIssues: wav.metadata.headerIssues,
+      headerIssues: metadata.headerIssues,
     },
-    bext: wav.metadata.bext,
-    ixml: wav.metadata.ixml,
+    bext: metadata.bext,
+    ixml: metadata.ixml,
     channels,
     resolution: {
-      effectiveBits: Math.max(0, ...levelResult.channels.map((channel) => channel.effectiveBits)),
+      effectiveBits: Math.max(0, ...m.levels.channels.map((channel) => channel.effectiveBits)),
       // Bits of an ideal quantiser whose noise (Q^2/12, full band) equals the floor: N = (-floor - 4.77)/6.02.
       noiseLimitedBits: floorDbfs === null ? null : roundTo((-floorDbfs - 4.77) / 6.02, 1),
     },
-    peak: { samplePeakDbfs: dbOrNull(samplePeak), truePeakDbtp: dbOrNull(truePeakMax) },
-    clipping: { clippedSamples: clipResult.clippedSamples, events: clipResult.events },
+    peak: {
+      samplePeakDbfs: dbOrNull(Math.max(...m.levels.channels.map((channel) => channel.samplePeak))),
+      truePeakDbtp: dbOrNull(Math.max(...m.truePeak.channelTruePeaks)),
+    },
+    clipping: { clippedSamples: m.clipping.clippedSamples, events: m.clipping.events },
     loudness: {
-      integratedLufs: roundOrNull(loudnessResult.integratedLufs, 3),
-      rangeLu: roundOrNull(loudnessResult.rangeLu, 3),
-      momentaryMaxLufs: roundOrNull(loudnessResult.momentaryMaxLufs, 3),
-      shortTermMaxLufs: roundOrNull(loudnessResult.shortTermMaxLufs, 3),
-      shortTermSeries: loudnessResult.shortTermSeries,
+      integratedLufs: roundOrNull(m.loudness.integratedLufs, 3),
+      rangeLu: roundOrNull(m.loudness.rangeLu, 3),
+      momentaryMaxLufs: roundOrNull(m.loudness.momentaryMaxLufs, 3),
+      shortTermMaxLufs: roundOrNull(m.loudness.shortTermMaxLufs, 3),
+      shortTermSeries: m.loudness.shortTermSeries,
     },
-    noise: { floorDbfs, humHz: noiseResult.humHz },
+    noise: { floorDbfs, humHz: m.noise.humHz },
     bandwidth: {
-      effectiveHz: bandwidth.effectiveHz,
-      impliedSourceRate: bandwidth.impliedSourceRate,
-      nearNyquistDb: bandwidth.nearNyquistDb,
-      aliasingRisk: bandwidth.aliasingRisk,
-      spectrum: bandwidth.spectrum,
+      effectiveHz: m.bandwidth.effectiveHz,
+      impliedSourceRate: m.bandwidth.impliedSourceRate,
+      nearNyquistDb: m.bandwidth.nearNyquistDb,
+      aliasingRisk: m.bandwidth.aliasingRisk,
+      spectrum: m.bandwidth.spectrum,
     },
-    dropouts: dropoutResult.dropouts,
-    dropoutCount: dropoutResult.dropoutCount,
-    stereo: stereoResult && {
-      correlation: roundTo(stereoResult.correlation, 4),
-      identicalChannels: stereoResult.identicalChannels,
-      polarityInverted: stereoResult.polarityInverted,
-      antiPhaseShare: roundTo(stereoResult.antiPhaseShare, 4),
+    dropouts: m.dropouts.dropouts,
+    dropoutCount: m.dropouts.dropoutCount,
+    stereo: m.stereo && {
+      correlation: roundTo(m.stereo.correlation, 4),
+      identicalChannels: m.stereo.identicalChannels,
+      polarityInverted: m.stereo.polarityInverted,
+      antiPhaseShare: roundTo(m.stereo.antiPhaseShare, 4),
     },
-    tone: toneResult,
-    waveform: peaksResult,
+    tone: m.tone,
+    waveform: m.waveform,
     findings: [],
   };
-  report.findings = judgeReport(report, spec);
-  return report;
 }
 
 /**
