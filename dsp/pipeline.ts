@@ -4,7 +4,7 @@ import type { Readable } from 'node:stream';
 import { ClippingAnalyzer, type ClippingResult } from './analyzers/clipping';
 import { DropoutAnalyzer, type DropoutResult } from './analyzers/dropouts';
 import { LevelsAnalyzer, type LevelsResult } from './analyzers/levels';
-import { LoudnessAnalyzer, type LoudnessResult } from './analyzers/loudness';
+import { LoudnessAnalyzer, MIN_LOUDNESS_RATE_HZ, UNMEASURED_LOUDNESS, type LoudnessResult } from './analyzers/loudness';
 import { NoiseFloorAnalyzer, type NoiseFloorResult } from './analyzers/noiseFloor';
 import { SpectrumAnalyzer, type BandwidthResult } from './analyzers/spectrum';
 import { StereoAnalyzer, type StereoResult } from './analyzers/stereo';
@@ -75,7 +75,7 @@ export async function analyzeStream(readable: Readable, options: AnalyzeOptions 
   const tone = new ToneAnalyzer(format);
   const peaks = options.peaksPath ? new WaveformPeaksAnalyzer(format, { outputPath: options.peaksPath }) : null;
   const truePeak = remote ? null : new TruePeakAnalyzer(format);
-  const loudness = remote ? null : new LoudnessAnalyzer(format);
+  const loudness = remote || format.sampleRate < MIN_LOUDNESS_RATE_HZ ? null : new LoudnessAnalyzer(format);
   const clipping = remote ? null : new ClippingAnalyzer(format);
   const local: Analyzer<unknown>[] = [levels, dropouts, spectrum, noise, tone];
   for (const analyzer of [stereo, peaks, truePeak, loudness, clipping]) if (analyzer) local.push(analyzer);
@@ -106,7 +106,7 @@ export async function analyzeStream(readable: Readable, options: AnalyzeOptions 
     levels: levels.finish(),
     clipping: remoteResults?.clipping ?? clipping!.finish(),
     truePeak: remoteResults?.truePeak ?? truePeak!.finish(),
-    loudness: remoteResults?.loudness ?? loudness!.finish(),
+    loudness: remoteResults?.loudness ?? loudness?.finish() ?? UNMEASURED_LOUDNESS,
     dropouts: dropouts.finish(),
     stereo: stereo?.finish() ?? null,
     bandwidth: spectrum.finish(),

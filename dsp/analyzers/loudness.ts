@@ -28,6 +28,18 @@ export interface LoudnessResult {
   shortTermSeries: { stepSec: number; values: (number | null)[] };
 }
 
+/** Lowest sample rate measured, Hz: BS.1770 weighting is defined for wide-band audio [common practice: 8 kHz telephony is the floor]. */
+export const MIN_LOUDNESS_RATE_HZ = 8000;
+
+/** The result for a take whose rate is too low to measure: every figure null. */
+export const UNMEASURED_LOUDNESS: LoudnessResult = {
+  integratedLufs: null,
+  rangeLu: null,
+  momentaryMaxLufs: null,
+  shortTermMaxLufs: null,
+  shortTermSeries: { stepSec: 1, values: [] },
+};
+
 const loudnessOf = (weightedMeanSquare: number) => LOUDNESS_OFFSET_DB + 10 * Math.log10(weightedMeanSquare);
 
 /**
@@ -63,7 +75,7 @@ export class LoudnessAnalyzer implements Analyzer<LoudnessResult> {
    * @param options.channelWeights override of the per-channel weights G_i
    */
   constructor(format: AudioFormat, options: { channelWeights?: ArrayLike<number> } = {}) {
-    if (!(format.sampleRate >= 8000)) throw new RangeError(`Loudness needs a sample rate of at least 8 kHz, got ${format.sampleRate}`);
+    if (!(format.sampleRate >= MIN_LOUDNESS_RATE_HZ)) throw new RangeError(`Loudness needs a sample rate of at least ${MIN_LOUDNESS_RATE_HZ} Hz, got ${format.sampleRate}`);
     if (!(format.channels >= 1)) throw new RangeError('Loudness needs at least one channel');
     this.sampleRate = format.sampleRate;
     this.channelWeights = options.channelWeights

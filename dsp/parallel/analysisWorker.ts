@@ -1,12 +1,12 @@
 import { parentPort } from 'node:worker_threads';
 import { ClippingAnalyzer } from '../analyzers/clipping';
-import { LoudnessAnalyzer } from '../analyzers/loudness';
+import { LoudnessAnalyzer, MIN_LOUDNESS_RATE_HZ, UNMEASURED_LOUDNESS } from '../analyzers/loudness';
 import { TruePeakAnalyzer } from '../analyzers/truePeak';
 import type { FromWorker, ToWorker } from './workerProtocol';
 
 /** Worker side: runs the true-peak, loudness and clipping analyzers on blocks sent by the pipeline. */
 const port = parentPort!;
-let analyzers: { truePeak: TruePeakAnalyzer; loudness: LoudnessAnalyzer; clipping: ClippingAnalyzer } | null = null;
+let analyzers: { truePeak: TruePeakAnalyzer; loudness: LoudnessAnalyzer | null; clipping: ClippingAnalyzer } | null = null;
 
 const send = (message: FromWorker, transfer: ArrayBuffer[] = []) => port.postMessage(message, transfer);
 
@@ -15,18 +15,18 @@ port.on('message', (message: ToWorker) => {
     if (message.kind === 'start') {
       analyzers = {
         truePeak: new TruePeakAnalyzer(message.format),
-        loudness: new LoudnessAnalyzer(message.format),
+        loudness: message.format.sampleRate >= MIN_LOUDNESS_RATE_HZ ? new LoudnessAnalyzer(message.format) : null,
         clipping: new ClippingAnalyzer(message.format),
       };
       send({ kind: 'ready' });
     } else if (message.kind === 'block') {
       const block = { channels: message.channels, frames: message.frames, startFrame: message.startFrame };
       analyzers!.truePeak.push(block);
-      analyzers!.loudness.push(block);
+      analyzers!.loudness?.push(block);
       analyzers!.clipping.push(block);
       send({ kind: 'done', channels: message.channels }, message.channels.map((channel) => channel.buffer as ArrayBuffer));
     } else {
-      send({ kind: 'results', truePeak: analyzers!.truePeak.finish(), loudness: analyzers!.loudness.finish(), clipping: analyzers!.clipping.finish() });
+      send({ kind: 'results', truePeak: analyzers!.truePeak.finish(), loudness: analyzers!.loudness?.finish() ?? UNMEASURED_LOUDNESS, clipping: analyzers!.clipping.finish() });
     }
   } catch (error) {
     send({ kind: 'failed', message: error instanceof Error ? error.message : String(error) });

@@ -97,6 +97,12 @@ describe('report details', () => {
     expect(report.findings.some((finding) => finding.check === 'container' && finding.severity === 'warn')).toBe(true);
   });
 
+  it('a take at a rate too low for loudness (4 kHz) is still analysed, with loudness null', async () => {
+    const report = await analyzeStream(bufferStream(wavFile({ sampleRate: 4000, channels: 1, coding: 'pcm16' }, encodeSamples([sine(300, 0.5, 3, 4000)], 'pcm16'))));
+    expect(report.loudness.integratedLufs).toBeNull();
+    expect(report.peak.samplePeakDbfs!).toBeCloseTo(-6.02, 1);
+  });
+
   it('an unreadable stream rejects with UnreadableWavError', async () => {
     await expect(analyzeStream(Readable.from([Buffer.from('not a wav file at all')]))).rejects.toBeInstanceOf(UnreadableWavError);
   });
