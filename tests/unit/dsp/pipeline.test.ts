@@ -72,6 +72,23 @@ describe('cross-checks on 40 s of programme-like material against ffmpeg and sox
   });
 });
 
+describe('effective bits against sox', () => {
+  // sox stats "Bit-depth a/b": a = bits from the highest to the lowest bit any sample uses (b is sox's own precision guess). For a take
+  // peaking near full scale that equals container bits minus unused low bits, the figure Takeproof reports.
+  it.each([
+    [16, 'pcm24' as const],
+    [20, 'pcm24' as const],
+    [24, 'pcm24' as const],
+  ])('a near-full-scale take quantised to %i bits in %s', async (bits, coding) => {
+    const step = 2 ** (bits - 1);
+    const signal = sine(997, 0.95, 2, RATE, 0.2).map((x) => Math.round(x * step) / step);
+    const path = temp.write(`bits-${bits}.wav`, wavFile({ sampleRate: RATE, channels: 1, coding }, encodeSamples([signal], coding)));
+    const report = await analyzeFile(path);
+    expect(report.resolution.effectiveBits).toBe(bits);
+    expect(soxStats(path).get('Bit-depth')![0].split('/')[0]).toBe(String(bits));
+  });
+});
+
 describe('report details', () => {
   it('a mono take has no stereo section; noise-limited bits follow the floor', async () => {
     const report = await analyzeStream(bufferStream(wavFile({ sampleRate: RATE, channels: 1, coding: 'pcm16' }, encodeSamples([sine(997, 0.25, 3, RATE)], 'pcm16'))));
