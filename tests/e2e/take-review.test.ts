@@ -44,16 +44,32 @@ describe('the take review page', () => {
     await clipRegion.first().waitFor({ state: 'attached', timeout: 30_000 });
     await expect(clipRegion.first().getAttribute('data-severity')).resolves.toBe('fail');
     await expect(clipRegion.first().textContent()).resolves.toContain('Clip R');
-    const box = await clipRegion.first().evaluate((el) => {
-      const r = el.getBoundingClientRect();
-      return { width: r.width, height: r.height, bg: getComputedStyle(el).backgroundColor, parent: el.parentElement?.getBoundingClientRect().height, html: el.outerHTML.slice(0, 400) };
-    });
-    console.log('clip region', JSON.stringify(box));
     // It sits on the right channel's lane, over the clipped stretch.
     await clipRegion.first().waitFor({ state: 'visible', timeout: 10_000 });
+    const lanes = await clipRegion.first().evaluate((el) => {
+      const region = el.getBoundingClientRect();
+      const all = el.parentElement!.getBoundingClientRect();
+      return { topShare: (region.top - all.top) / all.height, heightShare: region.height / all.height, widthShare: region.width / all.width };
+    });
+    expect(lanes.topShare).toBeCloseTo(0.5, 1);
+    expect(lanes.heightShare).toBeCloseTo(0.5, 1);
+    // 0.3 s of an 8 s take.
+    expect(lanes.widthShare).toBeCloseTo(0.3 / 8, 2);
     await expect(page.locator('[data-testid=waveform] [data-kind=dropout]').count()).resolves.toBe(1);
     // The waveform was drawn from server peaks: canvases exist and the full file was never fetched whole.
     await expect(page.locator('[data-testid=waveform] canvas').count()).resolves.toBeGreaterThan(0);
+
+    // Zooming in widens the waveform past the view; zooming out fits the whole take again.
+    const scrollWidth = () => page.locator('[data-testid=waveform] .scroll').evaluate((el) => el.scrollWidth / el.clientWidth);
+    expect(await scrollWidth()).toBeCloseTo(1, 1);
+    for (let i = 0; i < 4; i++) await page.getByRole('button', { name: 'Zoom in' }).click();
+    await expect(page.getByTestId('zoom-level').textContent()).resolves.toBe('200 px/s');
+    await page.waitForFunction(() => {
+      const el = document.querySelector('[data-testid=waveform]')?.firstElementChild?.shadowRoot?.querySelector('.scroll');
+      return !!el && el.scrollWidth > 1.5 * el.clientWidth;
+    });
+    for (let i = 0; i < 4; i++) await page.getByRole('button', { name: 'Zoom out' }).click();
+    await expect(page.getByTestId('zoom-level').textContent()).resolves.toBe('Whole take');
 
     // The findings list names them in time order.
     const findings = page.getByTestId('findings-list').getByRole('button');
