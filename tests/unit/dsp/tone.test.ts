@@ -132,6 +132,16 @@ describe('ToneAnalyzer: finding the tone', () => {
     expect(analyse([take])).toBeNull();
   });
 
+  it('searches the first eight channels of a wide take, within its buffer cap', () => {
+    const take = concat(sine(FS * 2, FS, 997, 0.1), speechLike(FS * 3, FS, 0.3, 19));
+    const channels = Array.from({ length: 12 }, (_, c) => (c === 3 ? take : speechLike(take.length, FS, 0.3, 20 + c)));
+    const r = analyse(channels)!;
+    expect(r.channel).toBe(3);
+    expect(Math.abs(r.endSec - 2)).toBeLessThan(0.01);
+    const beyond = Array.from({ length: 12 }, (_, c) => (c === 10 ? take : speechLike(take.length, FS, 0.3, 40 + c)));
+    expect(analyse(beyond)).toBeNull();
+  });
+
   it('measures the channel carrying the tone', () => {
     const left = speechLike(FS * 5, FS, 0.3, 16);
     const right = concat(sine(FS * 2, FS, 1000, 0.3), speechLike(FS * 3, FS, 0.3, 17));
