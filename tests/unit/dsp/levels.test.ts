@@ -11,7 +11,7 @@ const levelsOfWav = (coding: SampleCoding, channels: Float64Array[], extras: { e
   analyzeWavBuffer(wavFile({ sampleRate: RATE, channels: channels.length, coding, ...extras }, encodeSamples(channels, coding)), (format) => new LevelsAnalyzer(format));
 
 describe('levels', () => {
-  // Report contract / AES17-style convention A: RMS re a full-scale square wave, so a full-scale sine reads -3.01 dBFS.
+  // Report contract: RMS re a full-scale square wave (convention A in Reiss & McPherson, Audio Effects, 2014), so a full-scale sine reads -3.01 dBFS.
   it('reads a full-scale sine at 0 dBFS peak and -3.01 dBFS RMS', () => {
     const [channel] = runAnalyzer(new LevelsAnalyzer(formatOf(RATE, 1)), [sine(997, 1, 2, RATE, 0.3)]).channels;
     expect(20 * Math.log10(channel.samplePeak)).toBeCloseTo(0, 3);
