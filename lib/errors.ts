@@ -13,6 +13,7 @@ export const ERROR_KINDS = {
   unsatisfiable: { status: 416, message: 'That part of the file does not exist.' },
   unsupported: { status: 415, message: 'This kind of file is not accepted here.' },
   rate_limited: { status: 429, message: 'Too many attempts. Please wait and try again.' },
+  insufficient_storage: { status: 507, message: 'Takeproof’s storage is full. Nothing was kept; ask the studio manager to free space.' },
   unavailable: { status: 503, message: 'Takeproof cannot reach its database right now. Try again in a moment.' },
   internal: { status: 500, message: 'Something went wrong on our side. It has been logged.' },
 } as const;

@@ -68,6 +68,22 @@ function isWavHead(head: Buffer): boolean {
   return WAV_MAGIC.has(head.toString('latin1', 0, 4)) && head.toString('latin1', 8, 12) === 'WAVE';
 }
 
+/** Most of a refused upload that is still read (and thrown away) so the client receives the answer. */
+const MAX_DRAIN_BYTES = 256 * 1024 * 1024;
+
+/**
+ * Keeps reading a refused request body into nothing, so the client gets the error answer instead
+ * of a reset connection; a body larger than MAX_DRAIN_BYTES is cut off.
+ */
+function drainThenDrop(source: Readable): void {
+  let drained = 0;
+  source.on('data', (chunk: Buffer) => {
+    drained += chunk.length;
+    if (drained > MAX_DRAIN_BYTES) source.destroy();
+  });
+  source.resume();
+}
+
 interface StoredFile {
   key: string;
   originalName: string;
@@ -103,7 +119,7 @@ export async function receiveTakes(actor: Actor, sessionId: number, request: Req
         if (settled) return;
         settled = true;
         source.unpipe(parser);
-        source.destroy();
+        drainThenDrop(source);
         reject(error);
       };
       let chain = Promise.resolve();

@@ -58,14 +58,16 @@ VITEST=(npx vitest run --config tests/vitest.config.ts)
 fast=$?
 "${VITEST[@]}" --project=browser --passWithNoTests --reporter=default --reporter=json --outputFile.json="$TEST_DIR/browser.json" "$@"
 browser=$?
+"${VITEST[@]}" --project=faults --passWithNoTests --reporter=default --reporter=json --outputFile.json="$TEST_DIR/faults.json" "$@"
+faults=$?
 
 TEST_DIR="$TEST_DIR" node -e '
   const fs = require("fs"); let passed = 0, failed = 0, skipped = 0;
   const dir = process.env.TEST_DIR;
-  for (const f of [dir + "/fast.json", dir + "/browser.json"]) {
+  for (const f of [dir + "/fast.json", dir + "/browser.json", dir + "/faults.json"]) {
     if (!fs.existsSync(f)) { failed++; continue; }
     const r = JSON.parse(fs.readFileSync(f, "utf8"));
     passed += r.numPassedTests; failed += r.numFailedTests || (r.success ? 0 : 1); skipped += r.numPendingTests + r.numTodoTests;
   }
   console.log(`\nTakeproof: ${passed} passed, ${failed} failed, ${skipped} skipped`);'
-[ $fast -eq 0 ] && [ $browser -eq 0 ]
+[ $fast -eq 0 ] && [ $browser -eq 0 ] && [ $faults -eq 0 ]

@@ -4,6 +4,7 @@ import { mkdir, opendir, rename, stat, unlink } from 'node:fs/promises';
 import path from 'node:path';
 import type { Readable } from 'node:stream';
 import { pipeline } from 'node:stream/promises';
+import { AppError } from '@/lib/errors';
 import type { ByteRange, StorageDriver } from './types';
 
 const PARTIAL_SUFFIX = '.partial';
@@ -28,6 +29,8 @@ export class LocalDiskStorage implements StorageDriver {
       await rename(partial, target);
     } catch (error) {
       await unlink(partial).catch(() => undefined);
+      const code = (error as NodeJS.ErrnoException).code;
+      if (code === 'ENOSPC' || code === 'EDQUOT') throw new AppError('insufficient_storage:storage');
       throw error;
     }
     return { bytes: (await stat(target)).size };

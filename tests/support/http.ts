@@ -16,6 +16,8 @@ export type DemoPerson = keyof typeof DEMO;
 export class Client {
   private cookies = new Map<string, string>();
 
+  constructor(private readonly baseUrl: string = BASE_URL) {}
+
   cookieHeader() {
     return [...this.cookies].map(([k, v]) => `${k}=${v}`).join('; ');
   }
@@ -33,7 +35,7 @@ export class Client {
     const headers = new Headers(rest.headers);
     if (this.cookies.size) headers.set('cookie', this.cookieHeader());
     if (json !== undefined) headers.set('content-type', 'application/json');
-    const response = await fetch(BASE_URL + path, { redirect: 'manual', ...rest, headers, body: json !== undefined ? JSON.stringify(json) : rest.body });
+    const response = await fetch(this.baseUrl + path, { redirect: 'manual', ...rest, headers, body: json !== undefined ? JSON.stringify(json) : rest.body });
     this.keepCookies(response);
     return response;
   }

@@ -68,7 +68,7 @@ function noiseBytes(n: number, seed: number): Buffer {
 }
 
 /** 0.05 s of quiet 24-bit stereo audio. */
-const AUDIO = noiseBytes(2400 * 6, 7).map((b, i) => (i % 3 === 2 ? (b & 1 ? 0xff : 0x00) : b));
+const AUDIO = Buffer.from(noiseBytes(2400 * 6, 7).map((b, i) => (i % 3 === 2 ? (b & 1 ? 0xff : 0x00) : b)));
 
 export interface MalformedCase {
   name: string;
