@@ -16,7 +16,7 @@ const VERDICT = { pass: '✓ Pass', warn: '▲ Warn', fail: '✕ Fail' } as cons
 const DECISION = { pending: '○ Pending', approved: '● Approved', rejected: '✕ Rejected' } as const;
 
 export default async function RecorderTrendsPage({ params, searchParams }: { params: Promise<{ id: string }>; searchParams: Promise<{ days?: string }> }) {
-  const period = parsePeriod((await searchParams).days) ?? 90;
+  const period = parsePeriod((await searchParams).days ?? '90') ?? 90;
   const { recorder, weeks, takes, alerts } = await loadPage(async () => {
     const actor = await requireActor('fleet:view');
     const raw = Number((await params).id);
