@@ -68,7 +68,7 @@ export function SpecForm({ spec, mode }: { spec: SpecValues; mode: 'create' | 'e
   return (
     <form onSubmit={onSubmit} noValidate aria-label={mode === 'create' ? 'New delivery spec' : 'Edit delivery spec'} className="grid gap-6">
       <p className="rounded-md border border-line bg-sunken p-3 text-sm">
-        <span aria-hidden="true">ⓘ </span>
+        <strong>Note: </strong>
         {SPEC_PRECEDENCE_NOTE}
       </p>
       <div className="grid gap-4 sm:grid-cols-2">

@@ -41,7 +41,7 @@ export const THRESHOLD_FIELDS: ThresholdField[] = [
     unit: '',
     kind: 'boolean',
     explain: 'On: loudness outside the band fails the take (for delivery masters). Off: it only warns (for raw takes that are mixed later).',
-    source: 'Project default: off.',
+    source: 'off (Takeproof project default).',
   },
   {
     key: 'maxTruePeakDbtp',
@@ -58,7 +58,7 @@ export const THRESHOLD_FIELDS: ThresholdField[] = [
     unit: 'bits',
     kind: 'integer',
     explain: 'The number of bits the audio data must really use, in bits; a 24-bit file padded from 16-bit data uses only 16.',
-    source: 'Project default: 20 bits.',
+    source: '20 bits (Takeproof project default).',
   },
   {
     key: 'maxNoiseFloorDbfs',
@@ -67,7 +67,7 @@ export const THRESHOLD_FIELDS: ThresholdField[] = [
     kind: 'number',
     step: 0.5,
     explain: 'The highest RMS level allowed in the quietest passages, in dBFS (decibels relative to full scale).',
-    source: 'Project default: −60 dBFS.',
+    source: '−60 dBFS (Takeproof project default).',
   },
   {
     key: 'maxClipEvents',
@@ -75,7 +75,7 @@ export const THRESHOLD_FIELDS: ThresholdField[] = [
     unit: 'events',
     kind: 'integer',
     explain: 'How many clipping events (runs of flat-topped samples, at or below full scale) a take may have before it fails, counted in events.',
-    source: 'Project default: 0 events.',
+    source: '0 events (Takeproof project default).',
   },
   {
     key: 'maxDcOffset',
@@ -84,7 +84,7 @@ export const THRESHOLD_FIELDS: ThresholdField[] = [
     kind: 'number',
     step: 0.0001,
     explain: 'The largest constant offset allowed, as a fraction of full scale (0.001 is −60 dBFS).',
-    source: 'Project default: 0.001 (−60 dBFS).',
+    source: '0.001, that is −60 dBFS (Takeproof project default).',
   },
   {
     key: 'maxDropouts',
@@ -92,7 +92,7 @@ export const THRESHOLD_FIELDS: ThresholdField[] = [
     unit: 'dropouts',
     kind: 'integer',
     explain: 'How many dropouts (sudden stretches of digital silence or repeated samples) a take may have before it fails, counted in dropouts.',
-    source: 'Project default: 0 dropouts.',
+    source: '0 dropouts (Takeproof project default).',
   },
   {
     key: 'requiredSampleRate',
@@ -108,7 +108,7 @@ export const THRESHOLD_FIELDS: ThresholdField[] = [
     unit: 'bits',
     kind: 'bitDepth',
     explain: 'The container bit depth, in bits, the delivery requires (16, 24 or 32). Leave empty to accept any.',
-    source: 'Project default: any bit depth.',
+    source: 'any bit depth (Takeproof project default).',
   },
   {
     key: 'minBandwidthRatio',
@@ -117,7 +117,7 @@ export const THRESHOLD_FIELDS: ThresholdField[] = [
     kind: 'number',
     step: 0.05,
     explain: 'The lowest effective audio bandwidth before a warning, as a fraction of the declared Nyquist frequency (half the sample rate).',
-    source: 'Project default: 0.8 × Nyquist.',
+    source: '0.8 × Nyquist (Takeproof project default).',
   },
 ];
 

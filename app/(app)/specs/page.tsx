@@ -22,7 +22,7 @@ export default async function SpecsPage() {
       </div>
       <p className="mb-2 max-w-prose text-muted">The thresholds each session’s takes are judged against. A session without a spec uses Takeproof’s defaults.</p>
       <p className="mb-6 max-w-prose rounded-md border border-line bg-sunken p-3 text-sm">
-        <span aria-hidden="true">ⓘ </span>
+        <strong>Note: </strong>
         {SPEC_PRECEDENCE_NOTE}
       </p>
       {specs.length === 0 ? (
