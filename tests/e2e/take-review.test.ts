@@ -38,6 +38,8 @@ describe('the take review page', () => {
 
     // Full-scale clipping: the page warns to lower the monitors before playing.
     await expect(page.getByTestId('hearing-caution').textContent()).resolves.toMatch(/Lower your monitor level/);
+    // …and the player starts turned well down.
+    await expect(page.getByRole('slider', { name: /Volume/ }).inputValue()).resolves.toBe('0.1');
 
     // Regions drawn on the waveform (inside the waveform's shadow DOM), labelled and marked by severity.
     const clipRegion = page.locator('[data-testid=waveform] [data-kind=clip]');

@@ -171,6 +171,14 @@ describe('POST /api/takes/:id/decision', () => {
     expect(take.decidedAt).toBeNull();
   });
 
+  it('records every decision in the audit log, with who made it', async () => {
+    const response = await as.manager.fetch('/api/audit?action=take.decide&subjectType=take');
+    expect(response.status).toBe(200);
+    const events = ((await response.json()).events as { action: string; subjectId: number; actor: { name: string } | null }[]).filter((e) => e.subjectId === takeId);
+    // approve, reject (producer), reopen (manager); the refused attempts left no trace.
+    expect(events.map((e) => e.actor?.name)).toEqual(['Maren Lindqvist', 'Tomasz Okafor', 'Tomasz Okafor']);
+  });
+
   it('refuses engineers (403), strangers (401) and other studios (404)', async () => {
     expect((await decide(as.engineer, takeId, { decision: 'approved' })).status).toBe(403);
     expect((await decide(as.anonymous, takeId, { decision: 'approved' })).status).toBe(401);
