@@ -148,7 +148,8 @@ async function main() {
       const day = (at - start) / DAY_MS;
       const drift = p.trouble === 'drift' && day > p.driftStartDay ? (p.driftDb * (day - p.driftStartDay)) / (365 - p.driftStartDay) : 0;
       const floor = round(p.floor + drift + gauss() * p.spread, 2);
-      const bits = p.trouble === 'lowBits' && random() < 0.6 ? 16 : Math.min(24, Math.max(14, Math.round(Math.min(23, (-floor - 1.76) / 6.02) + gauss() * 0.5)));
+      // Effective bits count the data grid the samples sit on, not the noise: 24 unless a stage runs at 16-bit.
+      const bits = p.trouble === 'lowBits' && random() < 0.6 ? 16 : random() < 0.01 ? 23 : 24;
       const lufs = round(-23 + gauss() * 2.5, 2);
       const tp = round(lufs + 14 + gauss() * 3.5, 2);
       const belowFs = p.trouble === 'preamp' && random() < 0.4 ? 1 + Math.floor(random() * 6) : random() < 0.01 ? 1 : 0;
