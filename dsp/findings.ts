@@ -178,7 +178,9 @@ export function judgeReport(report: AnalysisReport, spec: DeliverySpec): Finding
 
   // silent channels
   const silentChannels = report.channels.map((channel, index) => (channel.silent ? index : -1)).filter((index) => index >= 0);
-  if (silentChannels.length === channelCount) {
+  if (report.file.frames === 0) {
+    add({ check: 'container', severity: 'fail', message: 'The file holds no audio at all.' });
+  } else if (silentChannels.length === channelCount) {
     add({ check: 'silent-channel', severity: 'fail', message: 'The whole take is silent: no channel carries a signal.' });
   } else {
     for (const index of silentChannels) {

@@ -190,7 +190,8 @@ export async function openWav(readable: Readable, options: OpenWavOptions = {}):
     declaredDataBytes: plan.declaredBytes,
     channelMask: fmt.channelMask,
   };
-  if (container === 'RIFF' && (riffSizeField === 0 || riffSizeField === SIZE_IN_DS64)) {
+  // With the data size also missing, the data-size note below says it all.
+  if (container === 'RIFF' && plan.declaredBytes !== null && (riffSizeField === 0 || riffSizeField === SIZE_IN_DS64)) {
     issues.push('The RIFF size field was never filled in, as happens when a recording is not closed properly.');
   }
   if (container === 'RF64' && !ds64) issues.push('The file is marked RF64 but has no ds64 chunk with the 64-bit sizes.');
@@ -228,7 +229,9 @@ export async function openWav(readable: Readable, options: OpenWavOptions = {}):
         framesDecoded += frames;
         yield block;
       }
-      if (plan.declaredBytes === null) {
+      if (plan.declaredBytes === null && audioBytes === 0) {
+        issues.push('The data chunk is empty: the file holds no audio.');
+      } else if (plan.declaredBytes === null) {
         issues.push(`The header does not record the audio's length (data size ${ds64 || container === 'RF64' ? 'missing' : 'is 0 or 0xFFFFFFFF'}), as a recorder leaves it when it stops without closing the file; the ${formatBytes(audioBytes)} present were analysed.`);
       } else if (audioBytes < plan.declaredBytes) {
         audioCutShort = true;

@@ -120,6 +120,15 @@ describe('judgeReport', () => {
     expect(allSilent[0].message).toMatch(/whole take is silent/);
   });
 
+  it('a file without audio fails as a container problem, not as silence', () => {
+    const findings = judge((r) => {
+      r.file.frames = 0;
+      r.channels.forEach((channel) => (channel.silent = true));
+    });
+    expect(only(findings, 'container')).toEqual([{ check: 'container', severity: 'fail', message: 'The file holds no audio at all.' }]);
+    expect(only(findings, 'silent-channel')).toEqual([]);
+  });
+
   it('stereo: identical channels, inverted polarity, sustained anti-phase', () => {
     expect(only(judge((r) => (r.stereo!.identicalChannels = true)), 'stereo')[0].message).toMatch(/mono take in a stereo file/);
     expect(only(judge((r) => Object.assign(r.stereo!, { polarityInverted: true, correlation: -0.93 })), 'stereo')[0]).toMatchObject({ severity: 'warn', message: expect.stringMatching(/opposite polarity \(correlation -0.93\)/) });
