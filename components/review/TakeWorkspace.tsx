@@ -250,7 +250,10 @@ export function TakeWorkspace({ takeId, durationSec, channels, markers, comments
         event.preventDefault();
         void ws.playPause().catch(() => undefined);
       } else if (event.key === 'ArrowRight' || event.key === 'ArrowLeft') {
-        const from = selected !== null && markersRef.current[selected] ? markersRef.current[selected].startSec : ws.getCurrentTime() + 1;
+        // From the selected finding while the playhead is still on it, else from the playhead.
+        const now = ws.getCurrentTime();
+        const current = selected !== null ? markersRef.current[selected] : undefined;
+        const from = current && now >= cueTime(current.startSec) - 0.1 && now <= current.endSec + 0.5 ? current.startSec : now;
         const index = neighbourMarker(markersRef.current, from, event.key === 'ArrowRight' ? 1 : -1);
         if (index === null) return;
         event.preventDefault();
