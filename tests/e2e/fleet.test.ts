@@ -44,7 +44,7 @@ describe('the fleet in the browser', () => {
 
     // The overview lists the alert for the manager.
     const alertsSection = page.getByRole('region', { name: 'Fleet alerts' });
-    await expect(alertsSection.getByRole('link', { name: DRIFTING }).isVisible()).resolves.toBe(true);
+    await alertsSection.getByRole('link', { name: DRIFTING }).waitFor({ timeout: 15_000 });
 
     await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Fleet' }).click();
     await page.waitForURL(`${BASE_URL}/fleet`);
