@@ -2,7 +2,7 @@
 
 import { useRef, useState } from 'react';
 import { useSWRConfig } from 'swr';
-import { formatBytes } from '@/lib/format';
+import { cleanFileName, formatBytes } from '@/lib/format';
 import type { Option } from './SessionCreateForm';
 
 interface Upload {
@@ -59,7 +59,8 @@ export function TakeUploader({ sessionId, recorders, takesKey }: { sessionId: nu
       xhr.onabort = () => patch(upload.id, { state: 'cancelled', message: 'Cancelled. Nothing was kept.' });
       const form = new FormData();
       if (recorderId) form.append('recorderId', recorderId);
-      form.append('file', file, file.name);
+      // Multipart headers may not carry control characters, which some file systems allow in names.
+      form.append('file', file, cleanFileName(file.name));
       xhr.send(form);
       setUploads((all) => [upload, ...all]);
     }

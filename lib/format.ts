@@ -27,3 +27,10 @@ export function formatBytes(n: number): string {
   if (n >= 1024) return `${Math.round(n / 1024)} KB`;
   return `${n} B`;
 }
+
+/** Removes control characters and caps the length; a take's name is only ever shown, never used as a path. */
+export function cleanFileName(name: string): string {
+  // eslint-disable-next-line no-control-regex
+  const cleaned = name.replace(/[\u0000-\u001f\u007f-\u009f]/g, '').trim();
+  return (cleaned || 'unnamed.wav').slice(0, 512);
+}

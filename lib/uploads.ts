@@ -8,7 +8,7 @@ import { audit } from './audit';
 import type { Actor } from './auth/guard';
 import { db } from './db';
 import { env } from './env';
-import { formatBytes } from './format';
+import { cleanFileName, formatBytes } from './format';
 import { AppError } from './errors';
 import { findSession } from './sessions';
 import { newTakeKey, storage } from './storage';
@@ -16,13 +16,6 @@ import { toTakeSummary, type TakeSummary } from './takeViews';
 
 const WAV_MAGIC = new Set(['RIFF', 'RF64', 'BW64']);
 const MULTIPART_OVERHEAD = 1024 * 1024;
-
-/** Removes control characters and caps the length; the name is only ever shown, never used as a path. */
-export function cleanFileName(name: string): string {
-  // eslint-disable-next-line no-control-regex
-  const cleaned = name.replace(/[\u0000-\u001f\u007f-\u009f]/g, '').trim();
-  return (cleaned || 'unnamed.wav').slice(0, 512);
-}
 
 /** Counts, hashes and checks the bytes of one uploaded file as they stream past. */
 class UploadCheck extends Transform {
@@ -125,7 +118,8 @@ export async function receiveTakes(actor: Actor, sessionId: number, request: Req
       let chain = Promise.resolve();
       let parser: busboy.Busboy;
       try {
-        parser = busboy({ headers: { 'content-type': contentType }, limits: { files: 50, fields: 20, fieldSize: 1024 } });
+        // preservePath: keep the name as sent (it is only shown); busboy would otherwise cut it at the last slash.
+        parser = busboy({ headers: { 'content-type': contentType }, preservePath: true, limits: { files: 50, fields: 20, fieldSize: 1024 } });
       } catch {
         throw new AppError('invalid:upload', 'The multipart body could not be read.');
       }
@@ -152,7 +146,9 @@ export async function receiveTakes(actor: Actor, sessionId: number, request: Req
         });
         chain.catch(fail);
       });
-      parser.on('error', () => fail(new AppError('invalid:upload', 'The multipart body could not be read.')));
+      parser.on('error', () =>
+        fail(new AppError('invalid:upload', 'The upload could not be read. A file name may hold characters that are not allowed (control characters); rename the file and try again.')),
+      );
       parser.on('close', () => {
         chain.then(() => {
           if (!settled) {

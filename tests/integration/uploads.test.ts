@@ -154,6 +154,32 @@ describe('POST /api/sessions/:id/takes', () => {
     expect(await takeCount()).toBe(before);
   });
 
+  it('stores a hostile file name harmlessly: shown without control characters, never used as a path', async () => {
+    const hostile = `../../etc/passwd\t\r\n<script>alert(1)</script>${'x'.repeat(500)}.wav`;
+    const filesBefore = new Set(storedFiles());
+    const { status, body } = await uploadTakes(as.engineer, sessionId, [{ name: hostile, bytes: makeWav({ seconds: 0.5, seed: 91 }) }]);
+    expect(status, JSON.stringify(body)).toBe(201);
+    const name: string = body.takes[0].originalName;
+    expect(name).not.toMatch(/[\u0000-\u001f]/);
+    expect(name.length).toBeLessThanOrEqual(512);
+    // (FormData sends CR LF as %0D%0A, as browsers do.)
+    expect(name.slice(0, 50)).toBe('../../etc/passwd%0D%0A<script>alert(1)</script>xxx');
+    // The stored file got a generated key inside the storage folder, whatever the name said.
+    const appeared = storedFiles().filter((f) => !filesBefore.has(f));
+    expect(appeared).toHaveLength(1);
+    expect(path.relative(storageDir, appeared[0])).toMatch(/^takes\/\d{4}\/\d{2}\/[0-9a-f-]{36}\.wav$/);
+    // The session page shows it as text, not markup.
+    const html = await (await as.engineer.fetch(`/sessions/${sessionId}`)).text();
+    expect(html).not.toContain('<script>alert(1)</script>');
+    expect(html).toContain('&lt;script&gt;alert(1)&lt;/script&gt;');
+  });
+
+  it('refuses a multipart header with raw control characters in plain words', async () => {
+    const { status, body } = await uploadTakes(as.engineer, sessionId, [{ name: 'bell\u0007.wav', bytes: makeWav({ seconds: 0.5, seed: 92 }) }]);
+    expect(status).toBe(400);
+    expect(body.message).toMatch(/rename the file/);
+  });
+
   it('answers 401 signed out, 403 for a producer and 404 for another studio', async () => {
     const file = [{ name: 'x.wav', bytes: makeWav({ seconds: 0.5, seed: 51 }) }];
     expect((await uploadTakes(as.anonymous, sessionId, file)).status).toBe(401);
