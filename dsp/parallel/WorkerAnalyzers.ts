@@ -2,8 +2,8 @@ import { Worker } from 'node:worker_threads';
 import type { AudioFormat, SampleBlock } from '../types';
 import type { FromWorker, ToWorker } from './workerProtocol';
 
-/** Blocks in flight to the worker before the reader waits (bounds memory: each is one block of audio). */
-const MAX_BLOCKS_IN_FLIGHT = 4;
+/** Blocks in flight to the worker before the reader waits: deep enough that one thread being descheduled does not stall the other, bounded because each holds one block of audio (up to 4 MiB). */
+const MAX_BLOCKS_IN_FLIGHT = 12;
 /** Longest wait for the worker to start, ms; past it the analysis runs on one thread. */
 const START_TIMEOUT_MS = 15_000;
 
