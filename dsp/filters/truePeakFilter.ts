@@ -14,10 +14,7 @@ export const TRUE_PEAK_TAPS_PER_PHASE = 12;
 /** Largest sum of |h| over the phases: no interpolated value can exceed this times the largest |x| in its window. */
 export const TRUE_PEAK_MAX_GAIN = Math.max(...TRUE_PEAK_PHASES.map((phase) => phase.reduce((sum, tap) => sum + Math.abs(tap), 0)));
 
-/** Taps 5 and 6 carry most of each phase's weight (the samples either side of the interpolated point). */
-export const TRUE_PEAK_CENTRE_TAPS = [5, 6] as const;
-
-/** Largest |h5| + |h6| over the phases. */
+/** Largest |h5| + |h6| over the phases: taps 5 and 6 (the samples either side of the interpolated point) carry most of each phase's weight. */
 export const TRUE_PEAK_CENTRE_GAIN = Math.max(...TRUE_PEAK_PHASES.map((phase) => Math.abs(phase[5]) + Math.abs(phase[6])));
 
 /** Largest sum of |h| over the other ten taps of a phase. */
