@@ -119,7 +119,8 @@ export async function receiveTakes(actor: Actor, sessionId: number, request: Req
       let parser: busboy.Busboy;
       try {
         // preservePath: keep the name as sent (it is only shown); busboy would otherwise cut it at the last slash.
-        parser = busboy({ headers: { 'content-type': contentType }, preservePath: true, limits: { files: 50, fields: 20, fieldSize: 1024 } });
+        // defParamCharset: browsers send file names as UTF-8.
+        parser = busboy({ headers: { 'content-type': contentType }, preservePath: true, defParamCharset: 'utf8', limits: { files: 50, fields: 20, fieldSize: 1024 } });
       } catch {
         throw new AppError('invalid:upload', 'The multipart body could not be read.');
       }
