@@ -1,0 +1,181 @@
+import { readFileSync, readdirSync, statSync } from 'node:fs';
+import path from 'node:path';
+import { beforeAll, describe, expect, it } from 'vitest';
+import { signedInAll, type Client } from '../support/http';
+import { makeWav, newSession, uploadTakes, waitForTake } from '../support/takes';
+
+/**
+ * Every route handler, every person: the exact status each one gets. A route file or method
+ * without a row here fails the suite, so a new route cannot ship without its access rules.
+ * Rows run in the order anonymous, outsider (a manager of another studio), engineer, producer, manager.
+ */
+type Persona = 'anonymous' | 'outsider' | 'engineer' | 'producer' | 'manager';
+const PERSONAS: Persona[] = ['anonymous', 'outsider', 'engineer', 'producer', 'manager'];
+
+interface Fixtures {
+  sessionId: number;
+  takeId: number;
+  recorderId: number;
+  specId: number;
+  inviteeId: number;
+  deliveryId: number;
+  outboxId: string;
+}
+
+interface Row {
+  path: (f: Fixtures) => string;
+  body?: (f: Fixtures, who: Persona) => unknown;
+  form?: (who: Persona) => FormData;
+  /** Runs before each person's request (e.g. to wait until a take is measured again). */
+  before?: (f: Fixtures) => Promise<void>;
+  expect: Record<Persona, number>;
+}
+
+// Collections answer 200 to a manager of another studio: they list that studio's own things.
+const anyone = { anonymous: 401, outsider: 200, engineer: 200, producer: 200, manager: 200 };
+const studioObject = { anonymous: 401, outsider: 404, engineer: 200, producer: 200, manager: 200 };
+const managersOnly = { anonymous: 401, outsider: 200, engineer: 403, producer: 403, manager: 200 };
+const managersObject = { anonymous: 401, outsider: 404, engineer: 403, producer: 403, manager: 200 };
+let uniq = 0;
+const unique = (who: Persona) => `${who}-${Date.now().toString(36)}-${uniq++}`;
+
+const MATRIX: Record<string, Row> = {
+  'GET /api/auth/[...nextauth]': { path: () => '/api/auth/csrf', expect: { anonymous: 200, outsider: 200, engineer: 200, producer: 200, manager: 200 } },
+  // Without its CSRF token next-auth signs nobody out: it redirects to its confirmation step, whoever asks.
+  'POST /api/auth/[...nextauth]': { path: () => '/api/auth/signout', body: () => ({}), expect: { anonymous: 302, outsider: 302, engineer: 302, producer: 302, manager: 302 } },
+
+  'GET /api/sessions': { path: () => '/api/sessions', expect: anyone },
+  'POST /api/sessions': { path: () => '/api/sessions', body: (_f, who) => ({ title: `Matrix ${unique(who)}` }), expect: { anonymous: 401, outsider: 201, engineer: 201, producer: 403, manager: 201 } },
+  'GET /api/sessions/[id]': { path: (f) => `/api/sessions/${f.sessionId}`, expect: studioObject },
+  'PATCH /api/sessions/[id]': { path: (f) => `/api/sessions/${f.sessionId}`, body: () => ({ notes: 'Checked by the access matrix.' }), expect: studioObject },
+  'GET /api/sessions/[id]/takes': { path: (f) => `/api/sessions/${f.sessionId}/takes`, expect: studioObject },
+  'POST /api/sessions/[id]/takes': {
+    path: (f) => `/api/sessions/${f.sessionId}/takes`,
+    form: (who) => {
+      const form = new FormData();
+      form.append('file', new Blob([new Uint8Array(makeWav({ seconds: 0.2, seed: 4000 + PERSONAS.indexOf(who) }))]), `${who}.wav`);
+      return form;
+    },
+    expect: { anonymous: 401, outsider: 404, engineer: 201, producer: 403, manager: 201 },
+  },
+  'GET /api/sessions/[id]/report': { path: (f) => `/api/sessions/${f.sessionId}/report`, expect: { anonymous: 401, outsider: 404, engineer: 403, producer: 200, manager: 200 } },
+  'POST /api/sessions/[id]/report': {
+    path: (f) => `/api/sessions/${f.sessionId}/report`,
+    body: () => ({ to: ['matrix-reader@demo.test'], message: 'Access check.' }),
+    expect: { anonymous: 401, outsider: 404, engineer: 403, producer: 202, manager: 202 },
+  },
+  'GET /api/sessions/[id]/report.pdf': { path: (f) => `/api/sessions/${f.sessionId}/report.pdf`, expect: studioObject },
+  'GET /api/sessions/[id]/report.csv': { path: (f) => `/api/sessions/${f.sessionId}/report.csv`, expect: studioObject },
+
+  'GET /api/takes/[id]': { path: (f) => `/api/takes/${f.takeId}`, expect: studioObject },
+  'POST /api/takes/[id]/remeasure': {
+    path: (f) => `/api/takes/${f.takeId}/remeasure`,
+    before: async (f) => void (await waitForTake(as.manager, f.takeId)),
+    expect: { anonymous: 401, outsider: 404, engineer: 202, producer: 403, manager: 202 },
+  },
+  'GET /api/takes/[id]/audio': { path: (f) => `/api/takes/${f.takeId}/audio`, expect: studioObject },
+  'GET /api/takes/[id]/peaks': { path: (f) => `/api/takes/${f.takeId}/peaks`, expect: studioObject },
+  'GET /api/takes/[id]/comments': { path: (f) => `/api/takes/${f.takeId}/comments`, expect: studioObject },
+  'POST /api/takes/[id]/comments': { path: (f) => `/api/takes/${f.takeId}/comments`, body: () => ({ atSec: 0.1, body: 'Access check.' }), expect: { anonymous: 401, outsider: 404, engineer: 201, producer: 201, manager: 201 } },
+  'POST /api/takes/[id]/decision': { path: (f) => `/api/takes/${f.takeId}/decision`, body: () => ({ decision: 'rejected', note: 'Access check.' }), expect: { anonymous: 401, outsider: 404, engineer: 403, producer: 200, manager: 200 } },
+
+  'GET /api/recorders': { path: () => '/api/recorders', expect: managersOnly },
+  'POST /api/recorders': { path: () => '/api/recorders', body: (_f, who) => ({ label: `Matrix ${unique(who)}` }), expect: { ...managersOnly, outsider: 201, manager: 201 } },
+  'GET /api/recorders/[id]': { path: (f) => `/api/recorders/${f.recorderId}`, expect: managersObject },
+  'PATCH /api/recorders/[id]': { path: (f) => `/api/recorders/${f.recorderId}`, body: () => ({ notes: 'Checked by the access matrix.' }), expect: managersObject },
+
+  'GET /api/specs': { path: () => '/api/specs', expect: managersOnly },
+  'POST /api/specs': { path: () => '/api/specs', body: (_f, who) => ({ name: `Matrix ${unique(who)}` }), expect: { ...managersOnly, outsider: 201, manager: 201 } },
+  'GET /api/specs/[id]': { path: (f) => `/api/specs/${f.specId}`, expect: managersObject },
+  'PATCH /api/specs/[id]': { path: (f) => `/api/specs/${f.specId}`, body: () => ({ description: 'Checked by the access matrix.' }), expect: managersObject },
+  'POST /api/specs/[id]/duplicate': { path: (f) => `/api/specs/${f.specId}/duplicate`, body: (_f, who) => ({ name: `Matrix copy ${unique(who)}` }), expect: { ...managersObject, manager: 201 } },
+
+  'GET /api/fleet': { path: () => '/api/fleet?days=30', expect: managersOnly },
+  'GET /api/fleet/[id]': { path: (f) => `/api/fleet/${f.recorderId}`, expect: managersObject },
+
+  'GET /api/users': { path: () => '/api/users', expect: managersOnly },
+  'POST /api/users': { path: () => '/api/users', body: (_f, who) => ({ email: `matrix-${unique(who)}@demo.test`, name: 'Matrix invitee', role: 'engineer' }), expect: { ...managersOnly, outsider: 201, manager: 201 } },
+  'PATCH /api/users/[id]': { path: (f) => `/api/users/${f.inviteeId}`, body: () => ({ role: 'producer' }), expect: managersObject },
+  'POST /api/users/[id]/invitation': { path: (f) => `/api/users/${f.inviteeId}/invitation`, expect: { ...managersObject, manager: 202 } },
+  // Needs no sign-in, only a valid invitation token: an unknown one is refused alike for everyone.
+  'POST /api/invitations/accept': { path: () => '/api/invitations/accept', body: () => ({ token: 'A'.repeat(43), password: 'long-enough-password' }), expect: { anonymous: 400, outsider: 400, engineer: 400, producer: 400, manager: 400 } },
+
+  'POST /api/deliveries/[id]/retry': { path: (f) => `/api/deliveries/${f.deliveryId}/retry`, expect: { anonymous: 401, outsider: 404, engineer: 403, producer: 409, manager: 409 } },
+  'GET /api/audit': { path: () => '/api/audit', expect: managersOnly },
+  'GET /api/outbox': { path: () => '/api/outbox', expect: managersOnly },
+  'GET /api/outbox/[id]': { path: (f) => `/api/outbox/${f.outboxId}`, expect: managersObject },
+};
+
+/** Every `METHOD /api/...` the app really serves, read from the route files. */
+function discoverRoutes(): string[] {
+  const found: string[] = [];
+  const walk = (dir: string) => {
+    for (const name of readdirSync(dir)) {
+      const full = path.join(dir, name);
+      if (statSync(full).isDirectory()) walk(full);
+      else if (name === 'route.ts') {
+        const source = readFileSync(full, 'utf8');
+        const template = '/' + path.relative('app', path.dirname(full)).split(path.sep).join('/');
+        const methods = new Set<string>();
+        for (const m of source.matchAll(/export const (GET|POST|PUT|PATCH|DELETE)\b/g)) methods.add(m[1]);
+        for (const m of source.matchAll(/export \{([^}]*)\}/g)) for (const n of m[1].matchAll(/as (GET|POST|PUT|PATCH|DELETE)\b/g)) methods.add(n[1]);
+        for (const method of methods) found.push(`${method} ${template}`);
+      }
+    }
+  };
+  walk('app/api');
+  return found.sort();
+}
+
+let as: Record<Persona, Client>;
+let f: Fixtures;
+
+beforeAll(async () => {
+  as = await signedInAll();
+  const sessionId = await newSession(as.manager, 'Access matrix session');
+  const { body } = await uploadTakes(as.engineer, sessionId, [{ name: 'matrix.wav', bytes: makeWav({ seconds: 1, seed: 3999 }) }]);
+  const takeId = body.takes[0].id;
+  await waitForTake(as.engineer, takeId);
+  const post = async (client: Client, url: string, json: unknown) => (await client.fetch(url, { method: 'POST', json })).json();
+  const recorder = await post(as.manager, '/api/recorders', { label: `Matrix fixture ${unique('manager')}` });
+  const spec = await post(as.manager, '/api/specs', { name: `Matrix fixture ${unique('manager')}` });
+  const invited = await post(as.manager, '/api/users', { email: `matrix-fixture-${unique('manager')}@demo.test`, name: 'Matrix fixture', role: 'engineer' });
+  const sent = await post(as.producer, `/api/sessions/${sessionId}/report`, { to: ['matrix-fixture@demo.test'] });
+  const outbox = await (await as.manager.fetch('/api/outbox')).json();
+  f = {
+    sessionId,
+    takeId,
+    recorderId: recorder.id,
+    specId: spec.id,
+    inviteeId: invited.member.id,
+    deliveryId: sent.delivery.id,
+    outboxId: outbox.messages?.[0]?.id ?? outbox[0]?.id,
+  };
+  for (const [k, v] of Object.entries(f)) if (v === undefined || v === null) throw new Error(`Fixture ${k} could not be made`);
+});
+
+describe('access matrix', () => {
+  it('has a row for every route handler and method, and no row for a route that does not exist', () => {
+    const served = discoverRoutes();
+    expect(served.filter((r) => !(r in MATRIX)), 'routes without a row').toEqual([]);
+    expect(Object.keys(MATRIX).filter((r) => !served.includes(r)), 'rows without a route').toEqual([]);
+  });
+
+  for (const [route, row] of Object.entries(MATRIX)) {
+    it(`${route}: ${PERSONAS.map((p) => `${p} ${row.expect[p]}`).join(', ')}`, async () => {
+      const method = route.split(' ')[0];
+      const got: Record<string, number> = {};
+      for (const who of PERSONAS) {
+        await row.before?.(f);
+        const init: RequestInit & { json?: unknown } = { method };
+        if (row.form) init.body = row.form(who);
+        else if (row.body) init.json = row.body(f, who);
+        else if (method !== 'GET') init.json = {};
+        const response = await as[who].fetch(row.path(f), init);
+        got[who] = response.status;
+        await response.arrayBuffer();
+      }
+      expect(got).toEqual(row.expect);
+    });
+  }
+});
