@@ -2,9 +2,8 @@
 // Bounded in count and time; prints errors, p95 latency and whether every uploaded byte arrived.
 // Run with `npm run bench:load` (it starts its own Takeproof).
 import autocannon from 'autocannon';
-import { createHash } from 'node:crypto';
-import http from 'node:http';
 import { Client, DEMO } from '../tests/support/http';
+import { streamGeneratedUpload } from '../tests/support/streamUpload';
 import { makeWav } from '../tests/support/takes';
 
 const base = process.env.TAKEPROOF_TEST_URL!;
@@ -23,45 +22,6 @@ const form = new FormData();
 form.append('file', new Blob([new Uint8Array(makeWav({ seconds: 5, seed: 5150 }))]), 'browse-me.wav');
 const seeded = await (await engineer.fetch(`/api/sessions/${session.id}/takes`, { method: 'POST', body: form })).json();
 const takeId = seeded.takes[0].id;
-
-/** Streams one generated WAV of `bytes` to the upload route; resolves with the sent and stored SHA-256. */
-function upload(index: number): Promise<{ sent: string; stored: string | undefined; status: number }> {
-  const boundary = `takeproofload${index}`;
-  const head = Buffer.from(`--${boundary}\r\nContent-Disposition: form-data; name="file"; filename="load-${index}.wav"\r\nContent-Type: audio/wav\r\n\r\n`);
-  const tail = Buffer.from(`\r\n--${boundary}--\r\n`);
-  const wavHead = makeWav({ seconds: 0 }).subarray(0, 44);
-  const dataBytes = UPLOAD_BYTES - 44 - ((UPLOAD_BYTES - 44) % 6);
-  wavHead.writeUInt32LE(36 + dataBytes, 4);
-  wavHead.writeUInt32LE(dataBytes, 40);
-  const chunk = Buffer.alloc(1024 * 1024);
-  for (let i = 0; i < chunk.length; i++) chunk[i] = ((i + index * 7919) * 2654435761) >>> 24;
-  const hash = createHash('sha256').update(wavHead);
-  return new Promise((resolve, reject) => {
-    const request = http.request(new URL(`/api/sessions/${session.id}/takes`, base), {
-      method: 'POST',
-      headers: { cookie: engineer.cookieHeader(), 'content-type': `multipart/form-data; boundary=${boundary}`, 'content-length': head.length + 44 + dataBytes + tail.length },
-    });
-    request.on('response', (res) => {
-      let body = '';
-      res.on('data', (d) => (body += d));
-      res.on('end', () => resolve({ sent: hash.digest('hex'), stored: JSON.parse(body).takes?.[0]?.sha256, status: res.statusCode ?? 0 }));
-    });
-    request.on('error', reject);
-    request.write(head);
-    request.write(wavHead);
-    let sent = 0;
-    const pump = () => {
-      while (sent < dataBytes) {
-        const piece = dataBytes - sent >= chunk.length ? chunk : chunk.subarray(0, dataBytes - sent);
-        hash.update(piece);
-        sent += piece.length;
-        if (!request.write(piece)) return void request.once('drain', pump);
-      }
-      request.end(tail);
-    };
-    pump();
-  });
-}
 
 const latencies: number[] = [];
 const statuses = new Map<number, number>();
@@ -92,7 +52,7 @@ browsing.on('response', (_client: unknown, statusCode: number, _bytes: number, r
   statuses.set(statusCode, (statuses.get(statusCode) ?? 0) + 1);
 });
 const started = Date.now();
-const uploads = await Promise.all(Array.from({ length: UPLOADS }, (_, i) => upload(i)));
+const uploads = await Promise.all(Array.from({ length: UPLOADS }, (_, i) => streamGeneratedUpload(engineer, base, session.id, UPLOAD_BYTES, `load-${i}.wav`, i + 1)));
 const uploadSeconds = (Date.now() - started) / 1000;
 // Keep browsing a little past the uploads, then stop: the drill is bounded in time either way.
 await new Promise((r) => setTimeout(r, 2000));
