@@ -12,7 +12,7 @@ const FLAT_TOP_RELATIVE_TOLERANCE = 1e-3;
 const FLAT_TOP_LSB_TOLERANCE = 4;
 /** The signal must approach a flat top this many tolerances per sample faster than a rounded (unclipped) peak can [common practice]. */
 const ENTRY_SLOPE_FACTOR = 4;
-/** Flat tops must lie within this many dB of the channel's extreme on that polarity [common practice]. */
+/** Flat tops of one clipping stage lie within this many dB of each other [common practice]. */
 const EXTREME_LEVEL_WINDOW_DB = 0.5;
 /** At least this many flat tops at the extreme make a below-full-scale clip [common practice]. */
 const MIN_FLAT_TOPS = 3;
@@ -57,8 +57,6 @@ class ChannelClipState {
   previous3 = 0;
   /** Whether the previous sample was at a top code (+1 / -1) or not (0). */
   previousAtLimit = 0;
-  positivePeak = 0;
-  negativePeak = 0;
   /** Flat-top candidates merged per polarity (index 0 positive, 1 negative). */
   readonly flatTopGroups: [ClipGroup[], ClipGroup[]] = [[], []];
   readonly positiveHistogram = new Uint32Array(HISTOGRAM_BINS_PER_UNIT + 2);
@@ -71,8 +69,8 @@ class ChannelClipState {
  * - `belowFullScale`: flat tops left by an analogue stage that clipped before the
  *   converter and a gain stage after it. A flat top is a run of >= 3 samples of one
  *   polarity within a small tolerance of each other (converter noise allowed), entered
- *   faster than any rounded peak could be, at the channel's extreme level on that
- *   polarity, where the sample-value histogram shows a spike. A clean take with high
+ *   faster than any rounded peak could be; at least three of them at one level, where
+ *   the sample-value histogram shows a spike. A clean take with high
  *   peaks (a -0.1 dBFS sine, loud noise) has no such flat tops.
  */
 export class ClippingAnalyzer implements Analyzer<ClippingResult> {
@@ -126,8 +124,6 @@ export class ClippingAnalyzer implements Analyzer<ClippingResult> {
     let flatRunBefore2 = state.flatRunBefore2;
     let flatRunReference = state.flatRunReference;
     let flatRunTolerance = Math.max(toleranceFloor, Math.abs(flatRunReference) * FLAT_TOP_RELATIVE_TOLERANCE);
-    let positivePeak = state.positivePeak;
-    let negativePeak = state.negativePeak;
     let previous1 = state.previous1;
     let previous2 = state.previous2;
     let previous3 = state.previous3;
@@ -152,13 +148,8 @@ export class ClippingAnalyzer implements Analyzer<ClippingResult> {
       if (magnitude >= MIN_FLAT_TOP_LEVEL) {
         let bin = (magnitude * HISTOGRAM_BINS_PER_UNIT) | 0;
         if (bin > topBin) bin = topBin;
-        if (x > 0) {
-          if (x > positivePeak) positivePeak = x;
-          positiveHistogram[bin]++;
-        } else {
-          if (magnitude > negativePeak) negativePeak = magnitude;
-          negativeHistogram[bin]++;
-        }
+        if (x > 0) positiveHistogram[bin]++;
+        else negativeHistogram[bin]++;
       }
 
       // Flat-top runs below full scale: same polarity, within tolerance of the run's first sample.
@@ -201,8 +192,6 @@ export class ClippingAnalyzer implements Analyzer<ClippingResult> {
     state.flatRunBefore1 = flatRunBefore1;
     state.flatRunBefore2 = flatRunBefore2;
     state.flatRunReference = flatRunReference;
-    state.positivePeak = positivePeak;
-    state.negativePeak = negativePeak;
     state.previous1 = previous1;
     state.previous2 = previous2;
     state.previous3 = previous3;
@@ -232,6 +221,23 @@ export class ClippingAnalyzer implements Analyzer<ClippingResult> {
     this.addRun(state.flatTopGroups[reference > 0 ? 0 : 1], start, length, magnitude, 2 * tolerance);
   }
 
+  /**
+   * Flat-top candidates grouped by level: each cluster spans at most EXTREME_LEVEL_WINDOW_DB below its
+   * loudest member. A clipping stage flattens every overload at one level, so a real flat top forms
+   * a cluster of its own, whatever else (full-scale clips, louder passages) the channel holds.
+   */
+  private static levelClusters(groups: ClipGroup[]): ClipGroup[][] {
+    const byLevel = [...groups].sort((a, b) => b.level - a.level);
+    const clusters: ClipGroup[][] = [];
+    const ratio = 10 ** (-EXTREME_LEVEL_WINDOW_DB / 20);
+    for (const group of byLevel) {
+      const current = clusters[clusters.length - 1];
+      if (current && group.level >= current[0].level * ratio) current.push(group);
+      else clusters.push([group]);
+    }
+    return clusters;
+  }
+
   /** True when the histogram bins at `level` hold a spike over the bins just below. */
   private static isHistogramSpike(histogram: Uint32Array, level: number, tolerance: number): boolean {
     const low = Math.floor((level - tolerance) * HISTOGRAM_BINS_PER_UNIT);
@@ -253,16 +259,15 @@ export class ClippingAnalyzer implements Analyzer<ClippingResult> {
       if (state.fullScaleRunLength >= MIN_CLIP_RUN) this.addRun(state.fullScaleGroups, state.fullScaleRunStart, state.fullScaleRunLength, 1, Number.POSITIVE_INFINITY);
       const kept: (ClipGroup & { kind: ClipEvent['level'] })[] = state.fullScaleGroups.map((group) => ({ ...group, kind: 'fullScale' as const }));
       for (const polarity of [0, 1] as const) {
-        const extreme = polarity === 0 ? state.positivePeak : state.negativePeak;
-        const floorLevel = extreme * 10 ** (-EXTREME_LEVEL_WINDOW_DB / 20);
-        const atExtreme = state.flatTopGroups[polarity].filter((group) => group.level >= floorLevel);
-        const flatTops = atExtreme.reduce((sum, group) => sum + group.runs, 0);
-        if (flatTops < MIN_FLAT_TOPS) continue;
-        const meanLevel = atExtreme.reduce((sum, group) => sum + group.level * group.runs, 0) / flatTops;
-        const tolerance = Math.max(this.toleranceFloor, meanLevel * FLAT_TOP_RELATIVE_TOLERANCE);
         const histogram = polarity === 0 ? state.positiveHistogram : state.negativeHistogram;
-        if (!ClippingAnalyzer.isHistogramSpike(histogram, meanLevel, tolerance)) continue;
-        for (const group of atExtreme) kept.push({ ...group, kind: 'belowFullScale' });
+        for (const cluster of ClippingAnalyzer.levelClusters(state.flatTopGroups[polarity])) {
+          const flatTops = cluster.reduce((sum, group) => sum + group.runs, 0);
+          if (flatTops < MIN_FLAT_TOPS) continue;
+          const meanLevel = cluster.reduce((sum, group) => sum + group.level * group.runs, 0) / flatTops;
+          const tolerance = Math.max(this.toleranceFloor, meanLevel * FLAT_TOP_RELATIVE_TOLERANCE);
+          if (!ClippingAnalyzer.isHistogramSpike(histogram, meanLevel, tolerance)) continue;
+          for (const group of cluster) kept.push({ ...group, kind: 'belowFullScale' });
+        }
       }
       kept.sort((a, b) => a.start - b.start);
       // Merge across polarities: one clipped passage is one event.

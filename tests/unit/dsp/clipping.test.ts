@@ -73,6 +73,18 @@ describe('flat tops below full scale (analogue clip, then gain lowered)', () => 
     expect(result.clippedSamples).toBeGreaterThan(RATE);
   });
 
+  it('finds both kinds on one channel: flat tops at -12 dBFS and, later, digital overload at full scale', async () => {
+    const gain = 10 ** (-9 / 20);
+    const flatTopped = analogueClip(440, 1, 10 ** (-3 / 20), gain, 10 ** (-110 / 20), 7);
+    const overloaded = clamp(sine(997, 2, 1, RATE), 1);
+    const signal = concat(sine(440, 0.2, 0.5, RATE), flatTopped, sine(440, 0.2, 0.5, RATE), overloaded, sine(440, 0.2, 0.5, RATE));
+    const result = await clipsOfWav('pcm24', [signal]);
+    const kinds = result.events.map((event) => event.level);
+    expect(kinds).toEqual(['belowFullScale', 'fullScale']);
+    expect(Math.abs(result.events[0].levelDbfs - -12)).toBeLessThan(0.05);
+    expect(result.events[1].startSec).toBeCloseTo(2, 2);
+  });
+
   describe('clean takes with high peaks report none', () => {
     it.each([997, 100, 50, 20])('a %i Hz sine at -0.1 dBFS (24-bit)', async (frequency) => {
       const result = await clipsOfWav('pcm24', [sine(frequency, 10 ** (-0.1 / 20), 3, RATE, 0.2)]);
