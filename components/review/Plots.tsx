@@ -76,7 +76,7 @@ export function SpectrumPlot({ hz, db, nyquistHz, effectiveHz }: { hz: number[];
       height: 240,
       legend: { show: false },
       cursor: { drag: { x: false, y: false } },
-      scales: { x: { time: false, distr: 3, log: 10, range: () => [20, nyquistHz * 1.05] }, y: { range: (_u, min) => [Math.min(-100, Math.floor(min / 10) * 10), 10] } },
+      scales: { x: { time: false, distr: 3, log: 10, range: () => [20, nyquistHz * 1.05] }, y: { range: (_u, min, max) => [Math.min(-100, Math.floor(min / 10) * 10), Math.max(10, Math.ceil(max / 10) * 10)] } },
       axes: [axis(colors, 'Frequency (Hz, log scale)', { values: (_u, splits) => splits.map(decadeLabel) }), axis(colors, 'Level (dB re passband)', { size: 56 })],
       series: [{ label: 'Frequency' }, { label: 'Long-term spectrum', stroke: colors.accent, width: 2, spanGaps: true, points: { show: false } }],
       hooks: {
