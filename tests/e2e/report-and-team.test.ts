@@ -78,7 +78,7 @@ describe('inviting a person through the team page', () => {
     await page.getByLabel('Name').fill('Juno Halvorsen');
     await page.getByLabel('E-mail').fill(email);
     await page.getByLabel('Role', { exact: true }).selectOption('producer');
-    await page.getByRole('button', { name: 'Send invitation' }).click();
+    await page.getByRole('button', { name: 'Send invitation', exact: true }).click();
     const notice = page.getByTestId('team-notice');
     await notice.waitFor();
     await expect(notice.textContent()).resolves.toBe(`✓ Invitation sent to ${email}.`);

@@ -195,6 +195,30 @@ describe('POST /api/sessions/:id/takes', () => {
   });
 });
 
+describe('recorder matching', () => {
+  it('assigns a take to the recorder whose match text is in its BWF originator fields', async () => {
+    const { bextBody, encodeSamples, wavFile } = await import('../support/wavWriter');
+    const noise = Array.from({ length: 2 }, (_, c) => Float64Array.from({ length: 24000 }, (_, i) => 0.05 * Math.sin(i * (0.05 + c * 0.01))));
+    const bytes = wavFile({ sampleRate: 48000, channels: 2, coding: 'pcm24' }, encodeSamples(noise, 'pcm24'), {
+      chunksBeforeFmt: [{ id: 'bext', body: bextBody({ description: 'Scene 4, take 2', originator: 'CORVID FR-8', originatorReference: 'FR8-2207-0042' }) }],
+    });
+    const { status, body } = await uploadTakes(as.engineer, sessionId, [{ name: 'field-kit-take.wav', bytes }]);
+    expect(status).toBe(201);
+    expect(body.takes[0].recorderId).toBeNull();
+    const take = await waitForTake(as.engineer, body.takes[0].id);
+    // The demo studio's "Field kit 2" matches "CORVID FR-8".
+    expect(take.recorderLabel).toBe('Field kit 2');
+    expect(take.report.bext.originator).toBe('CORVID FR-8');
+  });
+
+  it('keeps the recorder the engineer picked, whatever the file says', async () => {
+    const recorders = await (await as.manager.fetch('/api/recorders')).json();
+    const booth = recorders.recorders.find((r: { label: string }) => r.label === 'Booth A interface');
+    const { body } = await uploadTakes(as.engineer, sessionId, [{ name: 'booth-take.wav', bytes: makeWav({ seconds: 0.5, seed: 93 }) }], { recorderId: String(booth.id) });
+    expect((await waitForTake(as.engineer, body.takes[0].id)).recorderLabel).toBe('Booth A interface');
+  });
+});
+
 describe('takes API', () => {
   it('shows a take to its studio only, and lets engineers and managers queue it again', async () => {
     const { body } = await uploadTakes(as.engineer, sessionId, [{ name: 'pickup.wav', bytes: makeWav({ seconds: 1, seed: 71 }) }]);
