@@ -5,6 +5,7 @@ import { useState } from 'react';
 import { ApiError, fetchJson } from '@/lib/fetcher';
 import type { FieldErrors } from '@/lib/errors';
 import { FormField } from './FormField';
+import { FormMessage } from '@/components/FormMessage';
 
 /** Sets the invited person's password; the account is active as soon as this succeeds. */
 export function InviteAcceptForm({ token, email, minLength }: { token: string; email: string; minLength: number }) {
@@ -54,12 +55,7 @@ export function InviteAcceptForm({ token, email, minLength }: { token: string; e
       <FormField id="confirm" label="Repeat the password" errors={fields.confirm}>
         <input id="confirm" name="confirm" type="password" autoComplete="new-password" required className="tp-input" aria-invalid={!!fields.confirm} />
       </FormField>
-      {error && (
-        <p role="alert" className="tp-field-error">
-          <span aria-hidden="true">✕ </span>
-          {error}
-        </p>
-      )}
+      <FormMessage error={error} />
       <button type="submit" className="tp-button w-full justify-center" disabled={busy}>
         {busy ? 'Saving…' : 'Set password and activate'}
       </button>

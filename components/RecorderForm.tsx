@@ -6,6 +6,7 @@ import type { FieldErrors } from '@/lib/errors';
 import { ApiError, fetchJson } from '@/lib/fetcher';
 import { BEXT_MATCH_HELP } from '@/lib/schemas/recorder';
 import { FormField } from './FormField';
+import { FormMessage } from '@/components/FormMessage';
 
 interface RecorderValues {
   id?: number;
@@ -96,18 +97,8 @@ export function RecorderForm({ recorder = EMPTY, mode }: { recorder?: RecorderVa
           <textarea id={`${p}notes`} name="notes" className="tp-input" rows={2} defaultValue={recorder.notes ?? ''} />
         </FormField>
       </div>
-      {error && (
-        <p role="alert" className="tp-field-error sm:col-span-2">
-          <span aria-hidden="true">✕ </span>
-          {error}
-        </p>
-      )}
-      {notice && (
-        <p role="status" className="text-sm text-pass sm:col-span-2">
-          <span aria-hidden="true">✓ </span>
-          {notice}
-        </p>
-      )}
+      <FormMessage error={error} className="sm:col-span-2" />
+      <FormMessage notice={notice} className="sm:col-span-2" />
       <div className="flex flex-wrap gap-3 sm:col-span-2">
         <button type="submit" className="tp-button" disabled={busy}>
           {busy ? 'Saving…' : mode === 'create' ? 'Add recorder' : 'Save changes'}

@@ -6,6 +6,7 @@ import { useSWRConfig } from 'swr';
 import { ApiError, fetchJson } from '@/lib/fetcher';
 import type { FieldErrors } from '@/lib/errors';
 import { FormField } from './FormField';
+import { FormMessage } from '@/components/FormMessage';
 
 export interface Option {
   id: number;
@@ -85,12 +86,7 @@ export function SessionCreateForm({ specs, producers }: { specs: Option[]; produ
           </select>
         </FormField>
       </div>
-      {error && (
-        <p role="alert" className="tp-field-error sm:col-span-2">
-          <span aria-hidden="true">✕ </span>
-          {error}
-        </p>
-      )}
+      <FormMessage error={error} className="sm:col-span-2" />
       <div className="sm:col-span-2">
         <button type="submit" className="tp-button" disabled={busy}>
           {busy ? 'Creating…' : 'Create session'}

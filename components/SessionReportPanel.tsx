@@ -6,6 +6,7 @@ import { ApiError, fetchJson, swrFetcher } from '@/lib/fetcher';
 import type { FieldErrors } from '@/lib/errors';
 import type { DeliveryView } from '@/lib/mail/deliveries';
 import { FormField } from './FormField';
+import { FormMessage } from '@/components/FormMessage';
 
 const STATUS = {
   sent: { mark: '✓', word: 'Sent', tone: 'text-pass' },
@@ -136,12 +137,7 @@ export function SessionReportPanel({ sessionId, maySend }: { sessionId: number; 
           <FormField id={`${formId}-message`} label="Message (optional)" hint="Shown above the report, up to 2000 characters." errors={fields.message}>
             <textarea id={`${formId}-message`} name="message" rows={4} maxLength={2000} className="tp-input" aria-invalid={!!fields.message} />
           </FormField>
-          {error && (
-            <p role="alert" className="tp-field-error">
-              <span aria-hidden="true">✕ </span>
-              {error}
-            </p>
-          )}
+          <FormMessage error={error} />
           <div>
             <button type="submit" className="tp-button" disabled={busy}>
               {busy ? 'Sending…' : 'Send to recipients'}

@@ -3,6 +3,7 @@
 import { signIn } from 'next-auth/react';
 import { useRouter } from 'next/navigation';
 import { useState } from 'react';
+import { FormMessage } from '@/components/FormMessage';
 
 export function SignInForm() {
   const router = useRouter();
@@ -36,12 +37,7 @@ export function SignInForm() {
         <label htmlFor="password" className="tp-label">Password</label>
         <input id="password" name="password" type="password" autoComplete="current-password" required className="tp-input" />
       </div>
-      {error && (
-        <p role="alert" className="tp-field-error">
-          <span aria-hidden="true">✕ </span>
-          {error}
-        </p>
-      )}
+      <FormMessage error={error} />
       <button type="submit" className="tp-button w-full justify-center" disabled={busy}>
         {busy ? 'Signing in…' : 'Sign in'}
       </button>

@@ -6,6 +6,7 @@ import type { FieldErrors } from '@/lib/errors';
 import { ApiError, fetchJson } from '@/lib/fetcher';
 import { SPEC_PRECEDENCE_NOTE, THRESHOLD_FIELDS, type ThresholdField } from '@/lib/specFields';
 import type { Thresholds } from '@/models/DeliverySpec';
+import { FormMessage } from '@/components/FormMessage';
 
 interface SpecValues {
   id?: number;
@@ -134,18 +135,8 @@ export function SpecForm({ spec, mode }: { spec: SpecValues; mode: 'create' | 'e
           );
         })}
       </fieldset>
-      {error && (
-        <p role="alert" className="tp-field-error">
-          <span aria-hidden="true">✕ </span>
-          {error}
-        </p>
-      )}
-      {notice && (
-        <p role="status" className="text-sm text-pass">
-          <span aria-hidden="true">✓ </span>
-          {notice}
-        </p>
-      )}
+      <FormMessage error={error} />
+      <FormMessage notice={notice} />
       <div>
         <button type="submit" className="tp-button" disabled={busy}>
           {busy ? 'Saving…' : mode === 'create' ? 'Create spec' : 'Save changes'}

@@ -7,6 +7,7 @@ import type { FieldErrors } from '@/lib/errors';
 import type { DeliveryView } from '@/lib/mail/deliveries';
 import type { TeamMember } from '@/lib/team';
 import { FormField } from './FormField';
+import { FormMessage } from '@/components/FormMessage';
 
 const KEY = '/api/users';
 const ROLE_LABEL = { engineer: 'Engineer', producer: 'Producer', manager: 'Studio manager' } as const;
@@ -71,12 +72,7 @@ function InviteForm({ onDone }: { onDone: (text: string, ok: boolean) => Promise
           ))}
         </select>
       </FormField>
-      {error && (
-        <p role="alert" className="tp-field-error">
-          <span aria-hidden="true">✕ </span>
-          {error}
-        </p>
-      )}
+      <FormMessage error={error} />
       <div>
         <button type="submit" className="tp-button" disabled={busy}>
           {busy ? 'Sending…' : 'Send invitation'}
