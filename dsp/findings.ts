@@ -116,8 +116,9 @@ export function judgeReport(report: AnalysisReport, spec: DeliverySpec): Finding
       add({
         check: 'true-peak',
         severity: channel.truePeakDbtp > 0 ? 'fail' : strict,
-        message: `True peak on ${channelName(index, channelCount)} reaches ${db(channel.truePeakDbtp)} dBTP, above the ${db(spec.maxTruePeakDbtp)} dBTP limit.`,
+        message: `True peak on ${channelName(index, channelCount)} reaches ${db(channel.truePeakDbtp)} dBTP${channel.truePeakAtSec !== undefined ? ` at ${formatTime(channel.truePeakAtSec)}` : ''}, above the ${db(spec.maxTruePeakDbtp)} dBTP limit.`,
         channel: index,
+        ...(channel.truePeakAtSec !== undefined ? { startSec: channel.truePeakAtSec, endSec: channel.truePeakAtSec } : {}),
       });
     }
   });

@@ -138,6 +138,7 @@ function assembleReport(format: AudioFormat, metadata: WavMetadata, frames: numb
   const channels = m.levels.channels.map((channel, index) => ({
     samplePeakDbfs: dbOrNull(channel.samplePeak),
     truePeakDbtp: dbOrNull(m.truePeak.channelTruePeaks[index]),
+    truePeakAtSec: roundTo(m.truePeak.channelTruePeakFrames[index] / format.sampleRate, 4),
     // Mean square re a full-scale square wave: a full-scale sine reads -3.01 dBFS.
     rmsDbfs: roundOrNull(powerToDb(channel.meanSquare), 3),
     dcOffset: channel.dcOffset,

@@ -66,6 +66,8 @@ export interface BextInfo {
 export interface ChannelReport {
   samplePeakDbfs: number | null;
   truePeakDbtp: number | null;
+  /** When the channel's true peak occurs, seconds (absent in reports made before it was measured). */
+  truePeakAtSec?: number;
   rmsDbfs: number | null;
   dcOffset: number;
   effectiveBits: number;

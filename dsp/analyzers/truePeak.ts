@@ -8,6 +8,8 @@ const HISTORY = TRUE_PEAK_TAPS_PER_PHASE - 1;
 export interface TruePeakResult {
   /** Highest |value| of the 4x over-sampled signal per channel, linear (full scale = 1.0). */
   channelTruePeaks: number[];
+  /** Frame where each channel's true peak occurs (to the nearest sample). */
+  channelTruePeakFrames: number[];
 }
 
 /**
@@ -28,6 +30,9 @@ export class TruePeakAnalyzer implements Analyzer<TruePeakResult> {
   /** Per channel: the previous HISTORY samples followed by the current block. */
   private extended: Float64Array[];
   private readonly peaks: Float64Array;
+  private readonly peakFrames: Float64Array;
+  /** Frames pushed so far per channel: the take position of each block's first sample. */
+  private readonly framesSeen: Float64Array;
 
   /** @param format channel count is used */
   constructor(format: AudioFormat) {
@@ -35,6 +40,8 @@ export class TruePeakAnalyzer implements Analyzer<TruePeakResult> {
     this.channelCount = format.channels;
     this.extended = Array.from({ length: format.channels }, () => new Float64Array(HISTORY));
     this.peaks = new Float64Array(format.channels);
+    this.peakFrames = new Float64Array(format.channels);
+    this.framesSeen = new Float64Array(format.channels);
   }
 
   push(block: SampleBlock): void {
@@ -53,6 +60,8 @@ export class TruePeakAnalyzer implements Analyzer<TruePeakResult> {
     }
     extended.set(samples.subarray(0, frames), HISTORY);
     let peak = this.peaks[channel];
+    let peakFrame = this.peakFrames[channel];
+    const base = this.framesSeen[channel];
     const [a0, a1, a2, a3, a4, a5, a6, a7, a8, a9, a10, a11] = TRUE_PEAK_PHASES[0];
     const [b0, b1, b2, b3, b4, b5, b6, b7, b8, b9, b10, b11] = TRUE_PEAK_PHASES[1];
     for (let chunkStart = 0; chunkStart < frames; chunkStart += CHUNK) {
@@ -71,7 +80,10 @@ export class TruePeakAnalyzer implements Analyzer<TruePeakResult> {
         const centre5 = Math.abs(extended[newest - 5]);
         const centre6 = Math.abs(extended[newest - 6]);
         const newestMagnitude = Math.abs(extended[newest]);
-        if (newestMagnitude > peak) peak = newestMagnitude;
+        if (newestMagnitude > peak) {
+          peak = newestMagnitude;
+          peakFrame = base + n;
+        }
         if (TRUE_PEAK_CENTRE_GAIN * (centre5 > centre6 ? centre5 : centre6) + sideBound <= peak) continue;
         // The 12 taps unrolled; phases 3 and 2 are phases 0 and 1 reversed (Annex 2 table).
         const x0 = extended[newest], x1 = extended[newest - 1], x2 = extended[newest - 2], x3 = extended[newest - 3];
@@ -82,10 +94,16 @@ export class TruePeakAnalyzer implements Analyzer<TruePeakResult> {
         const sum1 = b0 * x0 + b1 * x1 + b2 * x2 + b3 * x3 + b4 * x4 + b5 * x5 + b6 * x6 + b7 * x7 + b8 * x8 + b9 * x9 + b10 * x10 + b11 * x11;
         const sum2 = b11 * x0 + b10 * x1 + b9 * x2 + b8 * x3 + b7 * x4 + b6 * x5 + b5 * x6 + b4 * x7 + b3 * x8 + b2 * x9 + b1 * x10 + b0 * x11;
         const magnitude = Math.max(Math.abs(sum0), Math.abs(sum1), Math.abs(sum2), Math.abs(sum3));
-        if (magnitude > peak) peak = magnitude;
+        if (magnitude > peak) {
+          peak = magnitude;
+          // The interpolated points lie between x[n-6] and x[n-5], the filter's centre taps.
+          peakFrame = base + n - 6;
+        }
       }
     }
     this.peaks[channel] = peak;
+    this.peakFrames[channel] = peakFrame;
+    this.framesSeen[channel] = base + frames;
     extended.copyWithin(0, frames, frames + HISTORY);
   }
 
@@ -97,6 +115,11 @@ export class TruePeakAnalyzer implements Analyzer<TruePeakResult> {
 
   finish(): TruePeakResult {
     this.flush();
-    return { channelTruePeaks: Array.from(this.peaks) };
+    // The flush's zeros are not part of the take: a peak found there belongs to its last frame.
+    const lastFrame = (channel: number) => Math.max(0, this.framesSeen[channel] - HISTORY - 1);
+    return {
+      channelTruePeaks: Array.from(this.peaks),
+      channelTruePeakFrames: Array.from(this.peakFrames, (frame, channel) => Math.min(Math.max(0, frame), lastFrame(channel))),
+    };
   }
 }

@@ -83,6 +83,18 @@ describe('judgeReport', () => {
     expect(only(judge((r) => (r.channels[1].truePeakDbtp = 0.4)), 'true-peak')[0]).toMatchObject({ severity: 'fail', channel: 1 });
   });
 
+  it('true-peak: says when the peak happens, so the review page can mark it', () => {
+    const finding = only(
+      judge((r) => {
+        r.channels[1].truePeakDbtp = 1.2;
+        r.channels[1].truePeakAtSec = 74.31;
+      }),
+      'true-peak',
+    )[0];
+    expect(finding).toMatchObject({ startSec: 74.31, endSec: 74.31, channel: 1 });
+    expect(finding.message).toBe('True peak on right channel reaches 1.2 dBTP at 1:14.3, above the -1.0 dBTP limit.');
+  });
+
   it('loudness: outside the tolerance band, and a take too short to measure', () => {
     const loud = only(judge((r) => (r.loudness.integratedLufs = -16.04)), 'loudness')[0];
     expect(loud).toMatchObject({ severity: 'warn', message: 'Integrated loudness is -16.0 LUFS, 7.0 LU louder than the -23.0 LUFS target (±1 LU).' });

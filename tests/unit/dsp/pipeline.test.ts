@@ -58,7 +58,7 @@ describe('cross-checks on 40 s of programme-like material against ffmpeg and sox
     for (const key of contractKeys) expect(report).toHaveProperty(key);
     expect(Object.keys(report.file)).toEqual(expect.arrayContaining(['container', 'encoding', 'sampleRate', 'bitsPerSample', 'channels', 'frames', 'durationSec']));
     expect(report.file).toMatchObject({ container: 'RIFF', encoding: 'pcm', sampleRate: RATE, bitsPerSample: 24, channels: 2, frames: 40 * RATE, durationSec: 40 });
-    expect(Object.keys(report.channels[0]).sort()).toEqual(['clippedSamples', 'dcOffset', 'effectiveBits', 'rmsDbfs', 'samplePeakDbfs', 'silent', 'truePeakDbtp']);
+    expect(Object.keys(report.channels[0]).sort()).toEqual(['clippedSamples', 'dcOffset', 'effectiveBits', 'rmsDbfs', 'samplePeakDbfs', 'silent', 'truePeakAtSec', 'truePeakDbtp']);
     expect(Object.keys(report.loudness)).toEqual(expect.arrayContaining(['integratedLufs', 'rangeLu', 'momentaryMaxLufs', 'shortTermMaxLufs']));
     expect(Object.keys(report.bandwidth)).toEqual(expect.arrayContaining(['effectiveHz', 'impliedSourceRate', 'nearNyquistDb', 'aliasingRisk']));
     expect(Object.keys(report.noise).sort()).toEqual(['floorDbfs', 'humHz']);

@@ -133,3 +133,28 @@ describe('bound skipping', () => {
     expect(() => new TruePeakAnalyzer(formatOf(RATE, 0))).toThrow(RangeError);
   });
 });
+
+describe('where the true peak is', () => {
+  it('places the peak of a short loud burst in a quiet take to within a millisecond, for any block size', () => {
+    // 3 s of a -30 dBFS tone, with 20 ms of fs/4 at 45° phase (inter-sample peak 3 dB over its samples) at 1.75 s.
+    const signal = sine(997, 10 ** (-30 / 20), 3, RATE);
+    const burstStart = Math.round(1.75 * RATE);
+    for (let i = 0; i < 960; i++) signal[burstStart + i] = 0.5 * Math.sin((Math.PI / 2) * i + Math.PI / 4);
+    for (const blocks of [[65536], [4097, 31, 1000], [1]]) {
+      const result = runAnalyzer(new TruePeakAnalyzer(formatOf(RATE, 1)), [signal], blocks);
+      const atSec = result.channelTruePeakFrames[0] / RATE;
+      expect(atSec).toBeGreaterThanOrEqual(1.75 - 0.001);
+      expect(atSec).toBeLessThanOrEqual(1.75 + 0.02 + 0.001);
+    }
+  });
+
+  it('reports each channel at its own time', () => {
+    const left = sine(997, 0.01, 2, RATE);
+    const right = sine(997, 0.01, 2, RATE);
+    left[Math.round(0.5 * RATE)] = 0.9;
+    right[Math.round(1.5 * RATE)] = -0.8;
+    const { channelTruePeakFrames } = runAnalyzer(new TruePeakAnalyzer(formatOf(RATE, 2)), [left, right]);
+    expect(Math.abs(channelTruePeakFrames[0] / RATE - 0.5)).toBeLessThan(0.001);
+    expect(Math.abs(channelTruePeakFrames[1] / RATE - 1.5)).toBeLessThan(0.001);
+  });
+});
