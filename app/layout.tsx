@@ -7,6 +7,7 @@ import './globals.css';
 export const metadata: Metadata = {
   title: { default: 'Takeproof', template: '%s · Takeproof' },
   description: 'Technical quality control of recorded takes for broadcast and podcast studios.',
+  icons: { icon: '/takeproof-mark.svg' },
 };
 
 export default async function RootLayout({ children }: { children: ReactNode }) {

@@ -250,11 +250,14 @@ export function TakeWorkspace({ takeId, durationSec, channels, markers, comments
         event.preventDefault();
         void ws.playPause().catch(() => undefined);
       } else if (event.key === 'ArrowRight' || event.key === 'ArrowLeft') {
-        // From the selected finding while the playhead is still on it, else from the playhead.
+        // From the selected finding while the playhead is still on it (so findings at the same moment
+        // are each reached in turn), else from the playhead.
         const now = ws.getCurrentTime();
+        const direction = event.key === 'ArrowRight' ? 1 : -1;
         const current = selected !== null ? markersRef.current[selected] : undefined;
-        const from = current && now >= cueTime(current.startSec) - 0.1 && now <= current.endSec + 0.5 ? current.startSec : now;
-        const index = neighbourMarker(markersRef.current, from, event.key === 'ArrowRight' ? 1 : -1);
+        const onCurrent = current && now >= cueTime(current.startSec) - 0.1 && now <= current.endSec + 0.5;
+        const stepped = onCurrent ? selected! + direction : null;
+        const index = stepped !== null ? (stepped >= 0 && stepped < markersRef.current.length ? stepped : null) : neighbourMarker(markersRef.current, now, direction);
         if (index === null) return;
         event.preventDefault();
         goTo(index, ws.isPlaying());

@@ -73,11 +73,12 @@ describe('the take review page', () => {
     for (let i = 0; i < 4; i++) await page.getByRole('button', { name: 'Zoom out' }).click();
     await expect(page.getByTestId('zoom-level').textContent()).resolves.toBe('Whole take');
 
-    // The findings list names them in time order.
+    // The findings list names them in time order: the clip, the true-peak over inside it, the dropout.
     const findings = page.getByTestId('findings-list').getByRole('button');
-    await expect(findings.count()).resolves.toBe(2);
+    await expect(findings.count()).resolves.toBe(3);
     await expect(findings.nth(0).textContent()).resolves.toMatch(/Fail.*0:04\.0.*Clip R/);
-    await expect(findings.nth(1).textContent()).resolves.toMatch(/Dropout/);
+    await expect(findings.nth(1).textContent()).resolves.toMatch(/Fail.*0:04\.\d.*True peak/);
+    await expect(findings.nth(2).textContent()).resolves.toMatch(/Dropout/);
 
     // Measures: each with a word mark, and the format line in plain words.
     await expect(page.getByTestId('measure-peaks').locator('[data-mark]').textContent()).resolves.toMatch(/Fail/);
@@ -94,13 +95,15 @@ describe('the take review page', () => {
     expect(atClip).toBeLessThan(CLIP_AT_SEC + 1);
     await expect(findings.nth(0).getAttribute('aria-current')).resolves.toBe('true');
 
-    // Space pauses, the right arrow moves on to the dropout.
+    // Space pauses; the right arrow moves on to the true-peak over, then to the dropout.
     await page.keyboard.press('Space');
     await page.getByRole('button', { name: 'Play', exact: true }).waitFor();
     await page.keyboard.press('ArrowRight');
+    await expect.poll(() => findings.nth(1).getAttribute('aria-current')).toBe('true');
+    await page.keyboard.press('ArrowRight');
     await page.waitForFunction(() => /0:0[5-6]/.test(document.querySelector('[data-testid=current-time]')?.textContent ?? ''));
     expect(await playhead(page)).toBeCloseTo(DROPOUT_AT_SEC - 1, 0);
-    await expect(findings.nth(1).getAttribute('aria-current')).resolves.toBe('true');
+    await expect(findings.nth(2).getAttribute('aria-current')).resolves.toBe('true');
 
     // Typing in the note field does not drive the player.
     const note = page.getByLabel(/Note for the engineer/);

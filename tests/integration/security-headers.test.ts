@@ -21,6 +21,11 @@ describe('security headers', () => {
     expectSecurityHeaders(await manager.fetch('/sessions'));
     expectSecurityHeaders(await manager.fetch('/api/sessions'));
     expectSecurityHeaders(await manager.fetch('/api/sessions/999999'));
+    // Static files from public/ too (the browser tab's mark).
+    const icon = await anonymous.fetch('/takeproof-mark.svg');
+    expect(icon.status).toBe(200);
+    expect(icon.headers.get('content-type')).toMatch(/image\/svg\+xml/);
+    expectSecurityHeaders(icon);
   });
 
   it('never answers an API error with a stack trace', async () => {
