@@ -21,7 +21,8 @@ load_config() {
 ensure_node_modules() {
   if [ ! -d node_modules ] || [ package-lock.json -nt node_modules/.package-lock.json ]; then
     echo "Installing npm packages (first run)…"
-    npm ci --no-audit --no-fund --loglevel=error
+    # --include=dev: the build needs Tailwind and TypeScript even when NODE_ENV=production.
+    npm ci --include=dev --no-audit --no-fund --loglevel=error
   fi
 }
 
