@@ -252,10 +252,25 @@ export class ToneAnalyzer implements Analyzer<ToneResult | null> {
     const tone = this.startTone!;
     const x = block.channels[tone.channel];
     const { a, b, c, omega } = tone.fit;
+    const cosStep = Math.cos(omega);
+    const sinStep = Math.sin(omega);
     const base = this.framesSeen;
+    // The fitted sine's phase is advanced by rotation (two multiplies per sample instead of a cos
+    // and a sin), and taken exactly from t again at every block so rounding cannot accumulate.
+    let cosPhase = 0;
+    let sinPhase = 0;
+    let exactAt = -1;
     for (let i = from; i < to; i++) {
-      const t = base + i - tone.originFrame;
-      const e = x[i] - (a * Math.cos(omega * t) + b * Math.sin(omega * t) + c);
+      if (exactAt !== this.trackBlockStart) {
+        const t = base + i - tone.originFrame;
+        cosPhase = Math.cos(omega * t);
+        sinPhase = Math.sin(omega * t);
+        exactAt = this.trackBlockStart;
+      }
+      const e = x[i] - (a * cosPhase + b * sinPhase + c);
+      const nextCos = cosPhase * cosStep - sinPhase * sinStep;
+      sinPhase = sinPhase * cosStep + cosPhase * sinStep;
+      cosPhase = nextCos;
       this.trackSumSq += e * e;
       if (++this.trackCount === this.edgeBlock) {
         if (!this.trackBlockPasses()) {
