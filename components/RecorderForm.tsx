@@ -1,11 +1,10 @@
 'use client';
 
 import { useRouter } from 'next/navigation';
-import { useState } from 'react';
-import type { FieldErrors } from '@/lib/errors';
-import { ApiError, fetchJson } from '@/lib/fetcher';
+import { fetchJson } from '@/lib/fetcher';
 import { BEXT_MATCH_HELP } from '@/lib/schemas/recorder';
 import { FormField } from './FormField';
+import { useApiForm } from './useApiForm';
 import { FormMessage } from '@/components/FormMessage';
 
 interface RecorderValues {
@@ -24,32 +23,19 @@ const EMPTY: RecorderValues = { label: '', makeModel: null, serial: null, locati
 /** Adds a recorder to the fleet or edits one; retiring and reinstating are on the edit form. */
 export function RecorderForm({ recorder = EMPTY, mode }: { recorder?: RecorderValues; mode: 'create' | 'edit' }) {
   const router = useRouter();
-  const [fields, setFields] = useState<FieldErrors>({});
-  const [error, setError] = useState<string | null>(null);
-  const [notice, setNotice] = useState<string | null>(null);
-  const [busy, setBusy] = useState(false);
+  const { fields, error, notice, busy, run } = useApiForm();
 
-  async function send(payload: Record<string, unknown>, done: string) {
-    setBusy(true);
-    setError(null);
-    setNotice(null);
-    setFields({});
-    try {
+  function send(payload: Record<string, unknown>, done: string) {
+    return run(async () => {
       if (mode === 'create') {
         const created = await fetchJson<{ id: number }>('/api/recorders', { method: 'POST', json: payload });
         router.push(`/recorders/${created.id}?created=1`);
         return;
       }
       await fetchJson(`/api/recorders/${recorder.id}`, { method: 'PATCH', json: payload });
-      setNotice(done);
       router.refresh();
-    } catch (e) {
-      const apiError = e as ApiError;
-      setFields(apiError.fields ?? {});
-      setError(apiError.message);
-    } finally {
-      setBusy(false);
-    }
+      return done;
+    });
   }
 
   function onSubmit(event: React.FormEvent<HTMLFormElement>) {

@@ -1,11 +1,10 @@
 'use client';
 
 import { useRouter } from 'next/navigation';
-import { useState } from 'react';
 import { useSWRConfig } from 'swr';
-import { ApiError, fetchJson } from '@/lib/fetcher';
-import type { FieldErrors } from '@/lib/errors';
+import { fetchJson } from '@/lib/fetcher';
 import { FormField } from './FormField';
+import { useApiForm } from './useApiForm';
 import { FormMessage } from '@/components/FormMessage';
 
 export interface Option {
@@ -17,9 +16,7 @@ export interface Option {
 export function SessionCreateForm({ specs, producers }: { specs: Option[]; producers: Option[] }) {
   const router = useRouter();
   const { mutate } = useSWRConfig();
-  const [fields, setFields] = useState<FieldErrors>({});
-  const [error, setError] = useState<string | null>(null);
-  const [busy, setBusy] = useState(false);
+  const { fields, error, busy, run } = useApiForm();
 
   async function onSubmit(event: React.FormEvent<HTMLFormElement>) {
     event.preventDefault();
@@ -32,19 +29,11 @@ export function SessionCreateForm({ specs, producers }: { specs: Option[]; produ
       producerId: form.producerId ? Number(form.producerId) : null,
       deliverySpecId: form.deliverySpecId ? Number(form.deliverySpecId) : null,
     };
-    setBusy(true);
-    setError(null);
-    setFields({});
-    try {
+    await run(async () => {
       const session = await fetchJson<{ id: number }>('/api/sessions', { method: 'POST', json: payload });
       await mutate((key) => typeof key === 'string' && key.startsWith('/api/sessions'));
       router.push(`/sessions/${session.id}`);
-    } catch (e) {
-      const apiError = e as ApiError;
-      setFields(apiError.fields ?? {});
-      setError(apiError.message);
-      setBusy(false);
-    }
+    });
   }
 
   const err = (name: string) => fields[name];

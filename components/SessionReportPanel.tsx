@@ -3,10 +3,10 @@
 import { useId, useState } from 'react';
 import useSWR from 'swr';
 import { ApiError, fetchJson, swrFetcher } from '@/lib/fetcher';
-import type { FieldErrors } from '@/lib/errors';
 import type { DeliveryView } from '@/lib/mail/deliveries';
 import { FormField } from './FormField';
 import { FormMessage } from '@/components/FormMessage';
+import { useApiForm } from './useApiForm';
 
 const STATUS = {
   sent: { mark: '✓', word: 'Sent', tone: 'text-pass' },
@@ -52,10 +52,8 @@ export function SessionReportPanel({ sessionId, maySend }: { sessionId: number; 
   const key = maySend ? `/api/sessions/${sessionId}/report` : null;
   const { data, mutate } = useSWR<{ deliveries: DeliveryView[] }, ApiError>(key, swrFetcher);
   const [open, setOpen] = useState(false);
-  const [fields, setFields] = useState<FieldErrors>({});
-  const [error, setError] = useState<string | null>(null);
+  const { fields, error, setError, busy, run } = useApiForm();
   const [result, setResult] = useState<DeliveryView | null>(null);
-  const [busy, setBusy] = useState(false);
   const [retrying, setRetrying] = useState<number | null>(null);
 
   async function onSubmit(event: React.FormEvent<HTMLFormElement>) {
@@ -63,22 +61,13 @@ export function SessionReportPanel({ sessionId, maySend }: { sessionId: number; 
     const formElement = event.currentTarget;
     const form = new FormData(formElement);
     const payload = { to: splitAddresses(String(form.get('to') ?? '')), message: String(form.get('message') ?? '') };
-    setBusy(true);
-    setError(null);
-    setFields({});
     setResult(null);
-    try {
+    await run(async () => {
       const { delivery } = await fetchJson<{ delivery: DeliveryView }>(`/api/sessions/${sessionId}/report`, { method: 'POST', json: payload });
       setResult(delivery);
       if (delivery.status === 'sent') formElement.reset();
       await mutate();
-    } catch (e) {
-      const apiError = e as ApiError;
-      setFields(apiError.fields ?? {});
-      setError(apiError.message);
-    } finally {
-      setBusy(false);
-    }
+    });
   }
 
   async function retry(id: number) {

@@ -1,12 +1,11 @@
 'use client';
 
 import { useRouter } from 'next/navigation';
-import { useState } from 'react';
-import type { FieldErrors } from '@/lib/errors';
-import { ApiError, fetchJson } from '@/lib/fetcher';
+import { fetchJson } from '@/lib/fetcher';
 import { SPEC_PRECEDENCE_NOTE, THRESHOLD_FIELDS, type ThresholdField } from '@/lib/specFields';
 import type { Thresholds } from '@/models/DeliverySpec';
 import { FormMessage } from '@/components/FormMessage';
+import { useApiForm } from './useApiForm';
 
 interface SpecValues {
   id?: number;
@@ -28,40 +27,27 @@ function valueOf(field: ThresholdField, form: FormData): unknown {
 /** Creates or edits a delivery spec; every threshold is explained, and the server's field errors show next to it. */
 export function SpecForm({ spec, mode }: { spec: SpecValues; mode: 'create' | 'edit' }) {
   const router = useRouter();
-  const [fields, setFields] = useState<FieldErrors>({});
-  const [error, setError] = useState<string | null>(null);
-  const [notice, setNotice] = useState<string | null>(null);
-  const [busy, setBusy] = useState(false);
+  const { fields, error, notice, busy, run } = useApiForm();
 
   async function onSubmit(event: React.FormEvent<HTMLFormElement>) {
     event.preventDefault();
     const form = new FormData(event.currentTarget);
     const thresholds = Object.fromEntries(THRESHOLD_FIELDS.map((f) => [f.key, valueOf(f, form)]));
     const payload = { name: String(form.get('name') ?? ''), description: String(form.get('description') ?? ''), thresholds };
-    setBusy(true);
-    setError(null);
-    setNotice(null);
-    setFields({});
-    try {
+    await run(async () => {
       if (mode === 'create') {
         const created = await fetchJson<{ id: number }>('/api/specs', { method: 'POST', json: payload });
         router.push(`/specs/${created.id}?created=1`);
         return;
       }
       const saved = await fetchJson<{ rejudged: boolean; sessionCount: number }>(`/api/specs/${spec.id}`, { method: 'PATCH', json: payload });
-      setNotice(
+      router.refresh();
+      return (
         saved.rejudged && saved.sessionCount > 0
           ? `Saved. The takes of ${saved.sessionCount} session${saved.sessionCount === 1 ? '' : 's'} using this spec were judged again from their stored measurements.`
-          : 'Saved.',
+          : 'Saved.'
       );
-      router.refresh();
-    } catch (e) {
-      const apiError = e as ApiError;
-      setFields(apiError.fields ?? {});
-      setError(apiError.message);
-    } finally {
-      setBusy(false);
-    }
+    });
   }
 
   const errs = (key: string) => fields[key];

@@ -3,11 +3,11 @@
 import { useState } from 'react';
 import useSWR from 'swr';
 import { ApiError, fetchJson, swrFetcher } from '@/lib/fetcher';
-import type { FieldErrors } from '@/lib/errors';
 import type { DeliveryView } from '@/lib/mail/deliveries';
 import type { TeamMember } from '@/lib/team';
 import { FormField } from './FormField';
 import { FormMessage } from '@/components/FormMessage';
+import { useApiForm } from './useApiForm';
 
 const KEY = '/api/users';
 const ROLE_LABEL = { engineer: 'Engineer', producer: 'Producer', manager: 'Studio manager' } as const;
@@ -28,31 +28,20 @@ function Notice({ notice }: { notice: { ok: boolean; text: string } | null }) {
 }
 
 function InviteForm({ onDone }: { onDone: (text: string, ok: boolean) => Promise<void> }) {
-  const [fields, setFields] = useState<FieldErrors>({});
-  const [error, setError] = useState<string | null>(null);
-  const [busy, setBusy] = useState(false);
+  const { fields, error, busy, run } = useApiForm();
 
   async function onSubmit(event: React.FormEvent<HTMLFormElement>) {
     event.preventDefault();
     const formElement = event.currentTarget;
     const form = Object.fromEntries(new FormData(formElement)) as Record<string, string>;
-    setBusy(true);
-    setFields({});
-    setError(null);
-    try {
+    await run(async () => {
       const { member, delivery } = await fetchJson<{ member: TeamMember; delivery: DeliveryView }>(KEY, { method: 'POST', json: form });
       formElement.reset();
       await onDone(
         delivery.status === 'sent' ? `Invitation sent to ${member.email}.` : `${member.name} was added, but the invitation e-mail was not sent: ${delivery.error} Use “Resend invitation” to try again.`,
         delivery.status === 'sent',
       );
-    } catch (e) {
-      const apiError = e as ApiError;
-      setFields(apiError.fields ?? {});
-      setError(apiError.message);
-    } finally {
-      setBusy(false);
-    }
+    });
   }
 
   return (

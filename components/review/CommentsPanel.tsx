@@ -2,8 +2,8 @@
 
 import { useState } from 'react';
 import { FormField } from '@/components/FormField';
-import type { FieldErrors } from '@/lib/errors';
-import { ApiError, fetchJson } from '@/lib/fetcher';
+import { useApiForm } from '@/components/useApiForm';
+import { fetchJson } from '@/lib/fetcher';
 import { fieldErrorsOf } from '@/lib/formErrors';
 import { formatClock, parseClock } from '@/lib/review';
 import { commentSchema } from '@/lib/schemas/take';
@@ -27,9 +27,7 @@ export function CommentsPanel({
 }) {
   const [at, setAt] = useState('');
   const [body, setBody] = useState('');
-  const [fields, setFields] = useState<FieldErrors>({});
-  const [error, setError] = useState<string | null>(null);
-  const [busy, setBusy] = useState(false);
+  const { fields, setFields, error, setError, busy, run } = useApiForm();
 
   async function onSubmit(event: React.FormEvent) {
     event.preventDefault();
@@ -44,20 +42,12 @@ export function CommentsPanel({
       setFields(fieldErrorsOf(parsed.error));
       return;
     }
-    setFields({});
-    setBusy(true);
-    try {
+    await run(async () => {
       await fetchJson(`/api/takes/${takeId}/comments`, { method: 'POST', json: parsed.data });
       setBody('');
       setAt('');
       onAdded();
-    } catch (e) {
-      const apiError = e as ApiError;
-      setFields(apiError.fields ?? {});
-      setError(apiError.message);
-    } finally {
-      setBusy(false);
-    }
+    });
   }
 
   return (

@@ -3,8 +3,8 @@
 import { useState } from 'react';
 import { DecisionMark } from '@/components/StatusMarks';
 import { FormField } from '@/components/FormField';
-import type { FieldErrors } from '@/lib/errors';
-import { ApiError, fetchJson } from '@/lib/fetcher';
+import { useApiForm } from '@/components/useApiForm';
+import { fetchJson } from '@/lib/fetcher';
 import { fieldErrorsOf } from '@/lib/formErrors';
 import { decisionSchema } from '@/lib/schemas/take';
 import type { TakeDetail } from '@/lib/takeViews';
@@ -14,9 +14,7 @@ const when = (iso: string) => new Date(iso).toLocaleString('en-GB', { dateStyle:
 /** The producer's decision on the take: shown to everyone, made by producers and managers. */
 export function DecisionPanel({ take, canDecide, onDecided }: { take: TakeDetail; canDecide: boolean; onDecided: (take: TakeDetail) => void }) {
   const [note, setNote] = useState('');
-  const [fields, setFields] = useState<FieldErrors>({});
-  const [error, setError] = useState<string | null>(null);
-  const [busy, setBusy] = useState(false);
+  const { fields, setFields, error, setError, busy, run } = useApiForm();
   const measured = take.status === 'measured';
 
   async function send(decision: 'approved' | 'rejected' | 'pending') {
@@ -26,19 +24,11 @@ export function DecisionPanel({ take, canDecide, onDecided }: { take: TakeDetail
       setFields(fieldErrorsOf(parsed.error));
       return;
     }
-    setFields({});
-    setBusy(true);
-    try {
+    await run(async () => {
       const updated = await fetchJson<TakeDetail>(`/api/takes/${take.id}/decision`, { method: 'POST', json: { decision, note } });
       setNote('');
       onDecided(updated);
-    } catch (e) {
-      const apiError = e as ApiError;
-      setFields(apiError.fields ?? {});
-      setError(apiError.message);
-    } finally {
-      setBusy(false);
-    }
+    });
   }
 
   return (
