@@ -8,20 +8,11 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import wavefile from 'wavefile';
 import type { Analyzer, AudioFormat, SampleBlock } from '@/dsp/types';
+import { seededRandom } from './testSignals';
 
 const { WaveFile } = wavefile;
 
-/** Deterministic PRNG (mulberry32), uniform in [0, 1). */
-export function seededRandom(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+export { seededRandom };
 
 /** Standard normal deviates by Box–Muller. */
 export function gaussian(rand: () => number): () => number {
