@@ -1,4 +1,5 @@
 import type { DeliverySpec } from './spec';
+import { channelName, formatClock, formatKhz, plural } from './format';
 import type { AnalysisReport, Finding, Severity } from './types';
 
 /** A DC offset this many times the spec's limit fails instead of warning [common practice]. */
@@ -8,19 +9,6 @@ const ANTI_PHASE_SHARE_WARN = 0.05;
 /** Dropouts and clip events spelled out one by one before the rest are summed up. */
 const LISTED_EVENTS = 5;
 
-/** Seconds as m:ss.s (or h:mm:ss.s) for messages. */
-export function formatTime(seconds: number): string {
-  const tenths = Math.round(seconds * 10);
-  const hours = Math.floor(tenths / 36000);
-  const minutes = Math.floor((tenths % 36000) / 600);
-  const secondsPart = ((tenths % 600) / 10).toFixed(1).padStart(4, '0');
-  return hours > 0 ? `${hours}:${String(minutes).padStart(2, '0')}:${secondsPart}` : `${minutes}:${secondsPart}`;
-}
-
-const channelName = (channel: number, channelCount: number) =>
-  channelCount === 2 ? `${channel === 0 ? 'left' : 'right'} channel` : `channel ${channel + 1}`;
-const kHz = (hz: number) => `${Number((hz / 1000).toFixed(3))} kHz`;
-const plural = (count: number, word: string) => `${count} ${word}${count === 1 ? '' : 's'}`;
 const db = (value: number, decimals = 1) => value.toFixed(decimals);
 
 /**
@@ -47,20 +35,20 @@ export function judgeReport(report: AnalysisReport, spec: DeliverySpec): Finding
     add({ check: 'format', severity: 'warn', message: 'The file is 8-bit: far too coarse for studio work.' });
   }
   if (spec.requiredSampleRate !== null && sampleRate !== spec.requiredSampleRate) {
-    add({ check: 'sample-rate', severity: 'fail', message: `The take is ${kHz(sampleRate)}; the delivery asks for ${kHz(spec.requiredSampleRate)}.` });
+    add({ check: 'sample-rate', severity: 'fail', message: `The take is ${formatKhz(sampleRate)}; the delivery asks for ${formatKhz(spec.requiredSampleRate)}.` });
   }
   if (report.bandwidth.impliedSourceRate !== null && report.bandwidth.effectiveHz !== null) {
     add({
       check: 'sample-rate',
       severity: 'warn',
-      message: `The audio stops at ${kHz(report.bandwidth.effectiveHz)}: it was probably made at ${kHz(report.bandwidth.impliedSourceRate)} and converted up to ${kHz(sampleRate)}.`,
+      message: `The audio stops at ${formatKhz(report.bandwidth.effectiveHz)}: it was probably made at ${formatKhz(report.bandwidth.impliedSourceRate)} and converted up to ${formatKhz(sampleRate)}.`,
     });
   }
   if (report.tone?.likelyRecordedRate) {
     add({
       check: 'sample-rate',
       severity: 'warn',
-      message: `The line-up tone reads ${db(report.tone.frequencyHz, 1)} Hz; the take was probably recorded at ${kHz(report.tone.likelyRecordedRate)} and is labelled ${kHz(sampleRate)}.`,
+      message: `The line-up tone reads ${db(report.tone.frequencyHz, 1)} Hz; the take was probably recorded at ${formatKhz(report.tone.likelyRecordedRate)} and is labelled ${formatKhz(sampleRate)}.`,
       startSec: report.tone.startSec,
       endSec: report.tone.endSec,
     });
@@ -97,7 +85,7 @@ export function judgeReport(report: AnalysisReport, spec: DeliverySpec): Finding
         const events = clipEvents.filter((event) => event.channel === channel && event.level === kind);
         if (events.length === 0) continue;
         const first = events[0];
-        const where = events.slice(0, LISTED_EVENTS).map((event) => formatTime(event.startSec)).join(', ') + (events.length > LISTED_EVENTS ? ', ...' : '');
+        const where = events.slice(0, LISTED_EVENTS).map((event) => formatClock(event.startSec)).join(', ') + (events.length > LISTED_EVENTS ? ', ...' : '');
         const what =
           kind === 'fullScale'
             ? `${plural(events.length, 'clipping event')} on ${channelName(channel, channelCount)} at full scale (at ${where})`
@@ -116,7 +104,7 @@ export function judgeReport(report: AnalysisReport, spec: DeliverySpec): Finding
       add({
         check: 'true-peak',
         severity: channel.truePeakDbtp > 0 ? 'fail' : strict,
-        message: `True peak on ${channelName(index, channelCount)} reaches ${db(channel.truePeakDbtp)} dBTP${channel.truePeakAtSec !== undefined ? ` at ${formatTime(channel.truePeakAtSec)}` : ''}, above the ${db(spec.maxTruePeakDbtp)} dBTP limit.`,
+        message: `True peak on ${channelName(index, channelCount)} reaches ${db(channel.truePeakDbtp)} dBTP${channel.truePeakAtSec !== undefined ? ` at ${formatClock(channel.truePeakAtSec)}` : ''}, above the ${db(spec.maxTruePeakDbtp)} dBTP limit.`,
         channel: index,
         ...(channel.truePeakAtSec !== undefined ? { startSec: channel.truePeakAtSec, endSec: channel.truePeakAtSec } : {}),
       });
@@ -148,7 +136,7 @@ export function judgeReport(report: AnalysisReport, spec: DeliverySpec): Finding
   // bandwidth and aliasing
   const nyquist = sampleRate / 2;
   if (report.bandwidth.effectiveHz !== null && anySignal && report.bandwidth.effectiveHz < spec.minBandwidthRatio * nyquist && report.bandwidth.impliedSourceRate === null) {
-    add({ check: 'bandwidth', severity: 'warn', message: `The audio reaches only ${kHz(report.bandwidth.effectiveHz)}, less than ${Math.round(spec.minBandwidthRatio * 100)}% of the ${kHz(nyquist)} a ${kHz(sampleRate)} take can carry.` });
+    add({ check: 'bandwidth', severity: 'warn', message: `The audio reaches only ${formatKhz(report.bandwidth.effectiveHz)}, less than ${Math.round(spec.minBandwidthRatio * 100)}% of the ${formatKhz(nyquist)} a ${formatKhz(sampleRate)} take can carry.` });
   }
   if (report.bandwidth.aliasingRisk) {
     add({ check: 'aliasing', severity: 'warn', message: 'There is strong energy right up to the Nyquist frequency with no filter roll-off: the take may contain aliasing.' });
@@ -171,7 +159,7 @@ export function judgeReport(report: AnalysisReport, spec: DeliverySpec): Finding
   const dropoutCount = report.dropoutCount ?? report.dropouts.length;
   if (dropoutCount > 0) {
     const severity: Severity = dropoutCount > spec.maxDropouts ? 'fail' : 'warn';
-    const where = report.dropouts.slice(0, LISTED_EVENTS).map((gap) => `${formatTime(gap.startSec)} (${Math.round((gap.endSec - gap.startSec) * 1000)} ms)`).join(', ');
+    const where = report.dropouts.slice(0, LISTED_EVENTS).map((gap) => `${formatClock(gap.startSec)} (${Math.round((gap.endSec - gap.startSec) * 1000)} ms)`).join(', ');
     const more = dropoutCount > LISTED_EVENTS ? ', ...' : '';
     const first = report.dropouts[0];
     add({ check: 'dropout', severity, message: `${plural(dropoutCount, 'dropout')} (digital silence inside the take) at ${where}${more}.`, startSec: first?.startSec, endSec: first?.endSec });
@@ -207,7 +195,7 @@ export function judgeReport(report: AnalysisReport, spec: DeliverySpec): Finding
     add({
       check: 'tone',
       severity: 'info',
-      message: `Line-up tone of ${db(tone.frequencyHz, 1)} Hz at ${db(tone.levelDbfs)} dBFS from ${formatTime(tone.startSec)} to ${formatTime(tone.endSec)} (SINAD ${db(tone.sinadDb)} dB, about ${db(tone.enobBits)} effective bits).`,
+      message: `Line-up tone of ${db(tone.frequencyHz, 1)} Hz at ${db(tone.levelDbfs)} dBFS from ${formatClock(tone.startSec)} to ${formatClock(tone.endSec)} (SINAD ${db(tone.sinadDb)} dB, about ${db(tone.enobBits)} effective bits).`,
       startSec: tone.startSec,
       endSec: tone.endSec,
     });

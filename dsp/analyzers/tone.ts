@@ -2,6 +2,8 @@ import FFT from 'fft.js';
 import type { Analyzer, AudioFormat, SampleBlock } from '../types';
 import { assertAnalysableFormat, declaredFrames, hannWindow } from './formatGuard';
 import { STANDARD_RATES_HZ } from './spectrum';
+import { fitSine, type SineFit } from '../util/sineFit';
+import { roundTo } from '../util/decibels';
 
 /**
  * Steady line-up tone at the start or end of a take.
@@ -75,16 +77,6 @@ const MAX_BUFFER_SAMPLES = 2 ** 21;
  */
 const TRUNCATION_MARGIN_SEC = 60;
 
-interface SineFit {
-  a: number;
-  b: number;
-  c: number;
-  /** rad/sample */
-  omega: number;
-  /** Sample index (in the buffer) the fit's time origin sits at. */
-  origin: number;
-  residualMs: number;
-}
 
 interface Candidate {
   channel: number;
@@ -294,14 +286,14 @@ export class ToneAnalyzer implements Analyzer<ToneResult | null> {
     const f = (tone.fit.omega * this.fs) / (2 * Math.PI);
     const sinad = tone.sinadDb;
     return {
-      startSec: round(tone.startFrame / this.fs, 3),
-      endSec: round(tone.endFrame / this.fs, 3),
-      frequencyHz: round(f, 3),
-      levelDbfs: round(20 * Math.log10(tone.amplitude), 2),
-      sinadDb: round(sinad, 2),
-      thdnDb: round(-sinad, 2),
+      startSec: roundTo(tone.startFrame / this.fs, 3),
+      endSec: roundTo(tone.endFrame / this.fs, 3),
+      frequencyHz: roundTo(f, 3),
+      levelDbfs: roundTo(20 * Math.log10(tone.amplitude), 2),
+      sinadDb: roundTo(sinad, 2),
+      thdnDb: roundTo(-sinad, 2),
       // IEEE 1241 full-scale-referred ENOB, FS peak = 1.0.
-      enobBits: round((sinad - 1.76 + 20 * Math.log10(1 / tone.amplitude)) / 6.02, 2),
+      enobBits: roundTo((sinad - 1.76 + 20 * Math.log10(1 / tone.amplitude)) / 6.02, 2),
       likelyRecordedRate: likelyRecordedRate(f, this.fs),
       channel: tone.channel,
     };
@@ -468,110 +460,6 @@ export class ToneAnalyzer implements Analyzer<ToneResult | null> {
 }
 
 /**
- * IEEE 1057 / IEEE 1241 four-parameter sine fit x[n] ≈ a·cos(ωt) + b·sin(ωt) + c,
- * t = n − origin: Gauss–Newton on ω from a three-parameter start, over growing
- * spans (0.5 s → 2 s → all) so a small initial frequency error cannot wrap the phase.
- */
-function fitSine(x: Float64Array, from: number, length: number, omega0: number, sampleRate: number): SineFit | null {
-  let omega = omega0;
-  const spans = [Math.min(length, Math.round(0.5 * sampleRate)), Math.min(length, 2 * sampleRate), length].filter((v, i, arr) => i === 0 || v > arr[i - 1]);
-  let fit: SineFit | null = null;
-  for (const span of spans) {
-    const origin = from + (span - 1) / 2;
-    for (let iter = 0; iter < 6; iter++) {
-      const three = solveThree(x, from, span, origin, omega);
-      if (!three) return null;
-      const step = solveFourStep(x, from, span, origin, omega, three.a, three.b);
-      if (step === null) return null;
-      omega += step;
-      if (Math.abs(step) < 1e-13) break;
-    }
-    fit = solveThree(x, from, span, origin, omega);
-    if (!fit) return null;
-  }
-  return fit;
-}
-
-/** Three-parameter least squares (known ω): a, b, c and the residual mean square. */
-function solveThree(x: Float64Array, from: number, length: number, origin: number, omega: number): SineFit | null {
-  let scc = 0, sss = 0, scs = 0, sc = 0, ss = 0, sxc = 0, sxs = 0, sx = 0;
-  for (let n = from; n < from + length; n++) {
-    const t = n - origin;
-    const co = Math.cos(omega * t);
-    const si = Math.sin(omega * t);
-    const v = x[n];
-    scc += co * co; sss += si * si; scs += co * si; sc += co; ss += si;
-    sxc += v * co; sxs += v * si; sx += v;
-  }
-  const sol = solveLinear(
-    [
-      [scc, scs, sc],
-      [scs, sss, ss],
-      [sc, ss, length],
-    ],
-    [sxc, sxs, sx],
-  );
-  if (!sol) return null;
-  const [a, b, c] = sol;
-  // Residual energy summed sample by sample (the closed form Σx² − θᵀAᵀx cancels badly at 140 dB SINAD).
-  let r = 0;
-  for (let n = from; n < from + length; n++) {
-    const t = n - origin;
-    const e = x[n] - (a * Math.cos(omega * t) + b * Math.sin(omega * t) + c);
-    r += e * e;
-  }
-  return { a, b, c, omega, origin, residualMs: r / length };
-}
-
-/** One Gauss–Newton step in ω for the four-parameter model, linearised at (a, b, ω). */
-function solveFourStep(x: Float64Array, from: number, length: number, origin: number, omega: number, a: number, b: number): number | null {
-  const m = [[0, 0, 0, 0], [0, 0, 0, 0], [0, 0, 0, 0], [0, 0, 0, 0]];
-  const rhs = [0, 0, 0, 0];
-  const col = [0, 0, 0, 0];
-  for (let n = from; n < from + length; n++) {
-    const t = n - origin;
-    const co = Math.cos(omega * t);
-    const si = Math.sin(omega * t);
-    col[0] = co;
-    col[1] = si;
-    col[2] = 1;
-    col[3] = t * (-a * si + b * co);
-    const v = x[n];
-    for (let i = 0; i < 4; i++) {
-      rhs[i] += col[i] * v;
-      for (let j = i; j < 4; j++) m[i][j] += col[i] * col[j];
-    }
-  }
-  for (let i = 0; i < 4; i++) for (let j = 0; j < i; j++) m[i][j] = m[j][i];
-  // Solving for (a', b', c', Δω) with the current a, b in the derivative column gives the step directly.
-  const sol = solveLinear(m, rhs);
-  return sol ? sol[3] : null;
-}
-
-/** Gaussian elimination with partial pivoting; null when singular. */
-function solveLinear(matrix: number[][], rhs: number[]): number[] | null {
-  const n = rhs.length;
-  const a = matrix.map((row, i) => [...row, rhs[i]]);
-  for (let col = 0; col < n; col++) {
-    let pivot = col;
-    for (let r = col + 1; r < n; r++) if (Math.abs(a[r][col]) > Math.abs(a[pivot][col])) pivot = r;
-    if (!(Math.abs(a[pivot][col]) > 1e-300)) return null;
-    [a[col], a[pivot]] = [a[pivot], a[col]];
-    for (let r = col + 1; r < n; r++) {
-      const f = a[r][col] / a[col][col];
-      for (let k = col; k <= n; k++) a[r][k] -= f * a[col][k];
-    }
-  }
-  const out = new Array<number>(n).fill(0);
-  for (let r = n - 1; r >= 0; r--) {
-    let s = a[r][n];
-    for (let k = r + 1; k < n; k++) s -= a[r][k] * out[k];
-    out[r] = s / a[r][r];
-  }
-  return out;
-}
-
-/**
  * A 1000 Hz or 997 Hz tone recorded at rate R and declared at rate D plays at
  * f·D/R (the samples are the same; only the clock differs). Returns R when the
  * measured frequency matches that for a standard R ≠ D, else null.
@@ -588,7 +476,3 @@ export function likelyRecordedRate(measuredHz: number, declaredRate: number): nu
   return null;
 }
 
-function round(x: number, digits: number): number {
-  const f = 10 ** digits;
-  return Math.round(x * f) / f;
-}

@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { formatTime, judgeReport, verdictOf } from '../../../dsp/findings';
+import { judgeReport, verdictOf } from '../../../dsp/findings';
+import { formatClock } from '../../../dsp/format';
 import { DEFAULT_SPEC, type DeliverySpec } from '../../../dsp/spec';
 import type { AnalysisReport, Finding } from '../../../dsp/types';
 
@@ -162,7 +163,7 @@ describe('judgeReport', () => {
   });
 });
 
-describe('verdictOf and formatTime', () => {
+describe('verdictOf and formatClock', () => {
   it('takes the worst severity', () => {
     const finding = (severity: Finding['severity']): Finding => ({ check: 'loudness', severity, message: '' });
     expect(verdictOf([])).toBe('pass');
@@ -172,8 +173,8 @@ describe('verdictOf and formatTime', () => {
   });
 
   it('writes times as m:ss.s or h:mm:ss.s', () => {
-    expect(formatTime(3.24)).toBe('0:03.2');
-    expect(formatTime(61.25)).toBe('1:01.3');
-    expect(formatTime(3723.5)).toBe('1:02:03.5');
+    expect(formatClock(3.24)).toBe('0:03.2');
+    expect(formatClock(61.25)).toBe('1:01.3');
+    expect(formatClock(3723.5)).toBe('1:02:03.5');
   });
 });
