@@ -1,6 +1,6 @@
 import type { Metadata } from 'next';
 import type { ReactNode } from 'react';
-import { currentTheme } from '@/lib/theme';
+import { currentTheme } from '@/lib/theme/current.server';
 import { atkinsonHyperlegible, atkinsonHyperlegibleMono } from './fonts';
 import './globals.css';
 

@@ -1,5 +1,5 @@
 import Link from 'next/link';
-import type { FleetAlert } from '@/lib/fleetAlerts';
+import type { FleetAlert } from '@/lib/fleet/alerts';
 
 const SEVERITY = {
   fail: { mark: '■', word: 'Act now', className: 'text-fail' },

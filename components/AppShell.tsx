@@ -1,8 +1,8 @@
 import Link from 'next/link';
 import type { ReactNode } from 'react';
-import type { Actor } from '@/lib/auth/guard';
+import type { Actor } from '@/lib/auth/guard.server';
 import { can } from '@/lib/auth/policy';
-import { NAVIGATION } from '@/lib/navigation';
+import { NAVIGATION } from '@/lib/auth/navigation';
 import { SignOutButton } from './SignOutButton';
 import { ThemeSwitcher, type Theme } from './ThemeSwitcher';
 import { Wordmark } from './Wordmark';

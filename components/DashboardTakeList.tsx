@@ -1,5 +1,5 @@
 import Link from 'next/link';
-import type { DashboardTake } from '@/lib/dashboard';
+import type { DashboardTake } from '@/lib/overview/overview.server';
 import { TakeStatusMark, VerdictMark } from './StatusMarks';
 
 /** A short list of takes on the overview page, each linking to its review page. */

@@ -1,6 +1,6 @@
 import Link from 'next/link';
-import type { Actor } from '@/lib/auth/guard';
-import { fleetAlerts } from '@/lib/fleet';
+import type { Actor } from '@/lib/auth/guard.server';
+import { fleetAlerts } from '@/lib/fleet/service.server';
 import { AlertList } from './AlertList';
 
 /** The manager's overview section: the fleet's open alerts, most serious first. */

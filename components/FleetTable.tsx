@@ -3,9 +3,9 @@
 import Link from 'next/link';
 import { useMemo, useState } from 'react';
 import useSWR from 'swr';
-import { ApiError } from '@/lib/fetcher';
-import { FLEET_PERIODS, PERIOD_LABEL, type FleetPeriod, type FleetRow } from '@/lib/fleetViews';
-import { fleetKey } from '@/lib/fleetKeys';
+import { ApiError } from '@/lib/http/fetcher';
+import { FLEET_PERIODS, PERIOD_LABEL, type FleetPeriod, type FleetRow } from '@/lib/fleet/views';
+import { fleetKey } from '@/lib/fleet/keys';
 import { Sparkline } from './Sparkline';
 
 type SortKey = 'label' | 'takes' | 'medianFloorDbfs' | 'clippedShare' | 'minEffectiveBits' | 'overTakes' | 'rateMismatchTakes' | 'aliasingTakes' | 'rejectRate' | 'alerts';

@@ -1,8 +1,8 @@
 'use client';
 
 import { useRouter } from 'next/navigation';
-import { fetchJson } from '@/lib/fetcher';
-import { BEXT_MATCH_HELP } from '@/lib/schemas/recorder';
+import { fetchJson } from '@/lib/http/fetcher';
+import { BEXT_MATCH_HELP } from '@/lib/recorders/schema';
 import { FormField } from './FormField';
 import { useApiForm } from './useApiForm';
 import { FormMessage } from '@/components/FormMessage';

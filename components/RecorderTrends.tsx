@@ -1,7 +1,7 @@
 'use client';
 
 import { useMemo } from 'react';
-import type { RecorderTrendWeek } from '@/lib/fleetViews';
+import type { RecorderTrendWeek } from '@/lib/fleet/views';
 import { TrendChart, type TrendSeries } from './TrendChart';
 
 /** The three weekly trend charts of one recorder. */

@@ -2,7 +2,7 @@
 
 import { useRouter } from 'next/navigation';
 import { useSWRConfig } from 'swr';
-import { fetchJson } from '@/lib/fetcher';
+import { fetchJson } from '@/lib/http/fetcher';
 import { FormField } from './FormField';
 import { useApiForm } from './useApiForm';
 import { FormMessage } from '@/components/FormMessage';

@@ -2,8 +2,8 @@
 
 import { useId, useState } from 'react';
 import useSWR from 'swr';
-import { ApiError, fetchJson, swrFetcher } from '@/lib/fetcher';
-import type { DeliveryView } from '@/lib/mail/deliveries';
+import { ApiError, fetchJson, swrFetcher } from '@/lib/http/fetcher';
+import type { DeliveryView } from '@/lib/mail/deliveries.server';
 import { FormField } from './FormField';
 import { FormMessage } from '@/components/FormMessage';
 import { useApiForm } from './useApiForm';

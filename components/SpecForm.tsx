@@ -1,8 +1,8 @@
 'use client';
 
 import { useRouter } from 'next/navigation';
-import { fetchJson } from '@/lib/fetcher';
-import { SPEC_PRECEDENCE_NOTE, THRESHOLD_FIELDS, type ThresholdField } from '@/lib/specFields';
+import { fetchJson } from '@/lib/http/fetcher';
+import { SPEC_PRECEDENCE_NOTE, THRESHOLD_FIELDS, type ThresholdField } from '@/lib/specs/fields';
 import type { Thresholds } from '@/models/DeliverySpec';
 import { FormMessage } from '@/components/FormMessage';
 import { useApiForm } from './useApiForm';

@@ -3,9 +3,9 @@
 import Link from 'next/link';
 import { useMemo, useState } from 'react';
 import useSWR from 'swr';
-import type { ApiError } from '@/lib/fetcher';
+import type { ApiError } from '@/lib/http/fetcher';
 import { formatDuration, formatFormat, formatNumber } from '@/lib/format';
-import type { TakeSummary } from '@/lib/takeViews';
+import type { TakeSummary } from '@/lib/takes/views';
 import { DecisionMark, TakeStatusMark, VerdictMark } from './StatusMarks';
 
 type SortKey = 'originalName' | 'recorderLabel' | 'durationSec' | 'effectiveBits' | 'truePeakDbtp' | 'integratedLufs' | 'noiseFloorDbfs' | 'clipEvents' | 'verdict' | 'decision';

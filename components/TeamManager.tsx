@@ -2,9 +2,9 @@
 
 import { useState } from 'react';
 import useSWR from 'swr';
-import { ApiError, fetchJson, swrFetcher } from '@/lib/fetcher';
-import type { DeliveryView } from '@/lib/mail/deliveries';
-import type { TeamMember } from '@/lib/team';
+import { ApiError, fetchJson, swrFetcher } from '@/lib/http/fetcher';
+import type { DeliveryView } from '@/lib/mail/deliveries.server';
+import type { TeamMember } from '@/lib/team/service.server';
 import { FormField } from './FormField';
 import { FormMessage } from '@/components/FormMessage';
 import { useApiForm } from './useApiForm';

@@ -2,7 +2,7 @@
 
 import { useState } from 'react';
 import type { FieldErrors } from '@/lib/errors';
-import type { ApiError } from '@/lib/fetcher';
+import type { ApiError } from '@/lib/http/fetcher';
 
 /**
  * The state every form that posts to Takeproof's API keeps: field errors, the outcome line and

@@ -1,10 +1,10 @@
 // `npm run bench:fleet`: times the fleet queries on the studio `npm run seed:fleet` creates and prints
 // the figures (no pass/fail). With TAKEPROOF_URL set (a running app), it also times GET /api/fleet over HTTP.
 import { QueryTypes } from 'sequelize';
-import type { Actor } from '@/lib/auth/guard';
-import { db } from '@/lib/db';
-import { fleetAlerts, fleetOverview, recorderTrends } from '@/lib/fleet';
-import type { FleetPeriod } from '@/lib/fleetViews';
+import type { Actor } from '@/lib/auth/guard.server';
+import { db } from '@/lib/db/connection.server';
+import { fleetAlerts, fleetOverview, recorderTrends } from '@/lib/fleet/service.server';
+import type { FleetPeriod } from '@/lib/fleet/views';
 import { Studio, Take, User } from '@/models';
 
 const STUDIO = 'Brackenridge Sound Depot';

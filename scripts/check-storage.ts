@@ -1,7 +1,7 @@
 // `npm run check:storage`: lists stored files no take refers to, takes whose file is missing,
 // and unfinished writes. Exit code 1 when anything is out of place.
-import { db } from '@/lib/db';
-import { checkStorage } from '@/lib/storageCheck';
+import { db } from '@/lib/db/connection.server';
+import { checkStorage } from '@/lib/storage/check.server';
 
 try {
   const report = await checkStorage();

@@ -1,6 +1,6 @@
 // Applies pending migrations (`down` rolls back the newest one).
-import { migrator } from '@/lib/migrations';
-import { db } from '@/lib/db';
+import { migrator } from '@/lib/db/migrations.server';
+import { db } from '@/lib/db/connection.server';
 
 const umzug = migrator();
 try {

@@ -4,8 +4,8 @@
 // Sizes can be changed: `npm run seed:fleet -- --recorders 20 --takes 5000`.
 import { randomUUID } from 'node:crypto';
 import { QueryTypes } from 'sequelize';
-import { db } from '@/lib/db';
-import { hashPassword } from '@/lib/auth/passwords';
+import { db } from '@/lib/db/connection.server';
+import { hashPassword } from '@/lib/auth/passwords.server';
 import { DeliverySpec, Recorder, RecordingSession, Studio, Take, User } from '@/models';
 import { DEFAULT_SPEC } from '@/dsp/spec';
 

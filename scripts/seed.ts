@@ -1,6 +1,6 @@
 // Loads the invented demo studio (idempotent: existing rows are kept).
-import { db } from '@/lib/db';
-import { seedDemo } from '@/lib/demo';
+import { db } from '@/lib/db/connection.server';
+import { seedDemo } from '@/lib/db/demo.server';
 
 const password = process.env.DEMO_PASSWORD;
 if (!password) {

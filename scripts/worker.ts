@@ -2,9 +2,9 @@
 // Any number may run, on this machine or others that reach the same database and storage.
 import os from 'node:os';
 import { randomBytes } from 'node:crypto';
-import { db } from '@/lib/db';
-import { claimJob, requeueJob, type ClaimedJob } from '@/lib/jobs';
-import { measureTake } from '@/lib/measure';
+import { db } from '@/lib/db/connection.server';
+import { claimJob, requeueJob, type ClaimedJob } from '@/lib/jobs/queue.server';
+import { measureTake } from '@/lib/jobs/measure.server';
 
 const workerId = `${os.hostname()}:${process.pid}:${randomBytes(3).toString('hex')}`;
 const IDLE_POLL_MS = Number(process.env.WORKER_POLL_MS ?? 1000);

@@ -1,10 +1,10 @@
 import Link from 'next/link';
-import { requireActor } from '@/lib/auth/guard';
-import { loadPage } from '@/lib/pages';
+import { requireActor } from '@/lib/auth/guard.server';
+import { loadPage } from '@/lib/http/pages.server';
 import { DashboardTakeList } from '@/components/DashboardTakeList';
 import { FleetAlertsSummary } from '@/components/FleetAlertsSummary';
 import { can } from '@/lib/auth/policy';
-import { openSessionsFor, recentRejects, takesAwaitingReview, takesInMeasurement } from '@/lib/dashboard';
+import { openSessionsFor, recentRejects, takesAwaitingReview, takesInMeasurement } from '@/lib/overview/overview.server';
 
 const GREETING = {
   engineer: 'Your open sessions and the takes still being measured. Upload the takes after each session; Takeproof measures every one.',

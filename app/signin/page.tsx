@@ -2,7 +2,7 @@ import type { Metadata } from 'next';
 import { redirect } from 'next/navigation';
 import { SignInForm } from '@/components/SignInForm';
 import { Wordmark } from '@/components/Wordmark';
-import { currentActor } from '@/lib/auth/guard';
+import { currentActor } from '@/lib/auth/guard.server';
 
 export const metadata: Metadata = { title: 'Sign in' };
 

@@ -3,11 +3,11 @@
 import { useState } from 'react';
 import { FormField } from '@/components/FormField';
 import { useApiForm } from '@/components/useApiForm';
-import { fetchJson } from '@/lib/fetcher';
-import { fieldErrorsOf } from '@/lib/formErrors';
-import { formatClock, parseClock } from '@/lib/review';
-import { commentSchema } from '@/lib/schemas/take';
-import type { TakeCommentView } from '@/lib/takeReview';
+import { fetchJson } from '@/lib/http/fetcher';
+import { fieldErrorsOf } from '@/lib/http/fieldErrors';
+import { formatClock, parseClock } from '@/lib/review/reportView';
+import { commentSchema } from '@/lib/review/schema';
+import type { TakeCommentView } from '@/lib/review/service.server';
 
 /** Time-stamped comments: listed in time order, added at the playhead (or a typed time). */
 export function CommentsPanel({

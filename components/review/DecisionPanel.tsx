@@ -4,10 +4,10 @@ import { useState } from 'react';
 import { DecisionMark } from '@/components/StatusMarks';
 import { FormField } from '@/components/FormField';
 import { useApiForm } from '@/components/useApiForm';
-import { fetchJson } from '@/lib/fetcher';
-import { fieldErrorsOf } from '@/lib/formErrors';
-import { decisionSchema } from '@/lib/schemas/take';
-import type { TakeDetail } from '@/lib/takeViews';
+import { fetchJson } from '@/lib/http/fetcher';
+import { fieldErrorsOf } from '@/lib/http/fieldErrors';
+import { decisionSchema } from '@/lib/review/schema';
+import type { TakeDetail } from '@/lib/takes/views';
 
 const when = (iso: string) => new Date(iso).toLocaleString('en-GB', { dateStyle: 'medium', timeStyle: 'short' });
 

@@ -1,6 +1,6 @@
 import type { DeliverySpec } from '@/dsp/spec';
 import type { AnalysisReport } from '@/dsp/types';
-import { CHECK_LABEL, measureRows, untimedFindings } from '@/lib/review';
+import { CHECK_LABEL, measureRows, untimedFindings } from '@/lib/review/reportView';
 import { MeasureMark, SeverityMark } from './marks';
 
 /** Every measure of the take with its mark and a sentence on what it means. */

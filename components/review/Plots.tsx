@@ -3,7 +3,7 @@
 import { useEffect, useRef } from 'react';
 import uPlot from 'uplot';
 import 'uplot/dist/uPlot.min.css';
-import { formatClock } from '@/lib/review';
+import { formatClock } from '@/lib/review/reportView';
 import { useThemeColors, type ThemeColors } from './useThemeColors';
 
 type Build = (colors: ThemeColors, width: number) => { options: uPlot.Options; data: uPlot.AlignedData };

@@ -3,9 +3,9 @@
 import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
 import type WaveSurfer from 'wavesurfer.js';
 import type RegionsPlugin from 'wavesurfer.js/plugins/regions';
-import { fetchJson } from '@/lib/fetcher';
-import { channelLabel, cueTime, formatClock, neighbourMarker, type TimedMarker } from '@/lib/review';
-import type { TakeCommentView } from '@/lib/takeReview';
+import { fetchJson } from '@/lib/http/fetcher';
+import { channelLabel, cueTime, formatClock, neighbourMarker, type TimedMarker } from '@/lib/review/reportView';
+import type { TakeCommentView } from '@/lib/review/service.server';
 import { SEVERITY, SeverityMark } from './marks';
 import { useThemeColors } from './useThemeColors';
 

@@ -1,5 +1,5 @@
 import type { Severity } from '@/dsp/types';
-import type { Mark } from '@/lib/review';
+import type { Mark } from '@/lib/review/reportView';
 
 // Colour always comes with a shape and a word.
 export const SEVERITY = {

@@ -1,4 +1,4 @@
-import type { TakeSummary } from '@/lib/takeViews';
+import type { TakeSummary } from '@/lib/takes/views';
 import { DECISION_LABEL, VERDICT_LABEL } from './labels';
 
 type Cell = string | number | null;

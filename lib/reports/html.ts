@@ -1,5 +1,5 @@
 import { REPORT_CAUTION } from './labels';
-import { sessionDetails, summaryLines, takeCells, type ReportData } from './sessionReport';
+import { sessionDetails, summaryLines, takeCells, type ReportData } from './data.server';
 
 export function escapeHtml(text: string): string {
   return text.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!);

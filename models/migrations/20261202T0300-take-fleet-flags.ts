@@ -2,7 +2,7 @@ import { DataTypes, type QueryInterface } from 'sequelize';
 
 /**
  * Per-take flags the fleet statistics read in SQL (filled by the worker from the report, see
- * lib/verdicts.ts measuredFields), and the indexes the fleet queries use.
+ * lib/takes/verdicts.server.ts measuredFields), and the indexes the fleet queries use.
  */
 export async function up({ context: qi }: { context: QueryInterface }) {
   // Clip events that flat-top below 0 dBFS (a gain stage clipping before the converter).

@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser } from 'playwright-core';
-import { db } from '@/lib/db';
+import { db } from '@/lib/db/connection.server';
 import { Recorder, RecordingSession, Take, User } from '@/models';
 import { BASE_URL, launchBrowser, screenshot, signInAs } from '../support/browser';
 import { summaryTake } from '../support/fleetData';

@@ -1,5 +1,5 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { db } from '@/lib/db';
+import { db } from '@/lib/db/connection.server';
 import { Take, User } from '@/models';
 import { signedInAll, type Client, type DemoPerson } from '../support/http';
 import { summaryTake, type SummaryRow } from '../support/fleetData';

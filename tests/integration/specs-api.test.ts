@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { db } from '@/lib/db';
-import { measuredFields } from '@/lib/verdicts';
+import { db } from '@/lib/db/connection.server';
+import { measuredFields } from '@/lib/takes/verdicts.server';
 import { DEFAULT_SPEC } from '@/dsp/spec';
 import type { AnalysisReport } from '@/dsp/types';
 import { Take, User } from '@/models';

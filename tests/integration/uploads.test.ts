@@ -30,7 +30,7 @@ function storedFiles(): string[] {
 
 /** Waits out unfinished writes, then checks that no file which appeared since `before` lacks a take. */
 async function expectNoOrphansSince(before: Set<string>) {
-  const { checkStorage } = await import('@/lib/storageCheck');
+  const { checkStorage } = await import('@/lib/storage/check.server');
   let report = await checkStorage();
   const until = Date.now() + 5000;
   while (report.partialWrites.length && Date.now() < until) {

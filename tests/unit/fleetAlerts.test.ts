@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { DEFAULT_ALERT_SETTINGS, recorderAlerts, type RecorderHealth } from '@/lib/fleetAlerts';
+import { DEFAULT_ALERT_SETTINGS, recorderAlerts, type RecorderHealth } from '@/lib/fleet/alerts';
 
 // A seeded trend: one take a day for 104 days (90 baseline + 14 recent), a floor that may step up
 // over the last 14 days, reduced to the aggregates SQL hands over (medians computed here directly).

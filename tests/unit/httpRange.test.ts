@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { contentDisposition, contentRange, parseRange, safeFileName } from '@/lib/httpRange';
+import { contentDisposition, contentRange, parseRange, safeFileName } from '@/lib/http/range';
 
 const SIZE = 10_000;
 

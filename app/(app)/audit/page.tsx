@@ -1,9 +1,9 @@
 import type { Metadata } from 'next';
 import Link from 'next/link';
-import { requireActor } from '@/lib/auth/guard';
-import { auditFilterOptions, listAuditEvents, type AuditPage } from '@/lib/auditLog';
-import { loadPage } from '@/lib/pages';
-import { auditQuerySchema, type AuditQuery } from '@/lib/schemas/audit';
+import { requireActor } from '@/lib/auth/guard.server';
+import { auditFilterOptions, listAuditEvents, type AuditPage } from '@/lib/audit/log.server';
+import { loadPage } from '@/lib/http/pages.server';
+import { auditQuerySchema, type AuditQuery } from '@/lib/audit/schema';
 
 export const metadata: Metadata = { title: 'Audit log' };
 

@@ -2,11 +2,11 @@ import type { Metadata } from 'next';
 import Link from 'next/link';
 import { FleetTable } from '@/components/FleetTable';
 import { SwrProvider } from '@/components/SwrProvider';
-import { requireActor } from '@/lib/auth/guard';
-import { DEFAULT_ALERT_SETTINGS } from '@/lib/fleetAlerts';
-import { fleetOverview } from '@/lib/fleet';
-import { fleetKey } from '@/lib/fleetKeys';
-import { loadPage } from '@/lib/pages';
+import { requireActor } from '@/lib/auth/guard.server';
+import { DEFAULT_ALERT_SETTINGS } from '@/lib/fleet/alerts';
+import { fleetOverview } from '@/lib/fleet/service.server';
+import { fleetKey } from '@/lib/fleet/keys';
+import { loadPage } from '@/lib/http/pages.server';
 
 export const metadata: Metadata = { title: 'Fleet' };
 

@@ -1,8 +1,8 @@
 import type { Metadata } from 'next';
 import Link from 'next/link';
-import { requireActor } from '@/lib/auth/guard';
-import { listOutbox } from '@/lib/mail/outbox';
-import { loadPage } from '@/lib/pages';
+import { requireActor } from '@/lib/auth/guard.server';
+import { listOutbox } from '@/lib/mail/outbox.server';
+import { loadPage } from '@/lib/http/pages.server';
 
 export const metadata: Metadata = { title: 'Outbox' };
 

@@ -1,9 +1,9 @@
 import type { Metadata } from 'next';
 import Link from 'next/link';
 import { RecorderForm } from '@/components/RecorderForm';
-import { requireActor } from '@/lib/auth/guard';
-import { loadPage } from '@/lib/pages';
-import { listRecorders } from '@/lib/recorders';
+import { requireActor } from '@/lib/auth/guard.server';
+import { loadPage } from '@/lib/http/pages.server';
+import { listRecorders } from '@/lib/recorders/service.server';
 
 export const metadata: Metadata = { title: 'Recorders' };
 

@@ -2,12 +2,12 @@ import type { Metadata } from 'next';
 import { SessionCreateForm } from '@/components/SessionCreateForm';
 import { SessionList } from '@/components/SessionList';
 import { SwrProvider } from '@/components/SwrProvider';
-import { requireActor } from '@/lib/auth/guard';
+import { requireActor } from '@/lib/auth/guard.server';
 import { can } from '@/lib/auth/policy';
-import { peopleOptions, specOptions } from '@/lib/options';
-import { loadPage } from '@/lib/pages';
-import { listSessions } from '@/lib/sessions';
-import { sessionsKey } from '@/lib/swrKeys';
+import { peopleOptions, specOptions } from '@/lib/studio/formOptions.server';
+import { loadPage } from '@/lib/http/pages.server';
+import { listSessions } from '@/lib/sessions/service.server';
+import { sessionsKey } from '@/lib/http/swrKeys';
 
 export const metadata: Metadata = { title: 'Sessions' };
 

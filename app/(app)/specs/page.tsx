@@ -1,10 +1,10 @@
 import type { Metadata } from 'next';
 import Link from 'next/link';
 import { SpecDuplicateButton } from '@/components/SpecDuplicateButton';
-import { requireActor } from '@/lib/auth/guard';
-import { listSpecs } from '@/lib/deliverySpecs';
-import { loadPage } from '@/lib/pages';
-import { SPEC_PRECEDENCE_NOTE } from '@/lib/specFields';
+import { requireActor } from '@/lib/auth/guard.server';
+import { listSpecs } from '@/lib/specs/service.server';
+import { loadPage } from '@/lib/http/pages.server';
+import { SPEC_PRECEDENCE_NOTE } from '@/lib/specs/fields';
 
 export const metadata: Metadata = { title: 'Delivery specs' };
 

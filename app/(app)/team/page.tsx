@@ -1,8 +1,8 @@
 import type { Metadata } from 'next';
 import { TeamManager } from '@/components/TeamManager';
-import { requireActor } from '@/lib/auth/guard';
-import { loadPage } from '@/lib/pages';
-import { INVITATION_HOURS, listTeam } from '@/lib/team';
+import { requireActor } from '@/lib/auth/guard.server';
+import { loadPage } from '@/lib/http/pages.server';
+import { INVITATION_HOURS, listTeam } from '@/lib/team/service.server';
 
 export const metadata: Metadata = { title: 'Team' };
 

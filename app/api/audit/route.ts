@@ -1,7 +1,7 @@
-import { requireActor } from '@/lib/auth/guard';
-import { listAuditEvents } from '@/lib/auditLog';
-import { json, route } from '@/lib/http';
-import { auditQuerySchema } from '@/lib/schemas/audit';
+import { requireActor } from '@/lib/auth/guard.server';
+import { listAuditEvents } from '@/lib/audit/log.server';
+import { json, route } from '@/lib/http/route.server';
+import { auditQuerySchema } from '@/lib/audit/schema';
 
 /** `?action=&actorId=&subjectType=&from=YYYY-MM-DD&to=YYYY-MM-DD&page=` → newest first, 50 a page. */
 export const GET = route(async (request) => {

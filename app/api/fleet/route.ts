@@ -1,8 +1,8 @@
-import { requireActor } from '@/lib/auth/guard';
+import { requireActor } from '@/lib/auth/guard.server';
 import { AppError } from '@/lib/errors';
-import { fleetOverview } from '@/lib/fleet';
-import { parsePeriod } from '@/lib/fleetViews';
-import { json, route } from '@/lib/http';
+import { fleetOverview } from '@/lib/fleet/service.server';
+import { parsePeriod } from '@/lib/fleet/views';
+import { json, route } from '@/lib/http/route.server';
 
 export const GET = route(async (request) => {
   const actor = await requireActor('fleet:view');

@@ -1,7 +1,7 @@
-import { requireActor } from '@/lib/auth/guard';
-import { json, parseJson, route } from '@/lib/http';
-import { createRecorder, listRecorders } from '@/lib/recorders';
-import { createRecorderSchema, recorderQuerySchema } from '@/lib/schemas/recorder';
+import { requireActor } from '@/lib/auth/guard.server';
+import { json, parseJson, route } from '@/lib/http/route.server';
+import { createRecorder, listRecorders } from '@/lib/recorders/service.server';
+import { createRecorderSchema, recorderQuerySchema } from '@/lib/recorders/schema';
 
 export const GET = route(async (request) => {
   const actor = await requireActor('recorder:manage');

@@ -1,7 +1,7 @@
-import { requireActor } from '@/lib/auth/guard';
-import { json, parseJson, route } from '@/lib/http';
-import { createSessionSchema, sessionQuerySchema } from '@/lib/schemas/session';
-import { createSession, listSessions } from '@/lib/sessions';
+import { requireActor } from '@/lib/auth/guard.server';
+import { json, parseJson, route } from '@/lib/http/route.server';
+import { createSessionSchema, sessionQuerySchema } from '@/lib/sessions/schema';
+import { createSession, listSessions } from '@/lib/sessions/service.server';
 
 export const GET = route(async (request) => {
   const actor = await requireActor('session:view');

@@ -1,8 +1,8 @@
 import { z } from 'zod';
-import { requireActor } from '@/lib/auth/guard';
-import { createSpec, listSpecs } from '@/lib/deliverySpecs';
-import { json, parseJson, route } from '@/lib/http';
-import { createSpecSchema, specErrorMap } from '@/lib/schemas/spec';
+import { requireActor } from '@/lib/auth/guard.server';
+import { createSpec, listSpecs } from '@/lib/specs/service.server';
+import { json, parseJson, route } from '@/lib/http/route.server';
+import { createSpecSchema, specErrorMap } from '@/lib/specs/schema';
 
 export const GET = route(async () => {
   const actor = await requireActor('spec:manage');

@@ -1,7 +1,7 @@
-import { requireActor } from '@/lib/auth/guard';
-import { json, parseJson, route } from '@/lib/http';
-import { inviteSchema } from '@/lib/schemas/team';
-import { inviteMember, listTeam } from '@/lib/team';
+import { requireActor } from '@/lib/auth/guard.server';
+import { json, parseJson, route } from '@/lib/http/route.server';
+import { inviteSchema } from '@/lib/team/schema';
+import { inviteMember, listTeam } from '@/lib/team/service.server';
 
 export const GET = route(async () => {
   const actor = await requireActor('user:manage');

@@ -2,8 +2,8 @@ import type { Metadata } from 'next';
 import Link from 'next/link';
 import { InviteAcceptForm } from '@/components/InviteAcceptForm';
 import { Wordmark } from '@/components/Wordmark';
-import { PASSWORD_MIN } from '@/lib/schemas/team';
-import { checkInvitation, INVITATION_REFUSED } from '@/lib/team';
+import { PASSWORD_MIN } from '@/lib/team/schema';
+import { checkInvitation, INVITATION_REFUSED } from '@/lib/team/service.server';
 
 export const metadata: Metadata = { title: 'Accept invitation', referrer: 'no-referrer' };
 

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { csvField, csvRow } from '@/lib/reports/csv';
-import { pdfText } from '@/lib/reports/pdf';
+import { pdfText } from '@/lib/reports/pdf.server';
 
 describe('CSV fields', () => {
   it('quotes commas, quotes and line breaks as RFC 4180 says', () => {

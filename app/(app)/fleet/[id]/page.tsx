@@ -2,12 +2,12 @@ import type { Metadata } from 'next';
 import Link from 'next/link';
 import { AlertList } from '@/components/AlertList';
 import { RecorderTrends } from '@/components/RecorderTrends';
-import { requireActor } from '@/lib/auth/guard';
-import { fleetAlerts, recorderRecentTakes, recorderTrends } from '@/lib/fleet';
-import { DEFAULT_ALERT_SETTINGS } from '@/lib/fleetAlerts';
-import { FLEET_PERIODS, PERIOD_LABEL, parsePeriod } from '@/lib/fleetViews';
-import { loadPage } from '@/lib/pages';
-import { getRecorder } from '@/lib/recorders';
+import { requireActor } from '@/lib/auth/guard.server';
+import { fleetAlerts, recorderRecentTakes, recorderTrends } from '@/lib/fleet/service.server';
+import { DEFAULT_ALERT_SETTINGS } from '@/lib/fleet/alerts';
+import { FLEET_PERIODS, PERIOD_LABEL, parsePeriod } from '@/lib/fleet/views';
+import { loadPage } from '@/lib/http/pages.server';
+import { getRecorder } from '@/lib/recorders/service.server';
 
 export const metadata: Metadata = { title: 'Recorder trends' };
 

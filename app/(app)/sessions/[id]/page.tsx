@@ -5,13 +5,13 @@ import { SessionSettings } from '@/components/SessionSettings';
 import { SwrProvider } from '@/components/SwrProvider';
 import { TakeTable } from '@/components/TakeTable';
 import { TakeUploader } from '@/components/TakeUploader';
-import { requireActor } from '@/lib/auth/guard';
+import { requireActor } from '@/lib/auth/guard.server';
 import { can } from '@/lib/auth/policy';
-import { recorderOptions, specOptions } from '@/lib/options';
-import { loadPage } from '@/lib/pages';
-import { getSession } from '@/lib/sessions';
-import { sessionTakesKey } from '@/lib/swrKeys';
-import { listSessionTakes } from '@/lib/takes';
+import { recorderOptions, specOptions } from '@/lib/studio/formOptions.server';
+import { loadPage } from '@/lib/http/pages.server';
+import { getSession } from '@/lib/sessions/service.server';
+import { sessionTakesKey } from '@/lib/http/swrKeys';
+import { listSessionTakes } from '@/lib/takes/service.server';
 
 export const metadata: Metadata = { title: 'Session' };
 

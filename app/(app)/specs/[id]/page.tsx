@@ -2,9 +2,9 @@ import type { Metadata } from 'next';
 import Link from 'next/link';
 import { SpecDuplicateButton } from '@/components/SpecDuplicateButton';
 import { SpecForm } from '@/components/SpecForm';
-import { requireActor } from '@/lib/auth/guard';
-import { getSpec } from '@/lib/deliverySpecs';
-import { loadPage } from '@/lib/pages';
+import { requireActor } from '@/lib/auth/guard.server';
+import { getSpec } from '@/lib/specs/service.server';
+import { loadPage } from '@/lib/http/pages.server';
 
 export const metadata: Metadata = { title: 'Delivery spec' };
 

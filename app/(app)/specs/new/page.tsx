@@ -1,9 +1,9 @@
 import type { Metadata } from 'next';
 import Link from 'next/link';
 import { SpecForm } from '@/components/SpecForm';
-import { requireActor } from '@/lib/auth/guard';
-import { DEFAULT_THRESHOLDS } from '@/lib/deliverySpecs';
-import { loadPage } from '@/lib/pages';
+import { requireActor } from '@/lib/auth/guard.server';
+import { DEFAULT_THRESHOLDS } from '@/lib/specs/service.server';
+import { loadPage } from '@/lib/http/pages.server';
 
 export const metadata: Metadata = { title: 'New delivery spec' };
 

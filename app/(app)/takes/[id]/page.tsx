@@ -1,14 +1,14 @@
 import type { Metadata } from 'next';
 import { SwrProvider } from '@/components/SwrProvider';
 import { TakeReview } from '@/components/review/TakeReview';
-import { requireActor } from '@/lib/auth/guard';
+import { requireActor } from '@/lib/auth/guard.server';
 import { can } from '@/lib/auth/policy';
-import { loadPage } from '@/lib/pages';
-import { getSession } from '@/lib/sessions';
-import { specForSession } from '@/lib/specs';
-import { takeCommentsKey, takeKey } from '@/lib/swrKeys';
-import { listComments, sessionNeighbours } from '@/lib/takeReview';
-import { getTake } from '@/lib/takes';
+import { loadPage } from '@/lib/http/pages.server';
+import { getSession } from '@/lib/sessions/service.server';
+import { specForSession } from '@/lib/specs/sessionSpec.server';
+import { takeCommentsKey, takeKey } from '@/lib/http/swrKeys';
+import { listComments, sessionNeighbours } from '@/lib/review/service.server';
+import { getTake } from '@/lib/takes/service.server';
 
 export const metadata: Metadata = { title: 'Take review' };
 

@@ -1,7 +1,7 @@
 import NextAuth from 'next-auth';
-import { authOptions } from '@/lib/auth/options';
-import { assertMayTrySignIn, clientAddress, recordSignIn } from '@/lib/auth/signInGuard';
-import { errorResponse } from '@/lib/http';
+import { authOptions } from '@/lib/auth/options.server';
+import { assertMayTrySignIn, clientAddress, recordSignIn } from '@/lib/auth/signInGuard.server';
+import { errorResponse } from '@/lib/http/route.server';
 
 const handler = NextAuth(authOptions);
 

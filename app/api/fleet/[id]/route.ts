@@ -1,9 +1,9 @@
-import { requireActor } from '@/lib/auth/guard';
+import { requireActor } from '@/lib/auth/guard.server';
 import { AppError } from '@/lib/errors';
-import { fleetAlerts, recorderRecentTakes, recorderTrends } from '@/lib/fleet';
-import { parsePeriod } from '@/lib/fleetViews';
-import { idParam, json, route } from '@/lib/http';
-import { getRecorder } from '@/lib/recorders';
+import { fleetAlerts, recorderRecentTakes, recorderTrends } from '@/lib/fleet/service.server';
+import { parsePeriod } from '@/lib/fleet/views';
+import { idParam, json, route } from '@/lib/http/route.server';
+import { getRecorder } from '@/lib/recorders/service.server';
 
 type Context = { params: Promise<{ id: string }> };
 

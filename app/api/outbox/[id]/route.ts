@@ -1,6 +1,6 @@
-import { requireActor } from '@/lib/auth/guard';
-import { json, route } from '@/lib/http';
-import { getOutboxMessage } from '@/lib/mail/outbox';
+import { requireActor } from '@/lib/auth/guard.server';
+import { json, route } from '@/lib/http/route.server';
+import { getOutboxMessage } from '@/lib/mail/outbox.server';
 
 type Context = { params: Promise<{ id: string }> };
 

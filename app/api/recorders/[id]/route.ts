@@ -1,7 +1,7 @@
-import { requireActor } from '@/lib/auth/guard';
-import { idParam, json, parseJson, route } from '@/lib/http';
-import { getRecorder, updateRecorder } from '@/lib/recorders';
-import { updateRecorderSchema } from '@/lib/schemas/recorder';
+import { requireActor } from '@/lib/auth/guard.server';
+import { idParam, json, parseJson, route } from '@/lib/http/route.server';
+import { getRecorder, updateRecorder } from '@/lib/recorders/service.server';
+import { updateRecorderSchema } from '@/lib/recorders/schema';
 
 type Context = { params: Promise<{ id: string }> };
 

@@ -1,7 +1,7 @@
-import { requireActor } from '@/lib/auth/guard';
-import { idParam, json, parseJson, route } from '@/lib/http';
-import { updateSessionSchema } from '@/lib/schemas/session';
-import { getSession, updateSession } from '@/lib/sessions';
+import { requireActor } from '@/lib/auth/guard.server';
+import { idParam, json, parseJson, route } from '@/lib/http/route.server';
+import { updateSessionSchema } from '@/lib/sessions/schema';
+import { getSession, updateSession } from '@/lib/sessions/service.server';
 
 type Context = { params: Promise<{ id: string }> };
 

@@ -1,8 +1,8 @@
 import { z } from 'zod';
-import { requireActor } from '@/lib/auth/guard';
-import { getSpec, updateSpec } from '@/lib/deliverySpecs';
-import { idParam, json, parseJson, route } from '@/lib/http';
-import { specErrorMap, updateSpecSchema } from '@/lib/schemas/spec';
+import { requireActor } from '@/lib/auth/guard.server';
+import { getSpec, updateSpec } from '@/lib/specs/service.server';
+import { idParam, json, parseJson, route } from '@/lib/http/route.server';
+import { specErrorMap, updateSpecSchema } from '@/lib/specs/schema';
 
 type Context = { params: Promise<{ id: string }> };
 

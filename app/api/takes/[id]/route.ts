@@ -1,6 +1,6 @@
-import { requireActor } from '@/lib/auth/guard';
-import { idParam, json, route } from '@/lib/http';
-import { getTake } from '@/lib/takes';
+import { requireActor } from '@/lib/auth/guard.server';
+import { idParam, json, route } from '@/lib/http/route.server';
+import { getTake } from '@/lib/takes/service.server';
 
 type Context = { params: Promise<{ id: string }> };
 

@@ -1,7 +1,7 @@
-import { requireActor } from '@/lib/auth/guard';
-import { idParam, json, parseJson, route } from '@/lib/http';
-import { updateUserSchema } from '@/lib/schemas/team';
-import { updateMember } from '@/lib/team';
+import { requireActor } from '@/lib/auth/guard.server';
+import { idParam, json, parseJson, route } from '@/lib/http/route.server';
+import { updateUserSchema } from '@/lib/team/schema';
+import { updateMember } from '@/lib/team/service.server';
 
 type Context = { params: Promise<{ id: string }> };
 

@@ -1,6 +1,6 @@
-import { requireActor } from '@/lib/auth/guard';
-import { idParam, json, route } from '@/lib/http';
-import { retryDelivery } from '@/lib/mail/retry';
+import { requireActor } from '@/lib/auth/guard.server';
+import { idParam, json, route } from '@/lib/http/route.server';
+import { retryDelivery } from '@/lib/mail/retry.server';
 
 type Context = { params: Promise<{ id: string }> };
 

@@ -1,5 +1,5 @@
-import { route } from '@/lib/http';
-import { reportDownload } from '@/lib/reports/download';
+import { route } from '@/lib/http/route.server';
+import { reportDownload } from '@/lib/reports/download.server';
 
 type Context = { params: Promise<{ id: string }> };
 

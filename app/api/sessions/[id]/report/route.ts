@@ -1,9 +1,9 @@
-import { requireActor } from '@/lib/auth/guard';
-import { idParam, json, parseJson, route } from '@/lib/http';
-import { listDeliveries } from '@/lib/mail/deliveries';
-import { sendSessionReport } from '@/lib/reports/send';
-import { sendReportSchema } from '@/lib/schemas/report';
-import { findSession } from '@/lib/sessions';
+import { requireActor } from '@/lib/auth/guard.server';
+import { idParam, json, parseJson, route } from '@/lib/http/route.server';
+import { listDeliveries } from '@/lib/mail/deliveries.server';
+import { sendSessionReport } from '@/lib/reports/send.server';
+import { sendReportSchema } from '@/lib/reports/schema';
+import { findSession } from '@/lib/sessions/service.server';
 
 type Context = { params: Promise<{ id: string }> };
 

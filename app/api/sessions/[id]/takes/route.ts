@@ -1,7 +1,7 @@
-import { requireActor } from '@/lib/auth/guard';
-import { idParam, json, route } from '@/lib/http';
-import { listSessionTakes } from '@/lib/takes';
-import { receiveTakes } from '@/lib/uploads';
+import { requireActor } from '@/lib/auth/guard.server';
+import { idParam, json, route } from '@/lib/http/route.server';
+import { listSessionTakes } from '@/lib/takes/service.server';
+import { receiveTakes } from '@/lib/takes/uploads.server';
 
 type Context = { params: Promise<{ id: string }> };
 

@@ -1,8 +1,8 @@
-import { requireActor } from '@/lib/auth/guard';
-import { duplicateSpec } from '@/lib/deliverySpecs';
+import { requireActor } from '@/lib/auth/guard.server';
+import { duplicateSpec } from '@/lib/specs/service.server';
 import { AppError } from '@/lib/errors';
-import { idParam, json, route } from '@/lib/http';
-import { duplicateSpecSchema, specErrorMap } from '@/lib/schemas/spec';
+import { idParam, json, route } from '@/lib/http/route.server';
+import { duplicateSpecSchema, specErrorMap } from '@/lib/specs/schema';
 
 type Context = { params: Promise<{ id: string }> };
 

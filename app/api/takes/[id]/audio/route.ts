@@ -1,10 +1,10 @@
 import { Readable } from 'node:stream';
-import { requireActor } from '@/lib/auth/guard';
+import { requireActor } from '@/lib/auth/guard.server';
 import { AppError } from '@/lib/errors';
-import { idParam, route } from '@/lib/http';
-import { contentDisposition, contentRange, parseRange } from '@/lib/httpRange';
-import { storage } from '@/lib/storage';
-import { takeAudio } from '@/lib/takeReview';
+import { idParam, route } from '@/lib/http/route.server';
+import { contentDisposition, contentRange, parseRange } from '@/lib/http/range';
+import { storage } from '@/lib/storage/storage.server';
+import { takeAudio } from '@/lib/review/service.server';
 
 type Context = { params: Promise<{ id: string }> };
 

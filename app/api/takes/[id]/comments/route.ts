@@ -1,7 +1,7 @@
-import { requireActor } from '@/lib/auth/guard';
-import { idParam, json, parseJson, route } from '@/lib/http';
-import { commentSchema } from '@/lib/schemas/take';
-import { addComment, listComments } from '@/lib/takeReview';
+import { requireActor } from '@/lib/auth/guard.server';
+import { idParam, json, parseJson, route } from '@/lib/http/route.server';
+import { commentSchema } from '@/lib/review/schema';
+import { addComment, listComments } from '@/lib/review/service.server';
 
 type Context = { params: Promise<{ id: string }> };
 

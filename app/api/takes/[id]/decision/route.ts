@@ -1,7 +1,7 @@
-import { requireActor } from '@/lib/auth/guard';
-import { idParam, json, parseJson, route } from '@/lib/http';
-import { decisionSchema } from '@/lib/schemas/take';
-import { decideTake } from '@/lib/takeReview';
+import { requireActor } from '@/lib/auth/guard.server';
+import { idParam, json, parseJson, route } from '@/lib/http/route.server';
+import { decisionSchema } from '@/lib/review/schema';
+import { decideTake } from '@/lib/review/service.server';
 
 type Context = { params: Promise<{ id: string }> };
 

@@ -1,7 +1,7 @@
-import { requireActor } from '@/lib/auth/guard';
-import { idParam, json, route } from '@/lib/http';
-import { peaksQuerySchema } from '@/lib/schemas/take';
-import { takePeaks } from '@/lib/takeReview';
+import { requireActor } from '@/lib/auth/guard.server';
+import { idParam, json, route } from '@/lib/http/route.server';
+import { peaksQuerySchema } from '@/lib/review/schema';
+import { takePeaks } from '@/lib/review/service.server';
 
 type Context = { params: Promise<{ id: string }> };
 

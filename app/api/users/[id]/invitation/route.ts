@@ -1,6 +1,6 @@
-import { requireActor } from '@/lib/auth/guard';
-import { idParam, json, route } from '@/lib/http';
-import { resendInvitation } from '@/lib/team';
+import { requireActor } from '@/lib/auth/guard.server';
+import { idParam, json, route } from '@/lib/http/route.server';
+import { resendInvitation } from '@/lib/team/service.server';
 
 type Context = { params: Promise<{ id: string }> };
 

@@ -1,0 +1,125 @@
+import 'server-only';
+import type { Transaction } from 'sequelize';
+import { MailDelivery, User } from '@/models';
+import type { MailKind, MailStatus } from '@/models/MailDelivery';
+import type { Actor } from '@/lib/auth/guard.server';
+import { db } from '@/lib/db/connection.server';
+import { env } from '@/lib/env.server';
+import { AppError } from '@/lib/errors';
+import { mailTransport, plainMailError, type OutgoingMail } from './transport.server';
+
+/** A delivery as the API and pages show it. */
+export interface DeliveryView {
+  id: number;
+  kind: MailKind;
+  recipients: string[];
+  subject: string;
+  status: MailStatus;
+  messageId: string | null;
+  error: string | null;
+  attempts: number;
+  sentBy: string | null;
+  sentAt: string | null;
+  createdAt: string;
+}
+
+const parseJson = <T,>(value: unknown): T => (typeof value === 'string' ? (JSON.parse(value) as T) : (value as T));
+
+export function deliveryPayload(delivery: MailDelivery): Record<string, unknown> {
+  return parseJson<Record<string, unknown> | null>(delivery.payload) ?? {};
+}
+
+export function toDeliveryView(d: MailDelivery & { sentBy?: { name: string } | null }): DeliveryView {
+  return {
+    id: d.id,
+    kind: d.kind,
+    recipients: parseJson<string[]>(d.recipients),
+    subject: d.subject,
+    status: d.status,
+    messageId: d.messageId,
+    error: d.error,
+    attempts: d.attempts,
+    sentBy: d.sentBy?.name ?? null,
+    sentAt: d.sentAt ? d.sentAt.toISOString() : null,
+    createdAt: d.createdAt.toISOString(),
+  };
+}
+
+/** Records an e-mail about to be sent (inside the caller's transaction, next to its audit event). */
+export async function createDelivery(
+  actor: Actor,
+  fields: { kind: MailKind; subject: { type: string; id: number | null }; recipients: string[]; title: string; payload: Record<string, unknown> },
+  transaction?: Transaction,
+): Promise<MailDelivery> {
+  return MailDelivery.create(
+    {
+      studioId: actor.studioId,
+      sentById: actor.id,
+      kind: fields.kind,
+      subjectType: fields.subject.type,
+      subjectId: fields.subject.id,
+      recipients: fields.recipients,
+      subject: fields.title,
+      payload: fields.payload,
+      messageId: null,
+      error: null,
+      sentAt: null,
+    },
+    { transaction },
+  );
+}
+
+/** Hands the message to the SMTP server and stores how that went; never throws for a mail failure. */
+export async function attemptDelivery(delivery: MailDelivery, mail: OutgoingMail): Promise<DeliveryView> {
+  const attempts = delivery.attempts + 1;
+  try {
+    const info = await mailTransport().sendMail({
+      from: env().MAIL_FROM,
+      to: mail.to,
+      subject: mail.subject,
+      text: mail.text,
+      html: mail.html,
+      attachments: mail.attachments,
+      // Lets the local outbox show each studio only its own mail.
+      headers: { 'X-Takeproof-Studio': String(delivery.studioId) },
+    });
+    const refused = (info.rejected ?? []).map(String);
+    await delivery.update({
+      status: 'sent',
+      attempts,
+      messageId: info.messageId ?? null,
+      sentAt: new Date(),
+      subject: mail.subject,
+      error: refused.length ? `The mail server refused: ${refused.join(', ')}. The others received it.` : null,
+    });
+  } catch (error) {
+    await delivery.update({ status: 'failed', attempts, error: plainMailError(error) });
+  }
+  return getDelivery(delivery.studioId, delivery.id);
+}
+
+async function getDelivery(studioId: number, id: number): Promise<DeliveryView> {
+  const d = await MailDelivery.findOne({ where: { id, studioId }, include: [{ model: User, as: 'sentBy', attributes: ['name'] }] });
+  if (!d) throw new AppError('not_found:delivery');
+  return toDeliveryView(d);
+}
+
+/** Loads a delivery of the actor's studio; 404 for one that is missing or another studio's. */
+export async function findDelivery(actor: Actor, id: number): Promise<MailDelivery> {
+  db();
+  const d = await MailDelivery.findOne({ where: { id, studioId: actor.studioId } });
+  if (!d) throw new AppError('not_found:delivery', 'This e-mail does not exist, or belongs to another studio.');
+  return d;
+}
+
+/** The e-mails sent about one object, newest first. */
+export async function listDeliveries(actor: Actor, subject: { type: string; id: number }, limit = 20): Promise<DeliveryView[]> {
+  db();
+  const rows = await MailDelivery.findAll({
+    where: { studioId: actor.studioId, subjectType: subject.type, subjectId: subject.id },
+    include: [{ model: User, as: 'sentBy', attributes: ['name'] }],
+    order: [['createdAt', 'DESC'], ['id', 'DESC']],
+    limit,
+  });
+  return rows.map(toDeliveryView);
+}

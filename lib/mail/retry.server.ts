@@ -1,0 +1,28 @@
+import 'server-only';
+import type { Actor } from '@/lib/auth/guard.server';
+import { assertCan } from '@/lib/auth/guard.server';
+import { audit } from '@/lib/audit/record.server';
+import { AppError } from '@/lib/errors';
+import { composeReportMail } from '@/lib/reports/send.server';
+import { loadReport } from '@/lib/reports/data.server';
+import { resendInvitation } from '@/lib/team/service.server';
+import { attemptDelivery, deliveryPayload, findDelivery, type DeliveryView } from './deliveries.server';
+
+const STUCK_AFTER_MS = 5 * 60_000;
+
+/** Sends a failed e-mail again, rendered from the current data (an invitation gets a fresh link). */
+export async function retryDelivery(actor: Actor, id: number): Promise<DeliveryView> {
+  const delivery = await findDelivery(actor, id);
+  assertCan(actor, delivery.kind === 'invitation' ? 'user:manage' : 'report:send');
+  // A send that never finished (the server stopped mid-way) counts as failed after a few minutes.
+  const stuck = delivery.status === 'sending' && Date.now() - delivery.updatedAt.getTime() > STUCK_AFTER_MS;
+  if (delivery.status !== 'failed' && !stuck) throw new AppError('conflict:delivery_not_failed', 'Only an e-mail that failed can be sent again.');
+  if (delivery.kind === 'invitation') {
+    return (await resendInvitation(actor, Number(deliveryPayload(delivery).userId), delivery)).delivery;
+  }
+  const { sessionId, message } = deliveryPayload(delivery) as { sessionId: number; message: string | null };
+  const data = await loadReport(actor, Number(sessionId));
+  await audit(actor, 'mail.retry', { type: 'session', id: Number(sessionId) }, { deliveryId: delivery.id });
+  const to = typeof delivery.recipients === 'string' ? (JSON.parse(delivery.recipients) as string[]) : delivery.recipients;
+  return attemptDelivery(delivery, await composeReportMail(data, to, message ?? null, actor.name));
+}

@@ -1,0 +1,24 @@
+import 'server-only';
+import { ensureDb } from '@/lib/db/connection.server';
+import type { Actor } from '@/lib/auth/guard.server';
+import { DeliverySpec, Recorder, User } from '@/models';
+import type { Role } from '@/models/User';
+
+/** The studio's delivery specs and people, as choices for forms. */
+export async function specOptions(actor: Actor) {
+  ensureDb();
+  const specs = await DeliverySpec.findAll({ where: { studioId: actor.studioId }, attributes: ['id', 'name'], order: [['name', 'ASC']] });
+  return specs.map((s) => ({ id: s.id, name: s.name }));
+}
+
+export async function peopleOptions(actor: Actor, role: Role) {
+  ensureDb();
+  const users = await User.findAll({ where: { studioId: actor.studioId, role, active: true }, attributes: ['id', 'name'], order: [['name', 'ASC']] });
+  return users.map((u) => ({ id: u.id, name: u.name }));
+}
+
+export async function recorderOptions(actor: Actor) {
+  ensureDb();
+  const recorders = await Recorder.findAll({ where: { studioId: actor.studioId, active: true }, attributes: ['id', 'label'], order: [['label', 'ASC']] });
+  return recorders.map((r) => ({ id: r.id, name: r.label }));
+}

@@ -1,0 +1,51 @@
+import 'server-only';
+import { AnalysisJob, Recorder, Take, User } from '@/models';
+import { audit } from '@/lib/audit/record.server';
+import type { Actor } from '@/lib/auth/guard.server';
+import { db } from '@/lib/db/connection.server';
+import { AppError } from '@/lib/errors';
+import { findSession } from '@/lib/sessions/service.server';
+import { toTakeDetail, toTakeSummary, type TakeDetail, type TakeSummary } from './views';
+
+const refs = [
+  { model: Recorder, as: 'recorder', attributes: ['label'] },
+  { model: User, as: 'decidedBy', attributes: ['name'] },
+];
+
+/** Loads a take of the actor's studio; 404 for a missing one or one of another studio. */
+export async function findTake(actor: Actor, id: number, withReport = false): Promise<Take> {
+  db();
+  const take = await Take.findOne({
+    where: { id, studioId: actor.studioId },
+    include: refs,
+    attributes: withReport ? undefined : { exclude: ['report'] },
+  });
+  if (!take) throw new AppError('not_found:take', 'This take does not exist, or belongs to another studio.');
+  return take;
+}
+
+export async function getTake(actor: Actor, id: number): Promise<TakeDetail> {
+  return toTakeDetail(await findTake(actor, id, true));
+}
+
+/** The takes of one session in upload order, without their reports. */
+export async function listSessionTakes(actor: Actor, sessionId: number): Promise<TakeSummary[]> {
+  await findSession(actor, sessionId);
+  const takes = await Take.findAll({ where: { sessionId }, include: refs, attributes: { exclude: ['report'] }, order: [['id', 'ASC']] });
+  return takes.map(toTakeSummary);
+}
+
+/** Queues a take to be measured again (e.g. after a worker fault or a new analyzer version). */
+export async function remeasureTake(actor: Actor, id: number): Promise<TakeSummary> {
+  const take = await findTake(actor, id);
+  if (take.status === 'queued' || take.status === 'measuring') {
+    throw new AppError('conflict:take_busy', 'This take is already waiting to be measured.');
+  }
+  await db().transaction(async (transaction) => {
+    await take.update({ status: 'queued', progress: 0, error: null }, { transaction });
+    const [job] = await AnalysisJob.findOrCreate({ where: { takeId: id }, defaults: { takeId: id, workerId: null, heartbeatAt: null, lastError: null }, transaction });
+    await job.update({ state: 'queued', attempts: 0, workerId: null, heartbeatAt: null, lastError: null }, { transaction });
+    await audit(actor, 'take.remeasure', { type: 'take', id }, null, transaction);
+  });
+  return toTakeSummary(await findTake(actor, id));
+}

@@ -1,0 +1,219 @@
+import 'server-only';
+import busboy from 'busboy';
+import { createHash } from 'node:crypto';
+import { Readable, Transform, type TransformCallback } from 'node:stream';
+import { UniqueConstraintError } from 'sequelize';
+import { AnalysisJob, Recorder, Take } from '@/models';
+import { audit } from '@/lib/audit/record.server';
+import type { Actor } from '@/lib/auth/guard.server';
+import { db } from '@/lib/db/connection.server';
+import { env } from '@/lib/env.server';
+import { cleanFileName, formatBytes } from '@/lib/format';
+import { AppError } from '@/lib/errors';
+import { findSession } from '@/lib/sessions/service.server';
+import { newTakeKey, storage } from '@/lib/storage/storage.server';
+import { toTakeSummary, type TakeSummary } from './views';
+
+const WAV_MAGIC = new Set(['RIFF', 'RF64', 'BW64']);
+const MULTIPART_OVERHEAD = 1024 * 1024;
+
+/** Counts, hashes and checks the bytes of one uploaded file as they stream past. */
+class UploadCheck extends Transform {
+  readonly hash = createHash('sha256');
+  bytes = 0;
+  private head = Buffer.alloc(0);
+  private headChecked = false;
+
+  constructor(private readonly maxBytes: number, private readonly fileName: string) {
+    super();
+  }
+
+  _transform(chunk: Buffer, _encoding: BufferEncoding, done: TransformCallback) {
+    this.bytes += chunk.length;
+    if (this.bytes > this.maxBytes) {
+      done(new AppError('too_large:upload', `“${this.fileName}” is larger than the ${formatBytes(this.maxBytes)} this studio accepts.`));
+      return;
+    }
+    if (!this.headChecked) {
+      this.head = Buffer.concat([this.head, chunk]);
+      if (this.head.length >= 12) {
+        this.headChecked = true;
+        if (!isWavHead(this.head)) {
+          done(new AppError('unsupported:upload', `“${this.fileName}” is not a WAV file (it does not start with a RIFF/RF64 WAVE header).`));
+          return;
+        }
+      }
+    }
+    this.hash.update(chunk);
+    done(null, chunk);
+  }
+
+  _flush(done: TransformCallback) {
+    if (!this.headChecked) {
+      done(new AppError('unsupported:upload', `“${this.fileName}” is too short to be a WAV file.`));
+      return;
+    }
+    done();
+  }
+}
+
+function isWavHead(head: Buffer): boolean {
+  return WAV_MAGIC.has(head.toString('latin1', 0, 4)) && head.toString('latin1', 8, 12) === 'WAVE';
+}
+
+/** Most of a refused upload that is still read (and thrown away) so the client receives the answer. */
+const MAX_DRAIN_BYTES = 256 * 1024 * 1024;
+
+/**
+ * Keeps reading a refused request body into nothing, so the client gets the error answer instead
+ * of a reset connection; a body larger than MAX_DRAIN_BYTES is cut off.
+ */
+function drainThenDrop(source: Readable): void {
+  let drained = 0;
+  source.on('data', (chunk: Buffer) => {
+    drained += chunk.length;
+    if (drained > MAX_DRAIN_BYTES) source.destroy();
+  });
+  source.resume();
+}
+
+interface StoredFile {
+  key: string;
+  originalName: string;
+  bytes: number;
+  sha256: string;
+}
+
+/**
+ * Receives the WAV files of a multipart upload (field `file`, any number; optional field
+ * `recorderId` before the files) straight into storage while hashing them, then records
+ * one take and one analysis job per file. All or nothing: if any part is refused or the
+ * upload is cut off, every file of this request is removed again and no take is recorded.
+ */
+export async function receiveTakes(actor: Actor, sessionId: number, request: Request): Promise<TakeSummary[]> {
+  const session = await findSession(actor, sessionId);
+  if (session.status === 'closed') throw new AppError('conflict:session_closed', 'This session is closed. Reopen it to add takes.');
+  const contentType = request.headers.get('content-type') ?? '';
+  if (!contentType.startsWith('multipart/form-data') || !request.body) {
+    throw new AppError('invalid:upload', 'Send the takes as multipart/form-data with one or more `file` fields.');
+  }
+  const maxBytes = env().UPLOAD_MAX_BYTES;
+  const declaredLength = Number(request.headers.get('content-length') ?? NaN);
+  if (Number.isFinite(declaredLength) && declaredLength > maxBytes * 50 + MULTIPART_OVERHEAD) {
+    throw new AppError('too_large:upload', `This upload is larger than the ${formatBytes(maxBytes)} per file this studio accepts.`);
+  }
+
+  const stored: StoredFile[] = [];
+  let recorderId: number | null = null;
+  try {
+    await new Promise<void>((resolve, reject) => {
+      let settled = false;
+      const fail = (error: unknown) => {
+        if (settled) return;
+        settled = true;
+        source.unpipe(parser);
+        drainThenDrop(source);
+        reject(error);
+      };
+      let chain = Promise.resolve();
+      let parser: busboy.Busboy;
+      try {
+        // preservePath: keep the name as sent (it is only shown); busboy would otherwise cut it at the last slash.
+        // defParamCharset: browsers send file names as UTF-8.
+        parser = busboy({ headers: { 'content-type': contentType }, preservePath: true, defParamCharset: 'utf8', limits: { files: 50, fields: 20, fieldSize: 1024 } });
+      } catch {
+        throw new AppError('invalid:upload', 'The multipart body could not be read.');
+      }
+      const source = Readable.fromWeb(request.body as import('node:stream/web').ReadableStream);
+      source.on('error', () => fail(new AppError('invalid:upload_aborted', 'The upload was cut off before it finished. Nothing was kept.')));
+      parser.on('field', (name, value) => {
+        if (name === 'recorderId' && value !== '') recorderId = Number(value);
+      });
+      parser.on('file', (field, file, info) => {
+        if (field !== 'file') {
+          file.resume();
+          return;
+        }
+        const originalName = cleanFileName(info.filename ?? '');
+        const key = newTakeKey();
+        const check = new UploadCheck(maxBytes, originalName);
+        const put = storage().put(key, file.pipe(check));
+        // A cut-off source must also end the file stream, or put() would wait forever.
+        source.once('error', (error) => check.destroy(error));
+        file.on('error', (error) => check.destroy(error));
+        chain = chain.then(async () => {
+          await put;
+          stored.push({ key, originalName, bytes: check.bytes, sha256: check.hash.digest('hex') });
+        });
+        chain.catch(fail);
+      });
+      parser.on('error', () =>
+        fail(new AppError('invalid:upload', 'The upload could not be read. A file name may hold characters that are not allowed (control characters); rename the file and try again.')),
+      );
+      parser.on('close', () => {
+        chain.then(() => {
+          if (!settled) {
+            settled = true;
+            resolve();
+          }
+        }, fail);
+      });
+      source.pipe(parser);
+    });
+    if (stored.length === 0) throw new AppError('invalid:upload', 'No WAV file was found in the upload (use the field name `file`).');
+    return await recordTakes(actor, sessionId, stored, recorderId);
+  } catch (error) {
+    await Promise.all(stored.map((f) => storage().delete(f.key)));
+    throw error;
+  }
+}
+
+async function recordTakes(actor: Actor, sessionId: number, files: StoredFile[], recorderId: number | null): Promise<TakeSummary[]> {
+  if (recorderId !== null && !(Number.isInteger(recorderId) && (await Recorder.findOne({ where: { id: recorderId, studioId: actor.studioId } })))) {
+    throw new AppError('invalid:recorder', 'That recorder does not belong to this studio.', { fields: { recorderId: ['Pick one of the studio’s recorders'] } });
+  }
+  const seen = new Map<string, string>();
+  for (const f of files) {
+    const earlier = seen.get(f.sha256);
+    if (earlier) throw new AppError('conflict:duplicate_take', `“${f.originalName}” is the same file as “${earlier}” in this upload.`);
+    seen.set(f.sha256, f.originalName);
+    const existing = await Take.findOne({ where: { sessionId, sha256: f.sha256 }, attributes: ['id', 'originalName'] });
+    if (existing) {
+      throw new AppError('conflict:duplicate_take', `“${f.originalName}” is already in this session as “${existing.originalName}” (take ${existing.id}).`, {
+        extra: { existingTakeId: existing.id },
+      });
+    }
+  }
+  try {
+    const takes = await db().transaction(async (transaction) => {
+      const created: Take[] = [];
+      for (const f of files) {
+        const take = await Take.create(
+          {
+            studioId: actor.studioId,
+            sessionId,
+            recorderId,
+            uploadedById: actor.id,
+            originalName: f.originalName,
+            storageKey: f.key,
+            bytes: f.bytes,
+            sha256: f.sha256,
+            sampleRate: null, bitsPerSample: null, channels: null, encoding: null, durationSec: null,
+            error: null, report: null, peaksKey: null,
+            effectiveBits: null, truePeakDbtp: null, integratedLufs: null, noiseFloorDbfs: null, clipEvents: null,
+            verdict: null, decidedById: null, decidedAt: null, decisionNote: null, measuredAt: null,
+          },
+          { transaction },
+        );
+        await AnalysisJob.create({ takeId: take.id, workerId: null, heartbeatAt: null, lastError: null }, { transaction });
+        await audit(actor, 'take.upload', { type: 'take', id: take.id }, { sessionId, name: f.originalName, bytes: f.bytes, sha256: f.sha256 }, transaction);
+        created.push(take);
+      }
+      return created;
+    });
+    return takes.map(toTakeSummary);
+  } catch (error) {
+    if (error instanceof UniqueConstraintError) throw new AppError('conflict:duplicate_take', 'One of these files is already in this session.');
+    throw error;
+  }
+}

@@ -1,0 +1,249 @@
+import 'server-only';
+import { createHash, randomBytes } from 'node:crypto';
+import { Op, UniqueConstraintError, type Transaction } from 'sequelize';
+import { Invitation, MailDelivery, Studio, User } from '@/models';
+import type { Role } from '@/models/User';
+import { audit } from '@/lib/audit/record.server';
+import type { Actor } from '@/lib/auth/guard.server';
+import { hashPassword } from '@/lib/auth/passwords.server';
+import { db } from '@/lib/db/connection.server';
+import { env } from '@/lib/env.server';
+import { AppError } from '@/lib/errors';
+import { attemptDelivery, createDelivery, toDeliveryView, type DeliveryView } from '@/lib/mail/deliveries.server';
+import type { OutgoingMail } from '@/lib/mail/transport.server';
+import { escapeHtml } from '@/lib/reports/html';
+import type { InviteInput, UpdateUserInput } from './schema';
+
+/** How long an invitation link works. */
+export const INVITATION_HOURS = 72;
+
+export type MemberStatus = 'active' | 'invited' | 'deactivated';
+
+export interface TeamMember {
+  id: number;
+  name: string;
+  email: string;
+  role: Role;
+  status: MemberStatus;
+  invitationExpiresAt: string | null;
+  lastInvitation: DeliveryView | null;
+}
+
+const ROLE_WORD: Record<Role, string> = { engineer: 'engineer', producer: 'producer', manager: 'studio manager' };
+
+const hashToken = (token: string) => createHash('sha256').update(token).digest('hex');
+
+function statusOf(user: User): MemberStatus {
+  if (user.active) return 'active';
+  return user.passwordHash ? 'deactivated' : 'invited';
+}
+
+/** The studio's people with their state and, for invited people, their newest invitation. */
+export async function listTeam(actor: Actor): Promise<TeamMember[]> {
+  db();
+  const users = await User.findAll({ where: { studioId: actor.studioId }, order: [['name', 'ASC'], ['id', 'ASC']] });
+  const invitedIds = users.filter((u) => statusOf(u) === 'invited').map((u) => u.id);
+  const invitations = invitedIds.length
+    ? await Invitation.findAll({ where: { userId: invitedIds, usedAt: null, revokedAt: null }, order: [['id', 'DESC']] })
+    : [];
+  const deliveries = invitedIds.length
+    ? await MailDelivery.findAll({ where: { studioId: actor.studioId, kind: 'invitation', subjectType: 'user', subjectId: invitedIds }, order: [['id', 'DESC']] })
+    : [];
+  return users.map((u) => {
+    const inv = invitations.find((i) => i.userId === u.id);
+    const delivery = deliveries.find((d) => d.subjectId === u.id);
+    return {
+      id: u.id,
+      name: u.name,
+      email: u.email,
+      role: u.role,
+      status: statusOf(u),
+      invitationExpiresAt: inv ? inv.expiresAt.toISOString() : null,
+      lastInvitation: delivery ? toDeliveryView(delivery) : null,
+    };
+  });
+}
+
+async function memberView(actor: Actor, id: number): Promise<TeamMember> {
+  const member = (await listTeam(actor)).find((m) => m.id === id);
+  if (!member) throw new AppError('not_found:user');
+  return member;
+}
+
+/** Loads a person of the actor's studio; 404 for one that is missing or another studio's. */
+async function findMember(actor: Actor, id: number, transaction?: Transaction): Promise<User> {
+  db();
+  const user = await User.findOne({ where: { id, studioId: actor.studioId }, transaction, lock: transaction ? transaction.LOCK.UPDATE : undefined });
+  if (!user) throw new AppError('not_found:user', 'This person does not exist, or belongs to another studio.');
+  return user;
+}
+
+/** Replaces any open invitation of `user` with a new one; returns the token, which is never stored. */
+async function issueInvitation(actor: Actor, user: User, transaction: Transaction): Promise<string> {
+  await Invitation.update({ revokedAt: new Date() }, { where: { userId: user.id, usedAt: null, revokedAt: null }, transaction });
+  const token = randomBytes(32).toString('base64url');
+  await Invitation.create(
+    {
+      studioId: user.studioId,
+      userId: user.id,
+      invitedById: actor.id,
+      tokenHash: hashToken(token),
+      expiresAt: new Date(Date.now() + INVITATION_HOURS * 3600_000),
+      usedAt: null,
+      revokedAt: null,
+    },
+    { transaction },
+  );
+  return token;
+}
+
+async function invitationMail(actor: Actor, user: User, token: string): Promise<OutgoingMail> {
+  const studio = (await Studio.findByPk(user.studioId))?.name ?? 'your studio';
+  const link = `${env().NEXTAUTH_URL.replace(/\/+$/, '')}/invite/${token}`;
+  const intro = `${actor.name} has invited you to ${studio} on Takeproof as ${ROLE_WORD[user.role]}.`;
+  const expiry = `The link works once and expires ${INVITATION_HOURS} hours after this e-mail was sent.`;
+  const e = escapeHtml;
+  return {
+    to: [user.email],
+    subject: `Your invitation to ${studio} on Takeproof`.replace(/[\r\n]+/g, ' '),
+    text: [`Hello ${user.name},`, '', intro, '', 'Set your password here to activate your account:', link, '', expiry, 'If you did not expect this invitation, ignore this e-mail; nothing happens without the link.'].join('\n'),
+    html: `<!doctype html><html lang="en"><head><meta charset="utf-8"><title>Invitation</title></head>
+<body style="margin:0;padding:16px;font-family:Arial,Helvetica,sans-serif;font-size:15px;line-height:1.5;color:#1b2430;background:#ffffff;">
+<p>Hello ${e(user.name)},</p>
+<p>${e(intro)}</p>
+<p><a href="${e(link)}" style="display:inline-block;padding:10px 16px;background:#1a5480;color:#ffffff;text-decoration:none;border-radius:6px;font-weight:bold;">Set your password</a></p>
+<p style="font-size:13px;color:#505a68;">Or open this address: <br><span style="word-break:break-all;">${e(link)}</span></p>
+<p style="font-size:13px;color:#505a68;">${e(expiry)} If you did not expect this invitation, ignore this e-mail; nothing happens without the link.</p>
+</body></html>`,
+  };
+}
+
+/** Creates an inactive account for `input.email` and e-mails them a single-use link to set a password. */
+export async function inviteMember(actor: Actor, input: InviteInput): Promise<{ member: TeamMember; delivery: DeliveryView }> {
+  db();
+  const existing = await User.findOne({ where: { email: input.email } });
+  if (existing) {
+    const sameStudioInvite = existing.studioId === actor.studioId && statusOf(existing) === 'invited';
+    throw new AppError(
+      'conflict:user_email',
+      sameStudioInvite ? 'This person is already invited. Use “Resend invitation” to send a new link.' : 'This address already has a Takeproof account.',
+      { fields: { email: [sameStudioInvite ? 'Already invited' : 'This address already has an account'] } },
+    );
+  }
+  let created: { user: User; token: string; delivery: MailDelivery };
+  try {
+    created = await db().transaction(async (transaction) => {
+      const user = await User.create({ studioId: actor.studioId, email: input.email, name: input.name, role: input.role, passwordHash: null, active: false }, { transaction });
+      const token = await issueInvitation(actor, user, transaction);
+      const delivery = await createDelivery(
+        actor,
+        { kind: 'invitation', subject: { type: 'user', id: user.id }, recipients: [user.email], title: 'Invitation', payload: { userId: user.id } },
+        transaction,
+      );
+      await audit(actor, 'user.invite', { type: 'user', id: user.id }, { email: user.email, role: user.role, deliveryId: delivery.id }, transaction);
+      return { user, token, delivery };
+    });
+  } catch (error) {
+    if (error instanceof UniqueConstraintError) {
+      throw new AppError('conflict:user_email', 'This address already has a Takeproof account.', { fields: { email: ['This address already has an account'] } });
+    }
+    throw error;
+  }
+  const delivery = await attemptDelivery(created.delivery, await invitationMail(actor, created.user, created.token));
+  return { member: await memberView(actor, created.user.id), delivery };
+}
+
+/** Sends an invited person a fresh link (the old one stops working); reuses `delivery` when retrying a failed send. */
+export async function resendInvitation(actor: Actor, userId: number, retry?: MailDelivery): Promise<{ member: TeamMember; delivery: DeliveryView }> {
+  const { user, token, delivery } = await db().transaction(async (transaction) => {
+    const user = await findMember(actor, userId, transaction);
+    if (statusOf(user) !== 'invited') throw new AppError('conflict:not_invited', 'This person has already set a password; there is nothing to resend.');
+    const token = await issueInvitation(actor, user, transaction);
+    const delivery =
+      retry ??
+      (await createDelivery(
+        actor,
+        { kind: 'invitation', subject: { type: 'user', id: user.id }, recipients: [user.email], title: 'Invitation', payload: { userId: user.id } },
+        transaction,
+      ));
+    await audit(actor, retry ? 'mail.retry' : 'user.invite_resend', { type: 'user', id: user.id }, { deliveryId: delivery.id }, transaction);
+    return { user, token, delivery };
+  });
+  const sent = await attemptDelivery(delivery, await invitationMail(actor, user, token));
+  return { member: await memberView(actor, user.id), delivery: sent };
+}
+
+/** Changes a person's role or active state; the studio always keeps at least one active manager. */
+export async function updateMember(actor: Actor, id: number, patch: UpdateUserInput): Promise<TeamMember> {
+  await db().transaction(async (transaction) => {
+    // Lock the studio's active managers first, so two managers demoting each other cannot both succeed.
+    const managers = await User.findAll({ where: { studioId: actor.studioId, role: 'manager', active: true }, transaction, lock: transaction.LOCK.UPDATE });
+    const user = await findMember(actor, id, transaction);
+    const changes: Partial<{ role: Role; active: boolean }> = {};
+    if (patch.role !== undefined && patch.role !== user.role) changes.role = patch.role;
+    if (patch.active !== undefined && patch.active !== user.active) changes.active = patch.active;
+    if (Object.keys(changes).length === 0) return;
+    if (changes.active === true && !user.passwordHash) {
+      throw new AppError('conflict:not_accepted', 'This person has not accepted the invitation yet. Resend the invitation instead.');
+    }
+    const losesManager = user.role === 'manager' && user.active && (changes.role !== undefined || changes.active === false);
+    if (losesManager && !managers.some((m) => m.id !== user.id)) {
+      throw new AppError('conflict:last_manager', 'The studio needs at least one active manager. Make someone else a manager first.');
+    }
+    const before = { role: user.role, active: user.active };
+    await user.update(changes, { transaction });
+    if (changes.active === false) {
+      await Invitation.update({ revokedAt: new Date() }, { where: { userId: user.id, usedAt: null, revokedAt: null }, transaction });
+    }
+    const detail = Object.fromEntries(Object.keys(changes).map((k) => [k, { from: before[k as keyof typeof before], to: changes[k as keyof typeof changes] }]));
+    await audit(actor, changes.active === false ? 'user.deactivate' : changes.active === true ? 'user.reactivate' : 'user.role_change', { type: 'user', id }, detail, transaction);
+  });
+  return memberView(actor, id);
+}
+
+export type InvitationCheck =
+  | { state: 'valid'; name: string; email: string; studio: string; expiresAt: string }
+  | { state: 'expired' | 'used' | 'unknown' };
+
+async function lookUp(token: string, transaction?: Transaction) {
+  if (!/^[A-Za-z0-9_-]{43}$/.test(token)) return { state: 'unknown' as const };
+  db();
+  const invitation = await Invitation.findOne({ where: { tokenHash: hashToken(token) }, transaction, lock: transaction ? transaction.LOCK.UPDATE : undefined });
+  if (!invitation) return { state: 'unknown' as const };
+  const user = await User.findOne({ where: { id: invitation.userId, studioId: invitation.studioId }, transaction });
+  if (!user) return { state: 'unknown' as const };
+  if (invitation.usedAt || user.passwordHash) return { state: 'used' as const };
+  if (invitation.revokedAt) return { state: 'unknown' as const };
+  if (invitation.expiresAt.getTime() <= Date.now()) return { state: 'expired' as const };
+  return { state: 'valid' as const, invitation, user };
+}
+
+/** What the invitation page shows for a token, without using it up. */
+export async function checkInvitation(token: string): Promise<InvitationCheck> {
+  const found = await lookUp(token);
+  if (found.state !== 'valid') return { state: found.state };
+  const studio = (await Studio.findByPk(found.user.studioId))?.name ?? '';
+  return { state: 'valid', name: found.user.name, email: found.user.email, studio, expiresAt: found.invitation.expiresAt.toISOString() };
+}
+
+export const INVITATION_REFUSED: Record<'expired' | 'used' | 'unknown', string> = {
+  expired: 'This invitation has expired. Ask your studio manager to send a new one.',
+  used: 'This invitation has already been used. Sign in with the password you chose.',
+  unknown: 'This invitation link is not valid (it may have been replaced by a newer one). Ask your studio manager to send a new one.',
+};
+
+/** Sets the invited person's password and activates the account; the link cannot be used again. */
+export async function acceptInvitation(token: string, password: string): Promise<{ email: string }> {
+  const passwordHash = await hashPassword(password);
+  return db().transaction(async (transaction) => {
+    const found = await lookUp(token, transaction);
+    if (found.state !== 'valid') throw new AppError(`invalid:invitation_${found.state}`, INVITATION_REFUSED[found.state]);
+    const { invitation, user } = found;
+    await user.update({ passwordHash, active: true }, { transaction });
+    await invitation.update({ usedAt: new Date() }, { transaction });
+    await Invitation.update({ revokedAt: new Date() }, { where: { userId: user.id, usedAt: null, revokedAt: null, id: { [Op.ne]: invitation.id } }, transaction });
+    const self: Actor = { id: user.id, studioId: user.studioId, role: user.role, name: user.name, email: user.email };
+    await audit(self, 'invitation.accept', { type: 'user', id: user.id }, null, transaction);
+    return { email: user.email };
+  });
+}
