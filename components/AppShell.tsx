@@ -1,13 +1,12 @@
 import Link from 'next/link';
 import type { ReactNode } from 'react';
-import type { Actor } from '@/lib/auth/guard.server';
-import { can } from '@/lib/auth/policy';
+import { ROLE_LABEL, can } from '@/lib/auth/policy';
 import { NAVIGATION } from '@/lib/auth/navigation';
 import { SignOutButton } from './SignOutButton';
-import { ThemeSwitcher, type Theme } from './ThemeSwitcher';
+import type { Theme } from '@/lib/theme/themes';
+import { ThemeSwitcher } from './ThemeSwitcher';
 import { Wordmark } from './Wordmark';
-
-const ROLE_LABEL = { engineer: 'Engineer', producer: 'Producer', manager: 'Studio manager' } as const;
+import type { Actor } from '@/lib/auth/views';
 
 export function AppShell({ actor, studioName, theme, children }: { actor: Actor; studioName: string; theme: Theme; children: ReactNode }) {
   return (

@@ -1,6 +1,6 @@
 import Link from 'next/link';
-import type { DashboardTake } from '@/lib/overview/overview.server';
 import { TakeStatusMark, VerdictMark } from './StatusMarks';
+import type { DashboardTake } from '@/lib/overview/views';
 
 /** A short list of takes on the overview page, each linking to its review page. */
 export function DashboardTakeList({ title, takes, empty, show }: { title: string; takes: DashboardTake[]; empty: string; show: 'status' | 'verdict' | 'reject' }) {

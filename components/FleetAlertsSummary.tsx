@@ -1,7 +1,7 @@
 import Link from 'next/link';
-import type { Actor } from '@/lib/auth/guard.server';
 import { fleetAlerts } from '@/lib/fleet/service.server';
 import { AlertList } from './AlertList';
+import type { Actor } from '@/lib/auth/views';
 
 /** The manager's overview section: the fleet's open alerts, most serious first. */
 export async function FleetAlertsSummary({ actor }: { actor: Actor }) {

@@ -5,8 +5,9 @@ import { useMemo, useState } from 'react';
 import useSWR from 'swr';
 import { ApiError } from '@/lib/http/fetcher';
 import { FLEET_PERIODS, PERIOD_LABEL, type FleetPeriod, type FleetRow } from '@/lib/fleet/views';
-import { fleetKey } from '@/lib/fleet/keys';
+import { fleetKey } from '@/lib/http/swrKeys';
 import { Sparkline } from './Sparkline';
+import { formatMeasure } from '@/lib/format';
 
 type SortKey = 'label' | 'takes' | 'medianFloorDbfs' | 'clippedShare' | 'minEffectiveBits' | 'overTakes' | 'rateMismatchTakes' | 'aliasingTakes' | 'rejectRate' | 'alerts';
 
@@ -109,7 +110,7 @@ export function FleetTable({ initialPeriod }: { initialPeriod: FleetPeriod }) {
                     </div>
                   </td>
                   <td className="px-3 py-2 font-mono">{r.takes}</td>
-                  <td className="px-3 py-2 font-mono" data-col="medianFloorDbfs">{r.medianFloorDbfs === null ? '—' : r.medianFloorDbfs.toFixed(1)}</td>
+                  <td className="px-3 py-2 font-mono" data-col="medianFloorDbfs">{formatMeasure(r.medianFloorDbfs)}</td>
                   <td className="px-3 py-2 font-mono">{pct(r.clippedShare)}</td>
                   <td className="px-3 py-2 font-mono">{r.minEffectiveBits ?? '—'}</td>
                   <td className="px-3 py-2 font-mono">{count(r.overTakes)}</td>

@@ -3,9 +3,9 @@
 import Link from 'next/link';
 import { useState } from 'react';
 import useSWR from 'swr';
-import type { SessionSummary } from '@/lib/sessions/service.server';
 import { ApiError } from '@/lib/http/fetcher';
 import { sessionsKey } from '@/lib/http/swrKeys';
+import type { SessionSummary } from '@/lib/sessions/views';
 
 /** The studio's sessions with search and an open/closed filter. */
 export function SessionList() {

@@ -3,10 +3,10 @@
 import { useId, useState } from 'react';
 import useSWR from 'swr';
 import { ApiError, fetchJson, swrFetcher } from '@/lib/http/fetcher';
-import type { DeliveryView } from '@/lib/mail/deliveries.server';
 import { FormField } from './FormField';
 import { FormMessage } from '@/components/FormMessage';
 import { useApiForm } from './useApiForm';
+import type { DeliveryView } from '@/lib/mail/views';
 
 const STATUS = {
   sent: { mark: '✓', word: 'Sent', tone: 'text-pass' },

@@ -4,7 +4,7 @@ import Link from 'next/link';
 import { useMemo, useState } from 'react';
 import useSWR from 'swr';
 import type { ApiError } from '@/lib/http/fetcher';
-import { formatDuration, formatFormat, formatNumber } from '@/lib/format';
+import { describeFormat, formatDuration, formatMeasure } from '@/lib/format';
 import type { TakeSummary } from '@/lib/takes/views';
 import { DecisionMark, TakeStatusMark, VerdictMark } from './StatusMarks';
 
@@ -143,13 +143,13 @@ export function TakeTable({ takesKey }: { takesKey: string }) {
                   <td className="px-3 py-2">{t.recorderLabel ?? '—'}</td>
                   <td className="px-3 py-2 text-right font-mono">{formatDuration(t.durationSec)}</td>
                   <td className="px-3 py-2 text-right font-mono">{t.effectiveBits ?? '—'}</td>
-                  <td className="px-3 py-2 text-right font-mono">{formatNumber(t.truePeakDbtp, 1, 'dBTP')}</td>
-                  <td className="px-3 py-2 text-right font-mono">{formatNumber(t.integratedLufs, 1, 'LUFS')}</td>
-                  <td className="px-3 py-2 text-right font-mono">{formatNumber(t.noiseFloorDbfs, 1, 'dBFS')}</td>
+                  <td className="px-3 py-2 text-right font-mono">{formatMeasure(t.truePeakDbtp, 1, 'dBTP')}</td>
+                  <td className="px-3 py-2 text-right font-mono">{formatMeasure(t.integratedLufs, 1, 'LUFS')}</td>
+                  <td className="px-3 py-2 text-right font-mono">{formatMeasure(t.noiseFloorDbfs, 1, 'dBFS')}</td>
                   <td className="px-3 py-2 text-right font-mono">{t.clipEvents ?? '—'}</td>
                   <td className="px-3 py-2" data-testid="verdict"><VerdictMark verdict={t.verdict} /></td>
                   <td className="px-3 py-2" data-testid="decision"><DecisionMark decision={t.decision} /></td>
-                  <td className="whitespace-nowrap px-3 py-2 text-muted">{formatFormat(t.format)}</td>
+                  <td className="whitespace-nowrap px-3 py-2 text-muted">{describeFormat(t.format)}</td>
                   <td className="px-3 py-2" data-testid="status"><TakeStatusMark status={t.status} progress={t.progress} error={t.error} /></td>
                 </tr>
               ))}

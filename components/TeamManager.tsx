@@ -3,14 +3,15 @@
 import { useState } from 'react';
 import useSWR from 'swr';
 import { ApiError, fetchJson, swrFetcher } from '@/lib/http/fetcher';
-import type { DeliveryView } from '@/lib/mail/deliveries.server';
-import type { TeamMember } from '@/lib/team/service.server';
 import { FormField } from './FormField';
 import { FormMessage } from '@/components/FormMessage';
 import { useApiForm } from './useApiForm';
+import type { TeamMember } from '@/lib/team/views';
+import type { DeliveryView } from '@/lib/mail/views';
+import { ROLE_LABEL } from '@/lib/auth/policy';
+import type { Role } from '@/models/User';
 
 const KEY = '/api/users';
-const ROLE_LABEL = { engineer: 'Engineer', producer: 'Producer', manager: 'Studio manager' } as const;
 const STATUS = {
   active: { mark: '●', word: 'Active', tone: 'text-pass' },
   invited: { mark: '○', word: 'Invited', tone: 'text-warn' },
@@ -143,7 +144,7 @@ export function TeamManager({ initial, selfId }: { initial: TeamMember[]; selfId
                         className="tp-input w-40"
                         value={u.role}
                         disabled={busy === u.id}
-                        onChange={(e) => patch(u, { role: e.target.value }, `${u.name} is now ${ROLE_LABEL[e.target.value as keyof typeof ROLE_LABEL].toLowerCase()}.`)}
+                        onChange={(e) => patch(u, { role: e.target.value }, `${u.name} is now ${ROLE_LABEL[e.target.value as Role].toLowerCase()}.`)}
                       >
                         {Object.entries(ROLE_LABEL).map(([value, label]) => (
                           <option key={value} value={value}>

@@ -1,14 +1,7 @@
 'use client';
 
 import { useState } from 'react';
-
-const THEMES = [
-  { value: 'system', label: 'Match system' },
-  { value: 'light', label: 'Proof paper (light)' },
-  { value: 'dark', label: 'Night desk (dark)' },
-] as const;
-
-export type Theme = (typeof THEMES)[number]['value'];
+import { THEME_COOKIE, THEMES, type Theme } from '@/lib/theme/themes';
 
 /** Switches the colour theme at once and remembers it in a cookie for the next page load. */
 export function ThemeSwitcher({ initial }: { initial: Theme }) {
@@ -23,7 +16,7 @@ export function ThemeSwitcher({ initial }: { initial: Theme }) {
           const next = event.target.value as Theme;
           setTheme(next);
           document.documentElement.dataset.theme = next;
-          document.cookie = `tp-theme=${next}; path=/; max-age=31536000; samesite=lax`;
+          document.cookie = `${THEME_COOKIE}=${next}; path=/; max-age=31536000; samesite=lax`;
         }}
       >
         {THEMES.map((t) => (

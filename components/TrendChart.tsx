@@ -3,6 +3,7 @@
 import { useEffect, useRef } from 'react';
 import uPlot from 'uplot';
 import 'uplot/dist/uPlot.min.css';
+import { formatMeasure } from '@/lib/format';
 
 export interface TrendSeries {
   label: string;
@@ -53,7 +54,7 @@ export function TrendChart({ title, unit, weeks, series, height = 220 }: { title
               dash: s.dash,
               spanGaps: true,
               points: { show: true, size: 4 },
-              value: (_u: uPlot, v: number | null) => (v == null ? '—' : `${v.toFixed(1)} ${unit}`),
+              value: (_u: uPlot, v: number | null) => formatMeasure(v, 1, unit),
             })),
           ],
         },
@@ -104,7 +105,7 @@ export function TrendChart({ title, unit, weeks, series, height = 220 }: { title
                     <td className="pr-3">{w}</td>
                     {series.map((s) => (
                       <td key={s.label} className="pr-3">
-                        {s.values[i] == null ? '—' : s.values[i]!.toFixed(1)}
+                        {formatMeasure(s.values[i])}
                       </td>
                     ))}
                   </tr>

@@ -3,6 +3,8 @@
  * the route wrapper turns it into a response, the client fetcher rebuilds it.
  * Safe to import from the browser (no server imports).
  */
+import type { z } from 'zod';
+
 export const ERROR_KINDS = {
   unauthorized: { status: 401, message: 'Please sign in to continue.' },
   forbidden: { status: 403, message: 'Your role does not allow this.' },
@@ -23,6 +25,16 @@ export type ErrorKind = keyof typeof ERROR_KINDS;
 export type ErrorCode = `${ErrorKind}:${string}`;
 
 export type FieldErrors = Record<string, string[]>;
+
+/** A zod error as field errors, the shape the API answers with and forms show beside each field. */
+export function fieldErrorsOf(error: z.ZodError): FieldErrors {
+  const fields: FieldErrors = {};
+  for (const issue of error.issues) {
+    const key = issue.path.join('.') || '_';
+    (fields[key] ??= []).push(issue.message);
+  }
+  return fields;
+}
 
 export class AppError extends Error {
   readonly code: ErrorCode;

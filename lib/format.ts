@@ -1,26 +1,19 @@
-/** Display helpers shared by pages, tables and reports. Numbers keep their units beside them. */
+/**
+ * How Takeproof writes values, for pages, tables, reports and e-mail alike. The measurement
+ * words (clock times, kHz, levels with units, channel names, format descriptions) live in
+ * dsp/format.ts, which the findings use too; this module re-exports them beside the web-only
+ * helpers (bytes, file names, typed-in times). Safe to import from the browser.
+ */
+import { formatClock } from '@/dsp/format';
+
+export { channelName, channelShortName, describeFormat, formatClock, formatKhz, formatMeasure, plural, type FormatFacts } from '@/dsp/format';
+
+/** A take's length as m:ss (h:mm:ss past an hour); an em dash while it is unknown. */
 export function formatDuration(seconds: number | null): string {
-  if (seconds == null) return '—';
-  const s = Math.round(seconds);
-  const h = Math.floor(s / 3600);
-  const m = Math.floor((s % 3600) / 60);
-  const rest = String(s % 60).padStart(2, '0');
-  return h ? `${h}:${String(m).padStart(2, '0')}:${rest}` : `${m}:${rest}`;
+  return seconds == null ? '—' : formatClock(seconds, 0);
 }
 
-export function formatNumber(value: number | null | undefined, decimals = 1, unit = ''): string {
-  if (value == null || !Number.isFinite(value)) return '—';
-  return `${value.toFixed(decimals)}${unit ? ` ${unit}` : ''}`;
-}
-
-export function formatFormat(f: { sampleRate: number | null; bitsPerSample: number | null; channels: number | null; encoding: string | null }): string {
-  if (!f.sampleRate) return '—';
-  const rate = `${(f.sampleRate / 1000).toFixed(f.sampleRate % 1000 ? 1 : 0)} kHz`;
-  const bits = `${f.bitsPerSample}-bit${f.encoding === 'float' ? ' float' : ''}`;
-  const ch = f.channels === 1 ? 'mono' : f.channels === 2 ? 'stereo' : `${f.channels} ch`;
-  return `${rate} · ${bits} · ${ch}`;
-}
-
+/** A size in B, KB, MB or GB (binary multiples, as file managers show them). */
 export function formatBytes(n: number): string {
   if (n >= 1024 ** 3) return `${(n / 1024 ** 3).toFixed(2)} GB`;
   if (n >= 1024 ** 2) return `${(n / 1024 ** 2).toFixed(1)} MB`;
@@ -28,9 +21,18 @@ export function formatBytes(n: number): string {
   return `${n} B`;
 }
 
+/** Reads a time typed as seconds, m:ss(.s) or h:mm:ss(.s); null when it is not one. */
+export function parseClock(text: string): number | null {
+  const t = text.trim();
+  if (!/^\d+(:\d{1,2}){0,2}(\.\d+)?$/.test(t)) return null;
+  const parts = t.split(':').map(Number);
+  if (parts.slice(1).some((p) => p >= 60)) return null;
+  return parts.reduce((total, p) => total * 60 + p, 0);
+}
+
 /** Removes control characters and caps the length; a take's name is only ever shown, never used as a path. */
 export function cleanFileName(name: string): string {
-  // eslint-disable-next-line no-control-regex
+  // eslint-disable-next-line no-control-regex -- stripping control characters is the point
   const cleaned = name.replace(/[\u0000-\u001f\u007f-\u009f]/g, '').trim();
   return (cleaned || 'unnamed.wav').slice(0, 512);
 }

@@ -1,11 +1,11 @@
 // `npm run bench:fleet`: times the fleet queries on the studio `npm run seed:fleet` creates and prints
 // the figures (no pass/fail). With TAKEPROOF_URL set (a running app), it also times GET /api/fleet over HTTP.
 import { QueryTypes } from 'sequelize';
-import type { Actor } from '@/lib/auth/guard.server';
 import { db } from '@/lib/db/connection.server';
 import { fleetAlerts, fleetOverview, recorderTrends } from '@/lib/fleet/service.server';
 import type { FleetPeriod } from '@/lib/fleet/views';
 import { Studio, Take, User } from '@/models';
+import type { Actor } from '@/lib/auth/views';
 
 const STUDIO = 'Brackenridge Sound Depot';
 const RUNS = Number(process.env.BENCH_RUNS ?? 15);

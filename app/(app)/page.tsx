@@ -12,16 +12,13 @@ const GREETING = {
   manager: 'The studio at a glance: what needs review, recent rejects and sessions in progress across every room.',
 } as const;
 
-/** Engineers see the sessions they run; producers and managers see every open session. */
-const OWN_SESSIONS_ONLY = { engineer: true, producer: false, manager: false } as const;
-
 export default async function OverviewPage() {
   const data = await loadPage(async () => {
     const actor = await requireActor('session:view');
     const uploads = can(actor.role, 'take:upload');
     return {
       actor,
-      sessions: await openSessionsFor(actor, OWN_SESSIONS_ONLY[actor.role]),
+      sessions: await openSessionsFor(actor, !can(actor.role, 'session:view-all-open')),
       measuring: uploads ? await takesInMeasurement(actor) : null,
       review: can(actor.role, 'take:decide') ? await takesAwaitingReview(actor) : null,
       rejects: can(actor.role, 'fleet:view') ? await recentRejects(actor) : null,

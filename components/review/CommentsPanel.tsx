@@ -4,10 +4,10 @@ import { useState } from 'react';
 import { FormField } from '@/components/FormField';
 import { useApiForm } from '@/components/useApiForm';
 import { fetchJson } from '@/lib/http/fetcher';
-import { fieldErrorsOf } from '@/lib/http/fieldErrors';
-import { formatClock, parseClock } from '@/lib/review/reportView';
+import { fieldErrorsOf } from '@/lib/errors';
+import { formatClock, parseClock } from '@/lib/format';
 import { commentSchema } from '@/lib/review/schema';
-import type { TakeCommentView } from '@/lib/review/service.server';
+import type { TakeCommentView } from '@/lib/review/views';
 
 /** Time-stamped comments: listed in time order, added at the playhead (or a typed time). */
 export function CommentsPanel({

@@ -5,7 +5,7 @@ import { DecisionMark } from '@/components/StatusMarks';
 import { FormField } from '@/components/FormField';
 import { useApiForm } from '@/components/useApiForm';
 import { fetchJson } from '@/lib/http/fetcher';
-import { fieldErrorsOf } from '@/lib/http/fieldErrors';
+import { fieldErrorsOf } from '@/lib/errors';
 import { decisionSchema } from '@/lib/review/schema';
 import type { TakeDetail } from '@/lib/takes/views';
 

@@ -3,7 +3,7 @@
 import { useEffect, useRef } from 'react';
 import uPlot from 'uplot';
 import 'uplot/dist/uPlot.min.css';
-import { formatClock } from '@/lib/review/reportView';
+import { formatClock, formatKhz } from '@/lib/format';
 import { useThemeColors, type ThemeColors } from './useThemeColors';
 
 type Build = (colors: ThemeColors, width: number) => { options: uPlot.Options; data: uPlot.AlignedData };
@@ -40,12 +40,12 @@ const axis = (colors: ThemeColors, label: string, extra: Partial<uPlot.Axis> = {
   ...extra,
 });
 
-const kHzTick = (hz: number) => (hz >= 1000 ? `${Number((hz / 1000).toFixed(1))}k` : `${Math.round(hz)}`);
-/** Labels a log axis at 1, 2 and 5 of each decade only; the other grid lines stay unlabelled. */
+/** Labels a log axis at 1, 2 and 5 of each decade only ("200", "2k"); the other grid lines stay unlabelled. */
 const decadeLabel = (hz: number | null) => {
   if (hz == null || !(hz > 0)) return '';
   const lead = hz / 10 ** Math.floor(Math.log10(hz) + 1e-9);
-  return [1, 2, 5].some((d) => Math.abs(lead - d) < 1e-6) ? kHzTick(hz) : '';
+  if (![1, 2, 5].some((d) => Math.abs(lead - d) < 1e-6)) return '';
+  return hz >= 1000 ? `${Number((hz / 1000).toFixed(1))}k` : `${Math.round(hz)}`;
 };
 
 /** A vertical marker line with a caption, drawn on top of the plot. */
@@ -82,14 +82,14 @@ export function SpectrumPlot({ hz, db, nyquistHz, effectiveHz }: { hz: number[];
       hooks: {
         draw: [
           (u) => {
-            verticalLine(u, nyquistHz, colors.muted, `Nyquist ${kHzTick(nyquistHz)}Hz (declared rate)`, 0);
-            if (effectiveHz) verticalLine(u, effectiveHz, colors.warn, `audio ends ${kHzTick(effectiveHz)}Hz`, 1);
+            verticalLine(u, nyquistHz, colors.muted, `Nyquist ${formatKhz(nyquistHz)} (declared rate)`, 0);
+            if (effectiveHz) verticalLine(u, effectiveHz, colors.warn, `audio ends ${formatKhz(effectiveHz)}`, 1);
           },
         ],
       },
     },
   });
-  const caption = `Long-term spectrum from 20 Hz to ${kHzTick(nyquistHz)}Hz${effectiveHz ? `; the audio ends at about ${kHzTick(effectiveHz)}Hz` : ''}.`;
+  const caption = `Long-term spectrum from 20 Hz to ${formatKhz(nyquistHz)}${effectiveHz ? `; the audio ends at about ${formatKhz(effectiveHz)}` : ''}.`;
   return <Chart build={build} label={caption} testId="spectrum-plot" />;
 }
 

@@ -5,16 +5,16 @@ import { useCallback, useMemo, useRef, useState } from 'react';
 import useSWR from 'swr';
 import type { DeliverySpec } from '@/dsp/spec';
 import { DecisionMark, VerdictMark } from '@/components/StatusMarks';
-import { formatBytes, formatDuration, formatFormat } from '@/lib/format';
+import { describeFormat, formatBytes, formatDuration } from '@/lib/format';
 import { hearingCaution, timedMarkers } from '@/lib/review/reportView';
 import { takeCommentsKey, takeKey } from '@/lib/http/swrKeys';
-import type { TakeCommentView } from '@/lib/review/service.server';
 import type { TakeDetail } from '@/lib/takes/views';
 import { CommentsPanel } from './CommentsPanel';
 import { DecisionPanel } from './DecisionPanel';
 import { MeasuresPanel } from './MeasuresPanel';
 import { LoudnessPlot, SpectrumPlot } from './Plots';
 import { TakeWorkspace } from './TakeWorkspace';
+import type { TakeCommentView } from '@/lib/review/views';
 
 export interface Neighbours {
   previous: { id: number; name: string } | null;
@@ -89,7 +89,7 @@ export function TakeReview({
           <span>
             Decision: <DecisionMark decision={take.decision} />
           </span>
-          <span className="font-mono">{formatFormat(take.format)}</span>
+          <span className="font-mono">{describeFormat(take.format)}</span>
           <span className="font-mono">{formatDuration(take.durationSec)}</span>
           <span className="font-mono">{formatBytes(take.bytes)}</span>
           {take.recorderLabel && <span>Recorder: {take.recorderLabel}</span>}

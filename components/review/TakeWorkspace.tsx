@@ -4,10 +4,11 @@ import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
 import type WaveSurfer from 'wavesurfer.js';
 import type RegionsPlugin from 'wavesurfer.js/plugins/regions';
 import { fetchJson } from '@/lib/http/fetcher';
-import { channelLabel, cueTime, formatClock, neighbourMarker, type TimedMarker } from '@/lib/review/reportView';
-import type { TakeCommentView } from '@/lib/review/service.server';
+import { channelShortName, formatClock } from '@/lib/format';
+import { cueTime, neighbourMarker, type TimedMarker } from '@/lib/review/reportView';
 import { SEVERITY, SeverityMark } from './marks';
 import { useThemeColors } from './useThemeColors';
+import type { TakeCommentView } from '@/lib/review/views';
 
 interface PeaksAnswer {
   duration: number;
@@ -329,7 +330,7 @@ export function TakeWorkspace({ takeId, durationSec, channels, markers, comments
         )}
         {channels > 1 && (
           <p className="mb-1 text-xs text-muted">
-            One lane per channel, top to bottom: {Array.from({ length: channels }, (_, i) => channelLabel(i, channels)).join(', ')}.
+            One lane per channel, top to bottom: {Array.from({ length: channels }, (_, i) => channelShortName(i, channels)).join(', ')}.
           </p>
         )}
         <div className="rounded-md border border-line bg-sunken">

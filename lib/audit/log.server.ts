@@ -1,29 +1,13 @@
 import 'server-only';
 import { Op, fn, col, type WhereOptions } from 'sequelize';
 import { AuditEvent, User } from '@/models';
-import type { Actor } from '@/lib/auth/guard.server';
 import { db } from '@/lib/db/connection.server';
 import type { AuditQuery } from './schema';
+import type { Actor } from '@/lib/auth/views';
+import type { AuditEntry, AuditPage } from './views';
+import { jsonColumn } from '@/lib/db/jsonColumn';
 
 export const AUDIT_PAGE_SIZE = 50;
-
-export interface AuditEntry {
-  id: number;
-  at: string;
-  action: string;
-  actor: { id: number; name: string } | null;
-  subjectType: string;
-  subjectId: number | null;
-  detail: Record<string, unknown> | null;
-}
-
-export interface AuditPage {
-  events: AuditEntry[];
-  page: number;
-  pageSize: number;
-  total: number;
-  pages: number;
-}
 
 /** The studio's audit events, newest first, filtered and one page at a time. */
 export async function listAuditEvents(actor: Actor, query: AuditQuery): Promise<AuditPage> {
@@ -46,7 +30,7 @@ export async function listAuditEvents(actor: Actor, query: AuditQuery): Promise<
   });
   const events = rows.map((e) => {
     const a = (e as AuditEvent & { actor?: User | null }).actor;
-    const detail = typeof e.detail === 'string' ? (JSON.parse(e.detail) as Record<string, unknown>) : e.detail;
+    const detail = jsonColumn<Record<string, unknown> | null>(e.detail);
     return { id: Number(e.id), at: e.createdAt.toISOString(), action: e.action, actor: a ? { id: a.id, name: a.name } : null, subjectType: e.subjectType, subjectId: e.subjectId, detail };
   });
   return { events, page, pageSize: AUDIT_PAGE_SIZE, total: count, pages: Math.max(1, Math.ceil(count / AUDIT_PAGE_SIZE)) };

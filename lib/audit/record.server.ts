@@ -1,7 +1,7 @@
 import 'server-only';
 import type { Transaction } from 'sequelize';
 import { AuditEvent } from '@/models';
-import type { Actor } from '@/lib/auth/guard.server';
+import type { Actor } from '@/lib/auth/views';
 
 /** Records who did what to which object. Every mutation calls this inside its transaction. */
 export async function audit(

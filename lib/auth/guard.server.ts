@@ -6,15 +6,7 @@ import { User } from '@/models';
 import type { Role } from '@/models/User';
 import { authOptions } from './options.server';
 import { can, type Capability } from './policy';
-
-/** The signed-in person, re-read from the database on each request so a role change or deactivation takes effect at once. */
-export interface Actor {
-  id: number;
-  studioId: number;
-  role: Role;
-  name: string;
-  email: string;
-}
+import type { Actor } from './views';
 
 /** The signed-in actor, or null when signed out (for pages that redirect). */
 export async function currentActor(): Promise<Actor | null> {

@@ -1,12 +1,16 @@
 import type { Role } from '@/models/User';
 
 /**
- * What each role may do. Roles are data: guards and the navigation read this
- * table, nothing compares role names elsewhere.
+ * What each role may do. Roles are data: guards, services, pages and the navigation read this
+ * table; nothing compares role names elsewhere. Safe to import from client components.
  */
 export const CAPABILITIES = {
   'session:view': ['engineer', 'producer', 'manager'],
+  /** The overview lists every open session of the studio, not only the ones the person runs. */
+  'session:view-all-open': ['producer', 'manager'],
   'session:create': ['engineer', 'manager'],
+  /** A session this person creates without naming an engineer names them its engineer. */
+  'session:run': ['engineer'],
   'session:edit': ['engineer', 'producer', 'manager'],
   'take:upload': ['engineer', 'manager'],
   'take:remeasure': ['engineer', 'manager'],
@@ -15,6 +19,7 @@ export const CAPABILITIES = {
   'report:send': ['producer', 'manager'],
   'recorder:manage': ['manager'],
   'spec:manage': ['manager'],
+  /** The studio always keeps at least one active person with this capability. */
   'user:manage': ['manager'],
   'fleet:view': ['manager'],
   'audit:view': ['manager'],
@@ -26,3 +31,11 @@ export type Capability = keyof typeof CAPABILITIES;
 export function can(role: Role, capability: Capability): boolean {
   return (CAPABILITIES[capability] as readonly Role[]).includes(role);
 }
+
+/** The roles that have `capability`, e.g. to find the people who may still manage the team. */
+export function rolesWith(capability: Capability): Role[] {
+  return [...CAPABILITIES[capability]];
+}
+
+/** How each role is named on pages and in e-mails. */
+export const ROLE_LABEL: Record<Role, string> = { engineer: 'Engineer', producer: 'Producer', manager: 'Studio manager' };

@@ -2,11 +2,13 @@ import 'server-only';
 import { QueryTypes } from 'sequelize';
 import { DEFAULT_SPEC } from '@/dsp/spec';
 import { DeliverySpec, Recorder } from '@/models';
-import type { Actor } from '@/lib/auth/guard.server';
 import { db } from '@/lib/db/connection.server';
 import { DEFAULT_ALERT_SETTINGS, recorderAlerts, type AlertSettings, type FleetAlert, type RecorderHealth } from './alerts';
 import { findRecorder } from '@/lib/recorders/service.server';
 import type { FleetPeriod, FleetRow, RecentTake, RecorderTrendWeek, WeekPoint } from './views';
+import type { Actor } from '@/lib/auth/views';
+import { jsonColumn } from '@/lib/db/jsonColumn';
+import type { Thresholds } from '@/models/DeliverySpec';
 
 export type { FleetPeriod, FleetRow, RecentTake, RecorderTrendWeek, WeekPoint } from './views';
 
@@ -88,7 +90,7 @@ async function weeklyFloors(studioId: number, from: Date | null, now: Date): Pro
 export async function studioMinEffectiveBits(studioId: number): Promise<number> {
   const specs = await DeliverySpec.findAll({ where: { studioId }, attributes: ['thresholds'] });
   const values = specs
-    .map((s) => (typeof s.thresholds === 'string' ? JSON.parse(s.thresholds) : s.thresholds)?.minEffectiveBits)
+    .map((s) => jsonColumn<Partial<Thresholds> | null>(s.thresholds)?.minEffectiveBits)
     .filter((v): v is number => typeof v === 'number');
   return values.length ? Math.max(...values) : DEFAULT_SPEC.minEffectiveBits;
 }

@@ -1,7 +1,7 @@
 import 'server-only';
 import { NextResponse } from 'next/server';
 import { z } from 'zod';
-import { AppError, type ErrorBody, type FieldErrors } from '@/lib/errors';
+import { AppError, fieldErrorsOf, type ErrorBody } from '@/lib/errors';
 
 type Handler<C> = (request: Request, context: C) => Promise<Response>;
 
@@ -14,7 +14,7 @@ function isDatabaseDown(error: unknown): boolean {
 export function errorResponse(error: unknown): Response {
   let appError: AppError;
   if (error instanceof AppError) appError = error;
-  else if (error instanceof z.ZodError) appError = new AppError('invalid:input', 'Some fields need attention.', { fields: fieldErrors(error) });
+  else if (error instanceof z.ZodError) appError = new AppError('invalid:input', 'Some fields need attention.', { fields: fieldErrorsOf(error) });
   else if (isDatabaseDown(error)) appError = new AppError('unavailable:database');
   else {
     console.error('Unhandled error in a route handler:', error);
@@ -26,15 +26,6 @@ export function errorResponse(error: unknown): Response {
   // RFC 9110 §15.5.17: a 416 names the current length of the object.
   if (appError.kind === 'unsatisfiable' && typeof appError.extra?.size === 'number') headers['Content-Range'] = `bytes */${appError.extra.size}`;
   return NextResponse.json(body, { status: appError.status, headers });
-}
-
-export function fieldErrors(error: z.ZodError): FieldErrors {
-  const fields: FieldErrors = {};
-  for (const issue of error.issues) {
-    const key = issue.path.join('.') || '_';
-    (fields[key] ??= []).push(issue.message);
-  }
-  return fields;
 }
 
 /** Wraps a route handler so every error becomes a proper JSON response. */

@@ -1,3 +1,5 @@
+import type { FleetPeriod } from '@/lib/fleet/views';
+
 /** SWR keys shared by server pages (to seed the cache) and client components (to read it). */
 export function sessionsKey(q = '', status = 'all'): string {
   const params = new URLSearchParams();
@@ -17,4 +19,8 @@ export function takeKey(takeId: number): string {
 
 export function takeCommentsKey(takeId: number): string {
   return `/api/takes/${takeId}/comments`;
+}
+
+export function fleetKey(period: FleetPeriod): string {
+  return `/api/fleet?days=${period}`;
 }

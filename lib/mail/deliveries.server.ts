@@ -2,38 +2,23 @@ import 'server-only';
 import type { Transaction } from 'sequelize';
 import { MailDelivery, User } from '@/models';
 import type { MailKind, MailStatus } from '@/models/MailDelivery';
-import type { Actor } from '@/lib/auth/guard.server';
 import { db } from '@/lib/db/connection.server';
 import { env } from '@/lib/env.server';
 import { AppError } from '@/lib/errors';
 import { mailTransport, plainMailError, type OutgoingMail } from './transport.server';
-
-/** A delivery as the API and pages show it. */
-export interface DeliveryView {
-  id: number;
-  kind: MailKind;
-  recipients: string[];
-  subject: string;
-  status: MailStatus;
-  messageId: string | null;
-  error: string | null;
-  attempts: number;
-  sentBy: string | null;
-  sentAt: string | null;
-  createdAt: string;
-}
-
-const parseJson = <T,>(value: unknown): T => (typeof value === 'string' ? (JSON.parse(value) as T) : (value as T));
+import type { Actor } from '@/lib/auth/views';
+import type { DeliveryView } from './views';
+import { jsonColumn } from '@/lib/db/jsonColumn';
 
 export function deliveryPayload(delivery: MailDelivery): Record<string, unknown> {
-  return parseJson<Record<string, unknown> | null>(delivery.payload) ?? {};
+  return jsonColumn<Record<string, unknown> | null>(delivery.payload) ?? {};
 }
 
 export function toDeliveryView(d: MailDelivery & { sentBy?: { name: string } | null }): DeliveryView {
   return {
     id: d.id,
     kind: d.kind,
-    recipients: parseJson<string[]>(d.recipients),
+    recipients: jsonColumn<string[]>(d.recipients),
     subject: d.subject,
     status: d.status,
     messageId: d.messageId,

@@ -2,8 +2,9 @@ import 'server-only';
 import { readdir, readFile } from 'node:fs/promises';
 import path from 'node:path';
 import { env } from '@/lib/env.server';
-import type { Actor } from '@/lib/auth/guard.server';
 import { AppError } from '@/lib/errors';
+import type { Actor } from '@/lib/auth/views';
+import type { OutboxMessage, OutboxSummary } from './views';
 
 /**
  * What the local mail catcher saved: each message as `<id>.eml` and a summary `<id>.json`
@@ -11,19 +12,6 @@ import { AppError } from '@/lib/errors';
  * A manager sees only the messages Takeproof sent for their own studio (the `X-Takeproof-Studio` header).
  */
 export const OUTBOX_ID = /^\d{13}-[0-9a-f]{12}$/;
-
-export interface OutboxSummary {
-  id: string;
-  receivedAt: string;
-  from: string;
-  to: string[];
-  subject: string;
-  attachments: { filename: string; contentType: string; size: number }[];
-}
-
-export interface OutboxMessage extends OutboxSummary {
-  text: string;
-}
 
 type Stored = OutboxMessage & { studioId: number | null };
 

@@ -1,12 +1,14 @@
 import 'server-only';
-import type { Actor } from '@/lib/auth/guard.server';
 import { assertCan } from '@/lib/auth/guard.server';
 import { audit } from '@/lib/audit/record.server';
 import { AppError } from '@/lib/errors';
 import { composeReportMail } from '@/lib/reports/send.server';
 import { loadReport } from '@/lib/reports/data.server';
 import { resendInvitation } from '@/lib/team/service.server';
-import { attemptDelivery, deliveryPayload, findDelivery, type DeliveryView } from './deliveries.server';
+import { attemptDelivery, deliveryPayload, findDelivery } from './deliveries.server';
+import type { Actor } from '@/lib/auth/views';
+import type { DeliveryView } from './views';
+import { jsonColumn } from '@/lib/db/jsonColumn';
 
 const STUCK_AFTER_MS = 5 * 60_000;
 
@@ -23,6 +25,6 @@ export async function retryDelivery(actor: Actor, id: number): Promise<DeliveryV
   const { sessionId, message } = deliveryPayload(delivery) as { sessionId: number; message: string | null };
   const data = await loadReport(actor, Number(sessionId));
   await audit(actor, 'mail.retry', { type: 'session', id: Number(sessionId) }, { deliveryId: delivery.id });
-  const to = typeof delivery.recipients === 'string' ? (JSON.parse(delivery.recipients) as string[]) : delivery.recipients;
+  const to = jsonColumn<string[]>(delivery.recipients);
   return attemptDelivery(delivery, await composeReportMail(data, to, message ?? null, actor.name));
 }

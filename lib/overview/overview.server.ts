@@ -1,21 +1,9 @@
 import 'server-only';
 import { Op } from 'sequelize';
 import { RecordingSession, Take, User } from '@/models';
-import type { Actor } from '@/lib/auth/guard.server';
 import { db } from '@/lib/db/connection.server';
-
-export interface DashboardTake {
-  id: number;
-  name: string;
-  sessionId: number;
-  sessionTitle: string;
-  status: Take['status'];
-  progress: number;
-  verdict: Take['verdict'];
-  decidedBy: string | null;
-  decisionNote: string | null;
-  at: string;
-}
+import type { Actor } from '@/lib/auth/views';
+import type { DashboardTake } from './views';
 
 type WithSession = Take & { session?: RecordingSession; decidedBy?: User | null };
 

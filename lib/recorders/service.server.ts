@@ -2,25 +2,11 @@ import 'server-only';
 import { Op, fn, col, type WhereOptions } from 'sequelize';
 import { Recorder, Take } from '@/models';
 import { audit } from '@/lib/audit/record.server';
-import type { Actor } from '@/lib/auth/guard.server';
 import { db } from '@/lib/db/connection.server';
 import { AppError } from '@/lib/errors';
 import type { CreateRecorderInput, UpdateRecorderInput } from './schema';
-
-export interface RecorderView {
-  id: number;
-  label: string;
-  makeModel: string | null;
-  serial: string | null;
-  location: string | null;
-  notes: string | null;
-  bextMatch: string | null;
-  active: boolean;
-  takeCount: number;
-  lastMeasuredAt: string | null;
-  createdAt: string;
-  updatedAt: string;
-}
+import type { Actor } from '@/lib/auth/views';
+import type { RecorderView } from './views';
 
 async function takeStats(studioId: number, ids: number[]): Promise<Map<number, { n: number; last: Date | null }>> {
   if (ids.length === 0) return new Map();

@@ -3,7 +3,8 @@ import { requireActor } from '@/lib/auth/guard.server';
 import { idParam } from '@/lib/http/route.server';
 import { takesCsv } from './csv';
 import { reportPdf } from './pdf.server';
-import { loadReport, reportFileBase } from './data.server';
+import { loadReport } from './data.server';
+import { reportFileBase } from './content';
 
 /** A report file as a download; the file name is built from safe ASCII only. */
 export async function reportDownload(params: Promise<{ id: string }>, kind: 'pdf' | 'csv'): Promise<Response> {

@@ -1,5 +1,6 @@
 import { REPORT_CAUTION } from './labels';
-import { sessionDetails, summaryLines, takeCells, type ReportData } from './data.server';
+import { sessionDetails, summaryLines, takeCells } from './content';
+import type { ReportData } from './content';
 
 export function escapeHtml(text: string): string {
   return text.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!);

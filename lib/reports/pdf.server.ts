@@ -1,7 +1,8 @@
 import 'server-only';
 import PDFDocument from 'pdfkit';
 import { REPORT_CAUTION } from './labels';
-import { sessionDetails, takeCells, type ReportData } from './data.server';
+import { sessionDetails, takeCells } from './content';
+import type { ReportData } from './content';
 
 // The PDF uses the built-in Helvetica, whose encoding is Windows-1252: other characters are
 // spelled out or simplified so nothing turns into garbage.

@@ -1,14 +1,17 @@
 import 'server-only';
-import type { Actor } from '@/lib/auth/guard.server';
 import { audit } from '@/lib/audit/record.server';
 import { db } from '@/lib/db/connection.server';
-import { attemptDelivery, createDelivery, type DeliveryView } from '@/lib/mail/deliveries.server';
+import { attemptDelivery, createDelivery } from '@/lib/mail/deliveries.server';
 import type { OutgoingMail } from '@/lib/mail/transport.server';
 import type { SendReportInput } from './schema';
 import { takesCsv } from './csv';
 import { reportHtml, reportText } from './html';
 import { reportPdf } from './pdf.server';
-import { loadReport, reportFileBase, type ReportData } from './data.server';
+import { loadReport } from './data.server';
+import type { Actor } from '@/lib/auth/views';
+import type { DeliveryView } from '@/lib/mail/views';
+import { reportFileBase } from './content';
+import type { ReportData } from './content';
 
 export function reportSubject(data: ReportData): string {
   return `Session report: ${data.session.title}`.replace(/[\r\n]+/g, ' ').slice(0, 250);

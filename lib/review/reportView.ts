@@ -5,6 +5,7 @@
  */
 import type { DeliverySpec } from '@/dsp/spec';
 import type { AnalysisReport, Finding, Severity } from '@/dsp/types';
+import { channelName, channelShortName, formatClock, formatKhz, formatMeasure, plural } from '@/lib/format';
 
 export type Mark = 'pass' | 'warn' | 'fail' | 'none';
 
@@ -28,22 +29,6 @@ export const MAX_CLIP_MARKERS = 200;
 /** Shortest region drawn, so a one-sample clip stays visible and clickable. */
 const MIN_REGION_SEC = 0.02;
 
-export function formatClock(seconds: number): string {
-  const tenths = Math.max(0, Math.round(seconds * 10));
-  const h = Math.floor(tenths / 36000);
-  const m = Math.floor((tenths % 36000) / 600);
-  const s = ((tenths % 600) / 10).toFixed(1).padStart(4, '0');
-  return h ? `${h}:${String(m).padStart(2, '0')}:${s}` : `${m}:${s}`;
-}
-
-export function channelLabel(channel: number | null | undefined, channels: number): string {
-  if (channel == null) return '';
-  if (channels === 2) return channel === 0 ? 'L' : 'R';
-  return `ch ${channel + 1}`;
-}
-
-const channelWords = (channel: number, channels: number) => (channels === 2 ? (channel === 0 ? 'left channel' : 'right channel') : `channel ${channel + 1}`);
-
 function severityOf(findings: Finding[], check: Finding['check'], channel?: number, fallback: Severity = 'warn'): Severity {
   const own = findings.filter((f) => f.check === check && (channel === undefined || f.channel === undefined || f.channel === channel));
   return worst(own.map((f) => f.severity)) ?? fallback;
@@ -64,7 +49,7 @@ export function timedMarkers(report: AnalysisReport): TimedMarker[] {
 
   report.clipping.events.slice(0, MAX_CLIP_MARKERS).forEach((event, i) => {
     const flat = event.level === 'belowFullScale';
-    const ch = channelLabel(event.channel, channels);
+    const ch = channelShortName(event.channel, channels);
     markers.push({
       id: `clip-${i}`,
       kind: flat ? 'flat-top' : 'clip',
@@ -74,8 +59,8 @@ export function timedMarkers(report: AnalysisReport): TimedMarker[] {
       channel: event.channel,
       label: `${flat ? 'Flat top' : 'Clip'} ${ch}`.trim(),
       message: flat
-        ? `Flat-topped at ${event.levelDbfs.toFixed(1)} dBFS on the ${channelWords(event.channel, channels)}: something before the converter clipped.`
-        : `Clipped at full scale on the ${channelWords(event.channel, channels)}.`,
+        ? `Flat-topped at ${event.levelDbfs.toFixed(1)} dBFS on the ${channelName(event.channel, channels)}: something before the converter clipped.`
+        : `Clipped at full scale on the ${channelName(event.channel, channels)}.`,
     });
   });
 
@@ -166,7 +151,7 @@ export function hearingCaution(report: AnalysisReport | null): string | null {
   const fullScaleClips = report.clipping.events.filter((e) => e.level === 'fullScale').length;
   const tp = report.peak.truePeakDbtp;
   const reasons: string[] = [];
-  if (fullScaleClips > 0) reasons.push(`${fullScaleClips} full-scale clipping event${fullScaleClips === 1 ? '' : 's'}`);
+  if (fullScaleClips > 0) reasons.push(plural(fullScaleClips, 'full-scale clipping event'));
   if (tp !== null && tp > 0) reasons.push(`true peaks up to ${tp.toFixed(1)} dBTP`);
   if (!reasons.length) return null;
   return `This take has ${reasons.join(' and ')}. Lower your monitor level before you press play.`;
@@ -189,9 +174,6 @@ function markOf(findings: Finding[]): Mark {
   return w === 'fail' ? 'fail' : w === 'warn' ? 'warn' : 'pass';
 }
 
-const fmt = (v: number | null | undefined, digits = 1, unit = '') => (v == null || !Number.isFinite(v) ? '—' : `${v.toFixed(digits)}${unit ? ` ${unit}` : ''}`);
-const kHz = (hz: number) => `${Number((hz / 1000).toFixed(1))} kHz`;
-
 /** The measures panel: one row per aspect of the take, each marked from the findings of its checks. */
 export function measureRows(report: AnalysisReport, spec: DeliverySpec): MeasureRow[] {
   const f = report.findings;
@@ -206,7 +188,7 @@ export function measureRows(report: AnalysisReport, spec: DeliverySpec): Measure
   add({
     key: 'format',
     title: 'Format',
-    value: `${declared} file, ${used > 0 ? `${used} bits used` : 'no audio bits used'} · ${kHz(file.sampleRate)} · ${file.channels === 1 ? 'mono' : file.channels === 2 ? 'stereo' : `${file.channels} channels`} · ${file.container}`,
+    value: `${declared} file, ${used > 0 ? `${used} bits used` : 'no audio bits used'} · ${formatKhz(file.sampleRate)} · ${file.channels === 1 ? 'mono' : file.channels === 2 ? 'stereo' : `${file.channels} channels`} · ${file.container}`,
     findings: formatFindings,
     explanation:
       used > 0 && used < file.bitsPerSample && file.encoding === 'pcm'
@@ -218,7 +200,7 @@ export function measureRows(report: AnalysisReport, spec: DeliverySpec): Measure
   add({
     key: 'peaks',
     title: 'Peaks and clipping',
-    value: `sample peak ${fmt(report.peak.samplePeakDbfs, 1, 'dBFS')} · true peak ${fmt(report.peak.truePeakDbtp, 1, 'dBTP')} (limit ${fmt(spec.maxTruePeakDbtp, 1, 'dBTP')}) · ${clipCount} clipping event${clipCount === 1 ? '' : 's'}`,
+    value: `sample peak ${formatMeasure(report.peak.samplePeakDbfs, 1, 'dBFS')} · true peak ${formatMeasure(report.peak.truePeakDbtp, 1, 'dBTP')} (limit ${formatMeasure(spec.maxTruePeakDbtp, 1, 'dBTP')}) · ${plural(clipCount, 'clipping event')}`,
     findings: pick('clipping', 'true-peak'),
     explanation:
       clipCount > 0
@@ -230,7 +212,7 @@ export function measureRows(report: AnalysisReport, spec: DeliverySpec): Measure
   add({
     key: 'loudness',
     title: 'Loudness',
-    value: `${fmt(lufs, 1, 'LUFS')} integrated (target ${fmt(spec.loudnessTargetLufs, 1, 'LUFS')} ± ${spec.loudnessToleranceLu} LU) · range ${fmt(report.loudness.rangeLu, 1, 'LU')} · short-term max ${fmt(report.loudness.shortTermMaxLufs, 1, 'LUFS')}`,
+    value: `${formatMeasure(lufs, 1, 'LUFS')} integrated (target ${formatMeasure(spec.loudnessTargetLufs, 1, 'LUFS')} ± ${spec.loudnessToleranceLu} LU) · range ${formatMeasure(report.loudness.rangeLu, 1, 'LU')} · short-term max ${formatMeasure(report.loudness.shortTermMaxLufs, 1, 'LUFS')}`,
     findings: pick('loudness'),
     explanation:
       lufs == null
@@ -241,7 +223,7 @@ export function measureRows(report: AnalysisReport, spec: DeliverySpec): Measure
   add({
     key: 'noise',
     title: 'Noise floor and hum',
-    value: `${fmt(report.noise.floorDbfs, 1, 'dBFS')} in the quiet passages (limit ${fmt(spec.maxNoiseFloorDbfs, 0, 'dBFS')}) · ${report.noise.humHz ? `hum at ${report.noise.humHz} Hz` : 'no mains hum'}`,
+    value: `${formatMeasure(report.noise.floorDbfs, 1, 'dBFS')} in the quiet passages (limit ${formatMeasure(spec.maxNoiseFloorDbfs, 0, 'dBFS')}) · ${report.noise.humHz ? `hum at ${report.noise.humHz} Hz` : 'no mains hum'}`,
     findings: pick('noise-floor', 'hum'),
     explanation: report.noise.humHz
       ? 'A steady mains hum sits under the quiet passages; it usually comes from a ground loop or a nearby power cable.'
@@ -252,7 +234,7 @@ export function measureRows(report: AnalysisReport, spec: DeliverySpec): Measure
   add({
     key: 'bandwidth',
     title: 'Bandwidth',
-    value: `${bw.effectiveHz != null ? `audio up to ${kHz(bw.effectiveHz)}` : '—'} of ${kHz(file.sampleRate / 2)} possible${bw.impliedSourceRate ? ` · probably made at ${kHz(bw.impliedSourceRate)}` : ''}${bw.aliasingRisk ? ' · aliasing risk' : ''}`,
+    value: `${bw.effectiveHz != null ? `audio up to ${formatKhz(bw.effectiveHz)}` : '—'} of ${formatKhz(file.sampleRate / 2)} possible${bw.impliedSourceRate ? ` · probably made at ${formatKhz(bw.impliedSourceRate)}` : ''}${bw.aliasingRisk ? ' · aliasing risk' : ''}`,
     findings: pick('bandwidth', 'aliasing'),
     explanation: bw.impliedSourceRate
       ? 'The highest frequencies are missing, as if the take was recorded at a lower sample rate and converted up afterwards.'
@@ -287,7 +269,7 @@ export function measureRows(report: AnalysisReport, spec: DeliverySpec): Measure
   add({
     key: 'dropouts',
     title: 'Dropouts',
-    value: `${dropoutCount} dropout${dropoutCount === 1 ? '' : 's'}`,
+    value: plural(dropoutCount, 'dropout'),
     findings: pick('dropout'),
     explanation: dropoutCount ? 'Short stretches of digital silence inside the audio, usually a cable, card or buffer fault during recording.' : 'No stretch of digital silence interrupts the audio.',
   });
@@ -312,11 +294,3 @@ export function untimedFindings(report: AnalysisReport): Finding[] {
   return report.findings.filter((f) => f.startSec == null);
 }
 
-/** Reads a time typed as seconds, m:ss(.s) or h:mm:ss(.s); null when it is not one. */
-export function parseClock(text: string): number | null {
-  const t = text.trim();
-  if (!/^\d+(:\d{1,2}){0,2}(\.\d+)?$/.test(t)) return null;
-  const parts = t.split(':').map(Number);
-  if (parts.slice(1).some((p) => p >= 60)) return null;
-  return parts.reduce((total, p) => total * 60 + p, 0);
-}

@@ -4,13 +4,14 @@ import { Op } from 'sequelize';
 import { PEAKS_HEADER_BYTES, PEAKS_LEVEL_ENTRY_BYTES, PEAKS_MAGIC, PEAKS_SCALE, pickPeaksLevel, readPeaksHeader, toWaveformPeaks, type PeaksLevel } from '@/dsp/peaksFile';
 import { Take, TakeComment, User } from '@/models';
 import { audit } from '@/lib/audit/record.server';
-import type { Actor } from '@/lib/auth/guard.server';
 import { db } from '@/lib/db/connection.server';
 import { AppError } from '@/lib/errors';
 import type { CommentInput, DecisionInput } from './schema';
 import { storage } from '@/lib/storage/storage.server';
 import { findTake, getTake } from '@/lib/takes/service.server';
 import type { TakeDetail } from '@/lib/takes/views';
+import type { Actor } from '@/lib/auth/views';
+import type { TakeCommentView, TakePeaks } from './views';
 
 /** The stored audio of a take: its key, size and the name it was uploaded under. */
 export async function takeAudio(actor: Actor, id: number): Promise<{ key: string; size: number; name: string; sha256: string }> {
@@ -30,15 +31,6 @@ async function readAll(stream: Readable): Promise<Buffer> {
 async function readBytes(key: string, start: number, length: number): Promise<Buffer> {
   if (length <= 0) return Buffer.alloc(0);
   return readAll(storage().getRange(key, { start, end: start + length - 1 }));
-}
-
-export interface TakePeaks {
-  duration: number;
-  framesPerBucket: number;
-  channels: number;
-  sampleRate: number;
-  /** Per channel, alternating bucket minimum and maximum, −1…1 of full scale. */
-  peaks: number[][];
 }
 
 /**
@@ -100,15 +92,6 @@ export async function decideTake(actor: Actor, id: number, input: DecisionInput)
     await audit(actor, 'take.decide', { type: 'take', id }, { decision: input.decision, previous, note: input.note }, transaction);
   });
   return getTake(actor, id);
-}
-
-export interface TakeCommentView {
-  id: number;
-  takeId: number;
-  atSec: number;
-  body: string;
-  author: { id: number; name: string } | null;
-  createdAt: string;
 }
 
 type WithAuthor = TakeComment & { author?: User | null };

@@ -3,25 +3,12 @@ import { Op, fn, col, type WhereOptions } from 'sequelize';
 import { db } from '@/lib/db/connection.server';
 import { audit } from '@/lib/audit/record.server';
 import { AppError } from '@/lib/errors';
-import type { Actor } from '@/lib/auth/guard.server';
 import { DeliverySpec, RecordingSession, Take, User } from '@/models';
 import type { CreateSessionInput, UpdateSessionInput } from './schema';
 import { rejudgeSession } from '@/lib/takes/verdicts.server';
-
-export interface SessionSummary {
-  id: number;
-  title: string;
-  client: string | null;
-  recordedOn: string | null;
-  room: string | null;
-  status: 'open' | 'closed';
-  notes: string | null;
-  engineer: { id: number; name: string } | null;
-  producer: { id: number; name: string } | null;
-  deliverySpec: { id: number; name: string } | null;
-  takeCount: number;
-  createdAt: string;
-}
+import type { Actor } from '@/lib/auth/views';
+import type { SessionSummary } from './views';
+import { can } from '@/lib/auth/policy';
 
 const people = [
   { model: User, as: 'engineer', attributes: ['id', 'name'] },
@@ -116,7 +103,7 @@ export async function createSession(actor: Actor, input: CreateSessionInput): Pr
         client: input.client ?? null,
         recordedOn: input.recordedOn ?? null,
         room: input.room ?? null,
-        engineerId: input.engineerId ?? (actor.role === 'engineer' ? actor.id : null),
+        engineerId: input.engineerId ?? (can(actor.role, 'session:run') ? actor.id : null),
         producerId: input.producerId ?? null,
         deliverySpecId: input.deliverySpecId ?? null,
         notes: input.notes ?? null,

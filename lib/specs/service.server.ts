@@ -4,30 +4,20 @@ import { DEFAULT_SPEC } from '@/dsp/spec';
 import { DeliverySpec, RecordingSession } from '@/models';
 import type { Thresholds } from '@/models/DeliverySpec';
 import { audit } from '@/lib/audit/record.server';
-import type { Actor } from '@/lib/auth/guard.server';
 import { db } from '@/lib/db/connection.server';
 import { AppError } from '@/lib/errors';
 import type { CreateSpecInput, UpdateSpecInput } from './schema';
 import { thresholdsSchema } from './schema';
 import { rejudgeSpecSessions } from '@/lib/takes/verdicts.server';
+import type { Actor } from '@/lib/auth/views';
+import type { SpecView } from './views';
+import { jsonColumn } from '@/lib/db/jsonColumn';
 
 const { name: _defaultName, ...DEFAULT_THRESHOLDS } = DEFAULT_SPEC;
 export { DEFAULT_THRESHOLDS };
 
-export interface SpecView {
-  id: number;
-  name: string;
-  description: string | null;
-  /** Every threshold, Takeproof's defaults filling any the stored spec lacks. */
-  thresholds: Thresholds;
-  sessionCount: number;
-  createdAt: string;
-  updatedAt: string;
-}
-
 function storedThresholds(record: DeliverySpec): Thresholds {
-  const raw = typeof record.thresholds === 'string' ? JSON.parse(record.thresholds) : record.thresholds;
-  return { ...DEFAULT_THRESHOLDS, ...(raw ?? {}) };
+  return { ...DEFAULT_THRESHOLDS, ...(jsonColumn<Partial<Thresholds> | null>(record.thresholds) ?? {}) };
 }
 
 async function sessionCounts(studioId: number, specIds: number[]): Promise<Map<number, number>> {

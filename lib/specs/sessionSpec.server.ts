@@ -2,6 +2,7 @@ import 'server-only';
 import { DEFAULT_SPEC, type DeliverySpec as Spec } from '@/dsp/spec';
 import type { Transaction } from 'sequelize';
 import { DeliverySpec, RecordingSession } from '@/models';
+import { jsonColumn } from '@/lib/db/jsonColumn';
 
 /** The delivery spec a session's takes are judged against (Takeproof's defaults when none is set). */
 export async function specForSession(sessionId: number, transaction?: Transaction): Promise<Spec> {
@@ -12,6 +13,5 @@ export async function specForSession(sessionId: number, transaction?: Transactio
 }
 
 export function toSpec(record: DeliverySpec): Spec {
-  const thresholds = typeof record.thresholds === 'string' ? JSON.parse(record.thresholds) : record.thresholds;
-  return { ...DEFAULT_SPEC, ...thresholds, name: record.name };
+  return { ...DEFAULT_SPEC, ...jsonColumn<Partial<Spec> | null>(record.thresholds), name: record.name };
 }

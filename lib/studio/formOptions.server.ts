@@ -1,8 +1,8 @@
 import 'server-only';
 import { ensureDb } from '@/lib/db/connection.server';
-import type { Actor } from '@/lib/auth/guard.server';
 import { DeliverySpec, Recorder, User } from '@/models';
 import type { Role } from '@/models/User';
+import type { Actor } from '@/lib/auth/views';
 
 /** The studio's delivery specs and people, as choices for forms. */
 export async function specOptions(actor: Actor) {

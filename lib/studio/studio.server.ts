@@ -1,7 +1,7 @@
 import 'server-only';
 import { ensureDb } from '@/lib/db/connection.server';
-import type { Actor } from '@/lib/auth/guard.server';
 import { Studio } from '@/models';
+import type { Actor } from '@/lib/auth/views';
 
 export async function studioName(actor: Actor): Promise<string> {
   ensureDb();

@@ -1,11 +1,50 @@
 import 'server-only';
 import { AnalysisJob, Recorder, Take, User } from '@/models';
 import { audit } from '@/lib/audit/record.server';
-import type { Actor } from '@/lib/auth/guard.server';
 import { db } from '@/lib/db/connection.server';
 import { AppError } from '@/lib/errors';
 import { findSession } from '@/lib/sessions/service.server';
-import { toTakeDetail, toTakeSummary, type TakeDetail, type TakeSummary } from './views';
+import type { AnalysisReport } from '@/dsp/types';
+import type { TakeDetail, TakeSummary } from './views';
+import type { Actor } from '@/lib/auth/views';
+import { jsonColumn } from '@/lib/db/jsonColumn';
+
+type WithRefs = Take & { recorder?: { label: string } | null; decidedBy?: { name: string } | null };
+
+export function toTakeSummary(take: Take): TakeSummary {
+  const t = take as WithRefs;
+  return {
+    id: t.id,
+    sessionId: t.sessionId,
+    recorderId: t.recorderId,
+    recorderLabel: t.recorder?.label ?? null,
+    originalName: t.originalName,
+    bytes: Number(t.bytes),
+    sha256: t.sha256,
+    format: { sampleRate: t.sampleRate, bitsPerSample: t.bitsPerSample, channels: t.channels, encoding: t.encoding },
+    durationSec: t.durationSec,
+    status: t.status,
+    progress: t.progress,
+    error: t.error,
+    effectiveBits: t.effectiveBits,
+    truePeakDbtp: t.truePeakDbtp,
+    integratedLufs: t.integratedLufs,
+    noiseFloorDbfs: t.noiseFloorDbfs,
+    clipEvents: t.clipEvents,
+    verdict: t.verdict,
+    decision: t.decision,
+    decidedBy: t.decidedBy?.name ?? null,
+    decidedAt: t.decidedAt ? t.decidedAt.toISOString() : null,
+    decisionNote: t.decisionNote,
+    uploadedAt: t.createdAt.toISOString(),
+    measuredAt: t.measuredAt ? t.measuredAt.toISOString() : null,
+  };
+}
+
+export function toTakeDetail(take: Take): TakeDetail {
+  const report = jsonColumn<AnalysisReport | null>(take.report);
+  return { ...toTakeSummary(take), report, hasPeaks: !!take.peaksKey };
+}
 
 const refs = [
   { model: Recorder, as: 'recorder', attributes: ['label'] },

@@ -5,14 +5,15 @@ import { Readable, Transform, type TransformCallback } from 'node:stream';
 import { UniqueConstraintError } from 'sequelize';
 import { AnalysisJob, Recorder, Take } from '@/models';
 import { audit } from '@/lib/audit/record.server';
-import type { Actor } from '@/lib/auth/guard.server';
 import { db } from '@/lib/db/connection.server';
 import { env } from '@/lib/env.server';
 import { cleanFileName, formatBytes } from '@/lib/format';
 import { AppError } from '@/lib/errors';
 import { findSession } from '@/lib/sessions/service.server';
 import { newTakeKey, storage } from '@/lib/storage/storage.server';
-import { toTakeSummary, type TakeSummary } from './views';
+import { type TakeSummary } from './views';
+import type { Actor } from '@/lib/auth/views';
+import { toTakeSummary } from './service.server';
 
 const WAV_MAGIC = new Set(['RIFF', 'RF64', 'BW64']);
 const MULTIPART_OVERHEAD = 1024 * 1024;

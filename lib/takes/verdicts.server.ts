@@ -5,6 +5,7 @@ import type { DeliverySpec as Spec } from '@/dsp/spec';
 import type { AnalysisReport } from '@/dsp/types';
 import { RecordingSession, Take } from '@/models';
 import { specForSession } from '@/lib/specs/sessionSpec.server';
+import { jsonColumn } from '@/lib/db/jsonColumn';
 
 /** The summary columns and verdict a report gives a take under `spec`. */
 export function measuredFields(report: AnalysisReport, spec: Spec) {
@@ -33,7 +34,7 @@ export async function rejudgeSession(sessionId: number, transaction?: Transactio
   const spec = await specForSession(sessionId, transaction);
   const takes = await Take.findAll({ where: { sessionId, status: 'measured' }, transaction });
   for (const take of takes) {
-    const report = typeof take.report === 'string' ? (JSON.parse(take.report) as AnalysisReport) : take.report;
+    const report = jsonColumn<AnalysisReport | null>(take.report);
     if (!report) continue;
     const { report: judged, verdict } = measuredFields(report, spec);
     await take.update({ report: judged, verdict }, { transaction });

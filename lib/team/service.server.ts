@@ -4,32 +4,22 @@ import { Op, UniqueConstraintError, type Transaction } from 'sequelize';
 import { Invitation, MailDelivery, Studio, User } from '@/models';
 import type { Role } from '@/models/User';
 import { audit } from '@/lib/audit/record.server';
-import type { Actor } from '@/lib/auth/guard.server';
 import { hashPassword } from '@/lib/auth/passwords.server';
 import { db } from '@/lib/db/connection.server';
 import { env } from '@/lib/env.server';
 import { AppError } from '@/lib/errors';
-import { attemptDelivery, createDelivery, toDeliveryView, type DeliveryView } from '@/lib/mail/deliveries.server';
+import { attemptDelivery, createDelivery, toDeliveryView } from '@/lib/mail/deliveries.server';
 import type { OutgoingMail } from '@/lib/mail/transport.server';
 import { escapeHtml } from '@/lib/reports/html';
 import type { InviteInput, UpdateUserInput } from './schema';
+import type { Actor } from '@/lib/auth/views';
+import type { DeliveryView } from '@/lib/mail/views';
+import type { InvitationCheck, MemberStatus, TeamMember } from './views';
+import { INVITATION_REFUSED } from './views';
+import { ROLE_LABEL, can, rolesWith } from '@/lib/auth/policy';
 
 /** How long an invitation link works. */
 export const INVITATION_HOURS = 72;
-
-export type MemberStatus = 'active' | 'invited' | 'deactivated';
-
-export interface TeamMember {
-  id: number;
-  name: string;
-  email: string;
-  role: Role;
-  status: MemberStatus;
-  invitationExpiresAt: string | null;
-  lastInvitation: DeliveryView | null;
-}
-
-const ROLE_WORD: Record<Role, string> = { engineer: 'engineer', producer: 'producer', manager: 'studio manager' };
 
 const hashToken = (token: string) => createHash('sha256').update(token).digest('hex');
 
@@ -100,7 +90,7 @@ async function issueInvitation(actor: Actor, user: User, transaction: Transactio
 async function invitationMail(actor: Actor, user: User, token: string): Promise<OutgoingMail> {
   const studio = (await Studio.findByPk(user.studioId))?.name ?? 'your studio';
   const link = `${env().NEXTAUTH_URL.replace(/\/+$/, '')}/invite/${token}`;
-  const intro = `${actor.name} has invited you to ${studio} on Takeproof as ${ROLE_WORD[user.role]}.`;
+  const intro = `${actor.name} has invited you to ${studio} on Takeproof as ${ROLE_LABEL[user.role].toLowerCase()}.`;
   const expiry = `The link works once and expires ${INVITATION_HOURS} hours after this e-mail was sent.`;
   const e = escapeHtml;
   return {
@@ -177,7 +167,7 @@ export async function resendInvitation(actor: Actor, userId: number, retry?: Mai
 export async function updateMember(actor: Actor, id: number, patch: UpdateUserInput): Promise<TeamMember> {
   await db().transaction(async (transaction) => {
     // Lock the studio's active managers first, so two managers demoting each other cannot both succeed.
-    const managers = await User.findAll({ where: { studioId: actor.studioId, role: 'manager', active: true }, transaction, lock: transaction.LOCK.UPDATE });
+    const managers = await User.findAll({ where: { studioId: actor.studioId, role: rolesWith('user:manage'), active: true }, transaction, lock: transaction.LOCK.UPDATE });
     const user = await findMember(actor, id, transaction);
     const changes: Partial<{ role: Role; active: boolean }> = {};
     if (patch.role !== undefined && patch.role !== user.role) changes.role = patch.role;
@@ -186,7 +176,7 @@ export async function updateMember(actor: Actor, id: number, patch: UpdateUserIn
     if (changes.active === true && !user.passwordHash) {
       throw new AppError('conflict:not_accepted', 'This person has not accepted the invitation yet. Resend the invitation instead.');
     }
-    const losesManager = user.role === 'manager' && user.active && (changes.role !== undefined || changes.active === false);
+    const losesManager = can(user.role, 'user:manage') && user.active && (changes.active === false || (changes.role !== undefined && !can(changes.role, 'user:manage')));
     if (losesManager && !managers.some((m) => m.id !== user.id)) {
       throw new AppError('conflict:last_manager', 'The studio needs at least one active manager. Make someone else a manager first.');
     }
@@ -201,9 +191,6 @@ export async function updateMember(actor: Actor, id: number, patch: UpdateUserIn
   return memberView(actor, id);
 }
 
-export type InvitationCheck =
-  | { state: 'valid'; name: string; email: string; studio: string; expiresAt: string }
-  | { state: 'expired' | 'used' | 'unknown' };
 
 async function lookUp(token: string, transaction?: Transaction) {
   if (!/^[A-Za-z0-9_-]{43}$/.test(token)) return { state: 'unknown' as const };
@@ -225,12 +212,6 @@ export async function checkInvitation(token: string): Promise<InvitationCheck> {
   const studio = (await Studio.findByPk(found.user.studioId))?.name ?? '';
   return { state: 'valid', name: found.user.name, email: found.user.email, studio, expiresAt: found.invitation.expiresAt.toISOString() };
 }
-
-export const INVITATION_REFUSED: Record<'expired' | 'used' | 'unknown', string> = {
-  expired: 'This invitation has expired. Ask your studio manager to send a new one.',
-  used: 'This invitation has already been used. Sign in with the password you chose.',
-  unknown: 'This invitation link is not valid (it may have been replaced by a newer one). Ask your studio manager to send a new one.',
-};
 
 /** Sets the invited person's password and activates the account; the link cannot be used again. */
 export async function acceptInvitation(token: string, password: string): Promise<{ email: string }> {

@@ -1,8 +1,7 @@
 import 'server-only';
 import { cookies } from 'next/headers';
-import type { Theme } from '@/components/ThemeSwitcher';
+import { THEME_COOKIE, themeOf, type Theme } from './themes';
 
 export async function currentTheme(): Promise<Theme> {
-  const value = (await cookies()).get('tp-theme')?.value;
-  return value === 'light' || value === 'dark' ? value : 'system';
+  return themeOf((await cookies()).get(THEME_COOKIE)?.value);
 }

@@ -2,7 +2,8 @@ import { describe, expect, it } from 'vitest';
 import { judgeReport } from '@/dsp/findings';
 import { DEFAULT_SPEC } from '@/dsp/spec';
 import type { AnalysisReport } from '@/dsp/types';
-import { cueTime, formatClock, hearingCaution, measureRows, neighbourMarker, parseClock, timedMarkers } from '@/lib/review/reportView';
+import { formatClock, parseClock } from '@/lib/format';
+import { cueTime, hearingCaution, measureRows, neighbourMarker, timedMarkers } from '@/lib/review/reportView';
 
 /** A plausible report of a 10 s stereo 24-bit take, judged by the real rules; `patch` adds the problems. */
 function report(patch: (r: AnalysisReport) => void = () => undefined): AnalysisReport {

@@ -1,9 +1,10 @@
 import type { Metadata } from 'next';
 import Link from 'next/link';
 import { requireActor } from '@/lib/auth/guard.server';
-import { auditFilterOptions, listAuditEvents, type AuditPage } from '@/lib/audit/log.server';
+import { auditFilterOptions, listAuditEvents } from '@/lib/audit/log.server';
 import { loadPage } from '@/lib/http/pages.server';
 import { auditQuerySchema, type AuditQuery } from '@/lib/audit/schema';
+import type { AuditPage } from '@/lib/audit/views';
 
 export const metadata: Metadata = { title: 'Audit log' };
 

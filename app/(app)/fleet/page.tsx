@@ -5,7 +5,7 @@ import { SwrProvider } from '@/components/SwrProvider';
 import { requireActor } from '@/lib/auth/guard.server';
 import { DEFAULT_ALERT_SETTINGS } from '@/lib/fleet/alerts';
 import { fleetOverview } from '@/lib/fleet/service.server';
-import { fleetKey } from '@/lib/fleet/keys';
+import { fleetKey } from '@/lib/http/swrKeys';
 import { loadPage } from '@/lib/http/pages.server';
 
 export const metadata: Metadata = { title: 'Fleet' };

@@ -4,11 +4,10 @@ import { SpecDuplicateButton } from '@/components/SpecDuplicateButton';
 import { requireActor } from '@/lib/auth/guard.server';
 import { listSpecs } from '@/lib/specs/service.server';
 import { loadPage } from '@/lib/http/pages.server';
+import { formatKhz } from '@/lib/format';
 import { SPEC_PRECEDENCE_NOTE } from '@/lib/specs/fields';
 
 export const metadata: Metadata = { title: 'Delivery specs' };
-
-const kHz = (hz: number | null) => (hz ? `${hz / 1000} kHz` : 'any rate');
 
 export default async function SpecsPage() {
   const specs = await loadPage(async () => listSpecs(await requireActor('spec:manage')));
@@ -56,7 +55,7 @@ export default async function SpecsPage() {
                   <td className="px-4 py-2 font-mono">≤ {s.thresholds.maxTruePeakDbtp} dBTP</td>
                   <td className="px-4 py-2 font-mono">≥ {s.thresholds.minEffectiveBits} bits</td>
                   <td className="px-4 py-2 font-mono">
-                    {kHz(s.thresholds.requiredSampleRate)}, {s.thresholds.requiredBitDepth ? `${s.thresholds.requiredBitDepth}-bit` : 'any depth'}
+                    {s.thresholds.requiredSampleRate ? formatKhz(s.thresholds.requiredSampleRate) : 'any rate'}, {s.thresholds.requiredBitDepth ? `${s.thresholds.requiredBitDepth}-bit` : 'any depth'}
                   </td>
                   <td className="px-4 py-2 font-mono">{s.sessionCount}</td>
                   <td className="px-4 py-2 text-right">

@@ -3,7 +3,8 @@ import Link from 'next/link';
 import { InviteAcceptForm } from '@/components/InviteAcceptForm';
 import { Wordmark } from '@/components/Wordmark';
 import { PASSWORD_MIN } from '@/lib/team/schema';
-import { checkInvitation, INVITATION_REFUSED } from '@/lib/team/service.server';
+import { checkInvitation } from '@/lib/team/service.server';
+import { INVITATION_REFUSED } from '@/lib/team/views';
 
 export const metadata: Metadata = { title: 'Accept invitation', referrer: 'no-referrer' };
 

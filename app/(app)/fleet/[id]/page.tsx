@@ -8,10 +8,10 @@ import { DEFAULT_ALERT_SETTINGS } from '@/lib/fleet/alerts';
 import { FLEET_PERIODS, PERIOD_LABEL, parsePeriod } from '@/lib/fleet/views';
 import { loadPage } from '@/lib/http/pages.server';
 import { getRecorder } from '@/lib/recorders/service.server';
+import { formatMeasure } from '@/lib/format';
 
 export const metadata: Metadata = { title: 'Recorder trends' };
 
-const fixed = (v: number | null, d = 1) => (v === null ? '—' : v.toFixed(d));
 const VERDICT = { pass: '✓ Pass', warn: '▲ Warn', fail: '✕ Fail' } as const;
 const DECISION = { pending: '○ Pending', approved: '● Approved', rejected: '✕ Rejected' } as const;
 
@@ -106,10 +106,10 @@ export default async function RecorderTrendsPage({ params, searchParams }: { par
                       <div className="text-xs text-muted">{t.sessionTitle}</div>
                     </td>
                     <td className="px-3 py-2 font-mono">{t.measuredAt.slice(0, 10)}</td>
-                    <td className="px-3 py-2 font-mono">{fixed(t.noiseFloorDbfs)}</td>
+                    <td className="px-3 py-2 font-mono">{formatMeasure(t.noiseFloorDbfs)}</td>
                     <td className="px-3 py-2 font-mono">{t.effectiveBits ?? '—'}</td>
-                    <td className="px-3 py-2 font-mono">{fixed(t.integratedLufs)}</td>
-                    <td className="px-3 py-2 font-mono">{fixed(t.truePeakDbtp)}</td>
+                    <td className="px-3 py-2 font-mono">{formatMeasure(t.integratedLufs)}</td>
+                    <td className="px-3 py-2 font-mono">{formatMeasure(t.truePeakDbtp)}</td>
                     <td className="px-3 py-2 font-mono">
                       {t.clipEvents ?? '—'}
                       {t.belowFullScaleClipEvents ? ` (${t.belowFullScaleClipEvents} below 0 dBFS)` : ''}

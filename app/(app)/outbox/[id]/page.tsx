@@ -3,12 +3,9 @@ import Link from 'next/link';
 import { requireActor } from '@/lib/auth/guard.server';
 import { getOutboxMessage } from '@/lib/mail/outbox.server';
 import { loadPage } from '@/lib/http/pages.server';
+import { formatBytes } from '@/lib/format';
 
 export const metadata: Metadata = { title: 'Outbox message' };
-
-function size(n: number) {
-  return n >= 1024 * 1024 ? `${(n / 1024 / 1024).toFixed(1)} MB` : `${Math.max(1, Math.round(n / 1024))} KB`;
-}
 
 export default async function OutboxMessagePage({ params }: { params: Promise<{ id: string }> }) {
   const { id } = await params;
@@ -29,7 +26,7 @@ export default async function OutboxMessagePage({ params }: { params: Promise<{ 
         <dt className="text-muted">To</dt>
         <dd className="break-all">{m.to.join(', ')}</dd>
         <dt className="text-muted">Attachments</dt>
-        <dd>{m.attachments.length ? m.attachments.map((a) => `${a.filename} (${a.contentType}, ${size(a.size)})`).join(' · ') : '—'}</dd>
+        <dd>{m.attachments.length ? m.attachments.map((a) => `${a.filename} (${a.contentType}, ${formatBytes(a.size)})`).join(' · ') : '—'}</dd>
       </dl>
       <section className="tp-card p-4" aria-label="Message text">
         <pre className="whitespace-pre-wrap break-words font-mono text-sm">{m.text || '(this message has no plain-text part)'}</pre>

@@ -1,0 +1,25 @@
+import type { Role } from '@/models/User';
+import type { DeliveryView } from '@/lib/mail/views';
+
+/** Shapes of the team page and the invitation page; safe to import from client components. */
+export type MemberStatus = 'active' | 'invited' | 'deactivated';
+
+export interface TeamMember {
+  id: number;
+  name: string;
+  email: string;
+  role: Role;
+  status: MemberStatus;
+  invitationExpiresAt: string | null;
+  lastInvitation: DeliveryView | null;
+}
+
+export type InvitationCheck =
+  | { state: 'valid'; name: string; email: string; studio: string; expiresAt: string }
+  | { state: 'expired' | 'used' | 'unknown' };
+
+export const INVITATION_REFUSED: Record<'expired' | 'used' | 'unknown', string> = {
+  expired: 'This invitation has expired. Ask your studio manager to send a new one.',
+  used: 'This invitation has already been used. Sign in with the password you chose.',
+  unknown: 'This invitation link is not valid (it may have been replaced by a newer one). Ask your studio manager to send a new one.',
+};
