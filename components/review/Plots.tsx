@@ -1,6 +1,6 @@
 'use client';
 
-import { useEffect, useRef } from 'react';
+import { useEffect, useEffectEvent, useRef } from 'react';
 import uPlot from 'uplot';
 import 'uplot/dist/uPlot.min.css';
 import { formatClock, formatKhz } from '@/lib/format';
@@ -12,13 +12,13 @@ type Build = (colors: ThemeColors, width: number) => { options: uPlot.Options; d
 function Chart({ build, label, testId }: { build: Build; label: string; testId: string }) {
   const colors = useThemeColors();
   const box = useRef<HTMLDivElement>(null);
-  const buildRef = useRef(build);
-  buildRef.current = build;
+  // The chart is rebuilt when the palette changes; it always draws the latest data.
+  const buildChart = useEffectEvent((palette: ThemeColors, width: number) => build(palette, width));
   useEffect(() => {
     const el = box.current;
     if (!el || !colors) return;
     const width = Math.max(280, el.clientWidth);
-    const { options, data } = buildRef.current(colors, width);
+    const { options, data } = buildChart(colors, width);
     const plot = new uPlot(options, data, el);
     const observer = new ResizeObserver(() => plot.setSize({ width: Math.max(280, el.clientWidth), height: options.height }));
     observer.observe(el);

@@ -13,7 +13,7 @@ import { CommentsPanel } from './CommentsPanel';
 import { DecisionPanel } from './DecisionPanel';
 import { MeasuresPanel } from './MeasuresPanel';
 import { LoudnessPlot, SpectrumPlot } from './Plots';
-import { TakeWorkspace } from './TakeWorkspace';
+import { TakeWorkspace, type PlayerHandle } from './TakeWorkspace';
 import type { TakeCommentView } from '@/lib/review/views';
 
 export interface Neighbours {
@@ -44,11 +44,11 @@ export function TakeReview({
   const { data: take, mutate } = useSWR<TakeDetail>(takeKey(takeId), { refreshInterval: (latest) => (busy(latest) ? 1500 : 0) });
   const { data: commentData, mutate: mutateComments } = useSWR<{ comments: TakeCommentView[] }>(takeCommentsKey(takeId));
   const [playhead, setPlayhead] = useState(0);
-  const seekRef = useRef<((seconds: number, play?: boolean) => void) | null>(null);
+  const playerRef = useRef<PlayerHandle>(null);
   const report = take?.status === 'measured' ? take.report : null;
   const markers = useMemo(() => (report ? timedMarkers(report) : []), [report]);
   const caution = useMemo(() => hearingCaution(report), [report]);
-  const comments = commentData?.comments ?? [];
+  const comments = useMemo(() => commentData?.comments ?? [], [commentData]);
   const onTime = useCallback((t: number) => setPlayhead(t), []);
 
   if (!take) return <p className="text-muted">Loading the take…</p>;
@@ -122,7 +122,7 @@ export function TakeReview({
 
       {report && (
         <>
-          <TakeWorkspace takeId={take.id} durationSec={take.durationSec ?? report.file.durationSec} channels={report.file.channels} markers={markers} comments={comments} caution={caution} onTime={onTime} seekRef={seekRef} />
+          <TakeWorkspace takeId={take.id} durationSec={take.durationSec ?? report.file.durationSec} channels={report.file.channels} markers={markers} comments={comments} caution={caution} onTime={onTime} ref={playerRef} />
           <div className="grid gap-4 lg:grid-cols-[minmax(0,1fr)_24rem]">
             <div className="min-w-0 space-y-4">
               <MeasuresPanel report={report} spec={spec} />
@@ -156,7 +156,7 @@ export function TakeReview({
             </div>
             <div className="space-y-4">
               <DecisionPanel take={take} canDecide={canDecide} onDecided={(updated) => void mutate(updated, { revalidate: false })} />
-              <CommentsPanel takeId={take.id} comments={comments} playhead={playhead} canComment={canComment} onAdded={() => void mutateComments()} onSeek={(t) => seekRef.current?.(t, false)} />
+              <CommentsPanel takeId={take.id} comments={comments} playhead={playhead} canComment={canComment} onAdded={() => void mutateComments()} onSeek={(t) => playerRef.current?.seek(t, false)} />
             </div>
           </div>
         </>

@@ -17,6 +17,10 @@ export function takeKey(takeId: number): string {
   return `/api/takes/${takeId}`;
 }
 
+export function takePeaksKey(takeId: number, buckets: number): string {
+  return `/api/takes/${takeId}/peaks?buckets=${buckets}`;
+}
+
 export function takeCommentsKey(takeId: number): string {
   return `/api/takes/${takeId}/comments`;
 }

@@ -141,6 +141,19 @@ export function neighbourMarker(markers: readonly { startSec: number }[], time: 
   return null;
 }
 
+/**
+ * The marker the arrow keys move to: the next or previous one in the list while the playhead is
+ * still on the selected one (so markers at the same moment are each reached in turn), else the
+ * neighbour of the playhead's time.
+ */
+export function stepMarker(markers: readonly { startSec: number; endSec: number }[], selected: number | null, time: number, direction: 1 | -1): number | null {
+  const current = selected !== null ? markers[selected] : undefined;
+  const onCurrent = current !== undefined && time >= cueTime(current.startSec) - 0.1 && time <= current.endSec + 0.5;
+  if (!onCurrent) return neighbourMarker(markers, time, direction);
+  const next = selected! + direction;
+  return next >= 0 && next < markers.length ? next : null;
+}
+
 /** Playback from this many seconds before a marker, so the ear hears what leads into it. */
 export const PRE_ROLL_SEC = 1;
 export const cueTime = (startSec: number) => Math.max(0, startSec - PRE_ROLL_SEC);
