@@ -3,7 +3,7 @@
 import Link from 'next/link';
 import { useMemo, useState } from 'react';
 import useSWR from 'swr';
-import { ApiError } from '@/lib/http/fetcher';
+import { type ApiError } from '@/lib/http/fetcher';
 import { FLEET_PERIODS, PERIOD_LABEL, type FleetPeriod, type FleetRow } from '@/lib/fleet/views';
 import { fleetKey } from '@/lib/http/swrKeys';
 import { Sparkline } from './Sparkline';

@@ -2,7 +2,7 @@
 
 import Link from 'next/link';
 import { useState } from 'react';
-import { ApiError, fetchJson } from '@/lib/http/fetcher';
+import { type ApiError, fetchJson } from '@/lib/http/fetcher';
 import type { FieldErrors } from '@/lib/errors';
 import { FormField } from './FormField';
 import { FormMessage } from '@/components/FormMessage';

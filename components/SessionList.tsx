@@ -3,7 +3,7 @@
 import Link from 'next/link';
 import { useState } from 'react';
 import useSWR from 'swr';
-import { ApiError } from '@/lib/http/fetcher';
+import { type ApiError } from '@/lib/http/fetcher';
 import { sessionsKey } from '@/lib/http/swrKeys';
 import type { SessionSummary } from '@/lib/sessions/views';
 

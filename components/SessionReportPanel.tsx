@@ -2,7 +2,7 @@
 
 import { useId, useState } from 'react';
 import useSWR from 'swr';
-import { ApiError, fetchJson, swrFetcher } from '@/lib/http/fetcher';
+import { type ApiError, fetchJson, swrFetcher } from '@/lib/http/fetcher';
 import { FormField } from './FormField';
 import { FormMessage } from '@/components/FormMessage';
 import { useApiForm } from './useApiForm';

@@ -3,7 +3,7 @@
 import { useRouter } from 'next/navigation';
 import { useState } from 'react';
 import { useSWRConfig } from 'swr';
-import { ApiError, fetchJson } from '@/lib/http/fetcher';
+import { type ApiError, fetchJson } from '@/lib/http/fetcher';
 import type { Option } from './SessionCreateForm';
 
 /** Changes a session's delivery spec (verdicts are re-judged at once) or closes/reopens it. */

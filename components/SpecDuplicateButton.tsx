@@ -2,7 +2,7 @@
 
 import { useRouter } from 'next/navigation';
 import { useState } from 'react';
-import { ApiError, fetchJson } from '@/lib/http/fetcher';
+import { type ApiError, fetchJson } from '@/lib/http/fetcher';
 
 /** Copies a spec under a new name ("Copy of …") and opens the copy for editing. */
 export function SpecDuplicateButton({ specId, specName }: { specId: number; specName: string }) {

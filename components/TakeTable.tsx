@@ -41,7 +41,7 @@ export function TakeTable({ takesKey }: { takesKey: string }) {
   });
   const [sort, setSort] = useState<{ key: SortKey; descending: boolean }>({ key: 'originalName', descending: false });
   const [filter, setFilter] = useState({ text: '', verdict: 'all', decision: 'all' });
-  const takes = data?.takes ?? [];
+  const takes = useMemo(() => data?.takes ?? [], [data]);
 
   const shown = useMemo(() => {
     const text = filter.text.trim().toLowerCase();

@@ -158,7 +158,7 @@ export function TeamManager({ initial, selfId }: { initial: TeamMember[]; selfId
                       {s.word}
                       {u.status === 'invited' && u.invitationExpiresAt && (
                         <span className="block text-xs font-normal text-muted">
-                          {Date.parse(u.invitationExpiresAt) > Date.now() ? `link valid until ${u.invitationExpiresAt.slice(0, 16).replace('T', ' ')} UTC` : 'link expired'}
+                          {!u.invitationExpired ? `link valid until ${u.invitationExpiresAt.slice(0, 16).replace('T', ' ')} UTC` : 'link expired'}
                         </span>
                       )}
                       {u.status === 'invited' && u.lastInvitation?.status === 'failed' && (

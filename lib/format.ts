@@ -30,9 +30,14 @@ export function parseClock(text: string): number | null {
   return parts.reduce((total, p) => total * 60 + p, 0);
 }
 
+/** The text without C0/C1 control characters (line breaks, tabs, escapes). */
+export function withoutControlCharacters(text: string): string {
+  // eslint-disable-next-line no-control-regex -- stripping control characters is the point
+  return text.replace(/[\u0000-\u001f\u007f-\u009f]/g, '');
+}
+
 /** Removes control characters and caps the length; a take's name is only ever shown, never used as a path. */
 export function cleanFileName(name: string): string {
-  // eslint-disable-next-line no-control-regex -- stripping control characters is the point
-  const cleaned = name.replace(/[\u0000-\u001f\u007f-\u009f]/g, '').trim();
+  const cleaned = withoutControlCharacters(name).trim();
   return (cleaned || 'unnamed.wav').slice(0, 512);
 }

@@ -1,12 +1,15 @@
 #!/usr/bin/env bash
-# `npm test`: install what the tests need, start a throwaway Takeproof (scripts/test-env.sh),
-# run unit + integration tests, then browser tests, then fault drills, and stop everything again.
+# `npm test`: install what the tests need, lint (any error or warning fails the run), start a
+# throwaway Takeproof (scripts/test-env.sh), run unit + integration tests, then browser tests,
+# then fault drills, and stop everything again.
 # Arguments filter the test files; TEST_SLOT=N runs on ports and folders of its own.
 set -uo pipefail
 cd "$(dirname "$0")/.."
 source scripts/env.sh
 source scripts/db.sh
 source scripts/test-env.sh
+ensure_node_modules || exit 1
+npm run -s lint || { echo 'Lint failed: fix the findings above (npm run lint).' >&2; exit 1; }
 test_env_up || exit 1
 
 VITEST=(npx vitest run --config tests/vitest.config.ts)

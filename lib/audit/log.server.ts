@@ -4,7 +4,7 @@ import { AuditEvent, User } from '@/models';
 import { db } from '@/lib/db/connection.server';
 import type { AuditQuery } from './schema';
 import type { Actor } from '@/lib/auth/views';
-import type { AuditEntry, AuditPage } from './views';
+import type { AuditPage } from './views';
 import { jsonColumn } from '@/lib/db/jsonColumn';
 
 export const AUDIT_PAGE_SIZE = 50;

@@ -3,7 +3,6 @@ import { getServerSession } from 'next-auth';
 import { AppError } from '@/lib/errors';
 import { ensureDb } from '@/lib/db/connection.server';
 import { User } from '@/models';
-import type { Role } from '@/models/User';
 import { authOptions } from './options.server';
 import { can, type Capability } from './policy';
 import type { Actor } from './views';

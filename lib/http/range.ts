@@ -2,6 +2,7 @@
  * HTTP byte ranges (RFC 9110 §14) and Content-Disposition (RFC 6266 + RFC 5987)
  * for streaming stored takes. Pure functions, no server imports.
  */
+import { withoutControlCharacters } from '@/lib/format';
 
 /** What to send for a Range header against an object of `size` bytes. */
 export type RangeAnswer =
@@ -68,8 +69,7 @@ const MAX_NAME_CHARS = 180;
  * characters, no leading dots, at most 180 characters (the extension kept), never empty.
  */
 export function safeFileName(name: string, fallback = 'take.wav'): string {
-  // eslint-disable-next-line no-control-regex
-  let base = name.replace(/[\u0000-\u001f\u007f-\u009f]/g, '');
+  let base = withoutControlCharacters(name);
   base = base.split(/[/\\]/).pop() ?? '';
   base = base.replace(/^[\s.]+/, '').trim();
   if (!base) return fallback;

@@ -1,7 +1,7 @@
 import 'server-only';
 import type { Transaction } from 'sequelize';
 import { MailDelivery, User } from '@/models';
-import type { MailKind, MailStatus } from '@/models/MailDelivery';
+import type { MailKind } from '@/models/MailDelivery';
 import { db } from '@/lib/db/connection.server';
 import { env } from '@/lib/env.server';
 import { AppError } from '@/lib/errors';

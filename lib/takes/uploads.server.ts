@@ -2,6 +2,7 @@ import 'server-only';
 import busboy from 'busboy';
 import { createHash } from 'node:crypto';
 import { Readable, Transform, type TransformCallback } from 'node:stream';
+import type { ReadableStream as WebReadableStream } from 'node:stream/web';
 import { UniqueConstraintError } from 'sequelize';
 import { AnalysisJob, Recorder, Take } from '@/models';
 import { audit } from '@/lib/audit/record.server';
@@ -125,7 +126,7 @@ export async function receiveTakes(actor: Actor, sessionId: number, request: Req
       } catch {
         throw new AppError('invalid:upload', 'The multipart body could not be read.');
       }
-      const source = Readable.fromWeb(request.body as import('node:stream/web').ReadableStream);
+      const source = Readable.fromWeb(request.body as WebReadableStream);
       source.on('error', () => fail(new AppError('invalid:upload_aborted', 'The upload was cut off before it finished. Nothing was kept.')));
       parser.on('field', (name, value) => {
         if (name === 'recorderId' && value !== '') recorderId = Number(value);

@@ -49,6 +49,7 @@ export async function listTeam(actor: Actor): Promise<TeamMember[]> {
       role: u.role,
       status: statusOf(u),
       invitationExpiresAt: inv ? inv.expiresAt.toISOString() : null,
+      invitationExpired: inv ? inv.expiresAt.getTime() <= Date.now() : false,
       lastInvitation: delivery ? toDeliveryView(delivery) : null,
     };
   });

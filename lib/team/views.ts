@@ -11,6 +11,8 @@ export interface TeamMember {
   role: Role;
   status: MemberStatus;
   invitationExpiresAt: string | null;
+  /** The newest invitation link has expired (as of when the list was read). */
+  invitationExpired: boolean;
   lastInvitation: DeliveryView | null;
 }
 

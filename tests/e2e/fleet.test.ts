@@ -1,5 +1,5 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser } from 'playwright-core';
+import type { Browser, Page } from 'playwright-core';
 import { db } from '@/lib/db/connection.server';
 import { Recorder, RecordingSession, Take, User } from '@/models';
 import { BASE_URL, launchBrowser, screenshot, signInAs } from '../support/browser';
@@ -33,7 +33,7 @@ afterAll(async () => {
   await db().close();
 });
 
-const floorsOnPage = async (page: import('playwright-core').Page) =>
+const floorsOnPage = async (page: Page) =>
   (await page.locator('[data-testid=fleet-row] [data-col=medianFloorDbfs]').allTextContents()).map((t) => (t.trim() === '—' ? null : Number(t)));
 
 describe('the fleet in the browser', () => {

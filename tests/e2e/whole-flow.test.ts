@@ -4,7 +4,7 @@ import os from 'node:os';
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
-import { BASE_URL, launchBrowser, screenshot, signInAs } from '../support/browser';
+import { launchBrowser, screenshot, signInAs } from '../support/browser';
 import { mailTo, uniqueAddress } from '../support/mail';
 
 let browser: Browser;

@@ -160,6 +160,7 @@ describe('POST /api/sessions/:id/takes', () => {
     const { status, body } = await uploadTakes(as.engineer, sessionId, [{ name: hostile, bytes: makeWav({ seconds: 0.5, seed: 91 }) }]);
     expect(status, JSON.stringify(body)).toBe(201);
     const name: string = body.takes[0].originalName;
+    // eslint-disable-next-line no-control-regex -- the check looks for control characters
     expect(name).not.toMatch(/[\u0000-\u001f]/);
     expect(name.length).toBeLessThanOrEqual(512);
     // (FormData sends CR LF as %0D%0A, as browsers do.)

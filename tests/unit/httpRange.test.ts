@@ -94,7 +94,7 @@ describe('contentDisposition', () => {
 
   it('drops control characters, so no header can be split or injected', () => {
     const header = contentDisposition('take\r\nSet-Cookie: a=b\u0000\u0007.wav');
-    // eslint-disable-next-line no-control-regex
+    // eslint-disable-next-line no-control-regex -- the check looks for control characters
     expect(header).not.toMatch(/[\u0000-\u001f\u007f]/);
     expect(names(header).utf8).toBe('takeSet-Cookie: a=b.wav');
   });

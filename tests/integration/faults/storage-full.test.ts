@@ -28,7 +28,10 @@ afterAll(() => {
 function filesOnSmallDisk(): string[] {
   const out: string[] = [];
   const walk = (dir: string) => {
-    for (const e of readdirSync(dir, { withFileTypes: true })) e.isDirectory() ? walk(path.join(dir, e.name)) : out.push(e.name);
+    for (const e of readdirSync(dir, { withFileTypes: true })) {
+      if (e.isDirectory()) walk(path.join(dir, e.name));
+      else out.push(e.name);
+    }
   };
   walk(smallDisk);
   return out;
