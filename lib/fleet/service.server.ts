@@ -4,7 +4,7 @@ import { DEFAULT_SPEC } from '@/dsp/spec';
 import { DeliverySpec, Recorder } from '@/models';
 import { db } from '@/lib/db/connection.server';
 import { DEFAULT_ALERT_SETTINGS, recorderAlerts, type AlertSettings, type FleetAlert, type RecorderHealth } from './alerts';
-import { findRecorder } from '@/lib/recorders/service.server';
+import { findRecorder, getRecorder } from '@/lib/recorders/service.server';
 import type { FleetPeriod, FleetRow, RecentTake, RecorderTrendWeek, WeekPoint } from './views';
 import type { Actor } from '@/lib/auth/views';
 import { jsonColumn } from '@/lib/db/jsonColumn';
@@ -262,4 +262,11 @@ export async function recorderRecentTakes(actor: Actor, recorderId: number, limi
     verdict: (r.verdict as RecentTake['verdict']) ?? null,
     decision: r.decision as RecentTake['decision'],
   }));
+}
+
+/** Everything the recorder page of the fleet shows: the recorder, its weekly trends, latest takes and open alerts. */
+export async function recorderFleetDetail(actor: Actor, recorderId: number, period: FleetPeriod) {
+  const recorder = await getRecorder(actor, recorderId);
+  const [weeks, recentTakes, alerts] = await Promise.all([recorderTrends(actor, recorderId, period), recorderRecentTakes(actor, recorderId), fleetAlerts(actor, { recorderId })]);
+  return { recorder, period, weeks, recentTakes, alerts };
 }

@@ -1,23 +1,22 @@
 import 'server-only';
-import { requireActor } from '@/lib/auth/guard.server';
-import { idParam } from '@/lib/http/route.server';
-import { takesCsv } from './csv';
-import { reportPdf } from './pdf.server';
-import { loadReport } from './data.server';
+import type { Actor } from '@/lib/auth/views';
+import type { BodyAnswer } from '@/lib/http/route.server';
 import { reportFileBase } from './content';
+import { takesCsv } from './csv';
+import { loadReport } from './data.server';
+import { reportPdf } from './pdf.server';
 
-/** A report file as a download; the file name is built from safe ASCII only. */
-export async function reportDownload(params: Promise<{ id: string }>, kind: 'pdf' | 'csv'): Promise<Response> {
-  const actor = await requireActor('session:view');
-  const data = await loadReport(actor, await idParam(params, 'session'));
+/** A session report as a file to save (PDF or CSV); the file name is built from safe ASCII only. */
+export async function reportFile(actor: Actor, sessionId: number, kind: 'pdf' | 'csv'): Promise<BodyAnswer> {
+  const data = await loadReport(actor, sessionId);
   const filename = `${reportFileBase(data)}.${kind}`;
-  const body = kind === 'pdf' ? new Uint8Array(await reportPdf(data)) : takesCsv(data.takes);
-  return new Response(body, {
+  return {
     status: 200,
     headers: {
       'Content-Type': kind === 'pdf' ? 'application/pdf' : 'text/csv; charset=utf-8',
       'Content-Disposition': `attachment; filename="${filename}"`,
       'Cache-Control': 'private, no-store',
     },
-  });
+    body: kind === 'pdf' ? new Uint8Array(await reportPdf(data)) : takesCsv(data.takes),
+  };
 }

@@ -1,7 +1,8 @@
 import 'server-only';
 import { audit } from '@/lib/audit/record.server';
 import { db } from '@/lib/db/connection.server';
-import { attemptDelivery, createDelivery } from '@/lib/mail/deliveries.server';
+import { attemptDelivery, createDelivery, listDeliveries } from '@/lib/mail/deliveries.server';
+import { findSession } from '@/lib/sessions/service.server';
 import type { OutgoingMail } from '@/lib/mail/transport.server';
 import type { SendReportInput } from './schema';
 import { takesCsv } from './csv';
@@ -30,6 +31,12 @@ export async function composeReportMail(data: ReportData, to: string[], message:
       { filename: `${base}.csv`, content: takesCsv(data.takes), contentType: 'text/csv; charset=utf-8' },
     ],
   };
+}
+
+/** The reports sent for a session, newest first. */
+export async function listSessionReports(actor: Actor, sessionId: number): Promise<DeliveryView[]> {
+  await findSession(actor, sessionId);
+  return listDeliveries(actor, { type: 'session', id: sessionId });
 }
 
 /** Records, audits and sends a session report; the delivery tells whether the mail server took it. */

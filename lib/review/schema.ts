@@ -27,6 +27,11 @@ export const commentSchema = z.object({
 });
 export type CommentInput = z.infer<typeof commentSchema>;
 
+/** `?download=1` asks for the audio as a file to save; anything else plays it in place. */
+export const audioQuerySchema = z.object({
+  download: z.string().optional().transform((v) => v === '1'),
+});
+
 /** The zoom request of the peaks route: about how many buckets the view wants. */
 export const peaksQuerySchema = z.object({
   buckets: z.coerce.number().int('Ask for a whole number of buckets').min(16, 'Ask for at least 16 buckets').max(200_000, 'Ask for at most 200000 buckets').default(4000),

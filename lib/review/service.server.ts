@@ -13,14 +13,6 @@ import type { TakeDetail } from '@/lib/takes/views';
 import type { Actor } from '@/lib/auth/views';
 import type { TakeCommentView, TakePeaks } from './views';
 
-/** The stored audio of a take: its key, size and the name it was uploaded under. */
-export async function takeAudio(actor: Actor, id: number): Promise<{ key: string; size: number; name: string; sha256: string }> {
-  const take = await findTake(actor, id);
-  const stat = await storage().stat(take.storageKey);
-  if (!stat) throw new AppError('not_found:audio', 'The audio of this take is missing from storage.');
-  return { key: take.storageKey, size: stat.bytes, name: take.originalName, sha256: take.sha256 };
-}
-
 async function readAll(stream: Readable): Promise<Buffer> {
   const parts: Buffer[] = [];
   for await (const part of stream) parts.push(part as Buffer);

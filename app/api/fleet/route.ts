@@ -1,12 +1,11 @@
 import { requireActor } from '@/lib/auth/guard.server';
-import { AppError } from '@/lib/errors';
+import { fleetQuerySchema } from '@/lib/fleet/schema';
 import { fleetOverview } from '@/lib/fleet/service.server';
-import { parsePeriod } from '@/lib/fleet/views';
-import { json, route } from '@/lib/http/route.server';
+import { json, parseQuery, route } from '@/lib/http/route.server';
 
+/** `?days=7|30|90|all` (30 when absent): one row per recorder with its statistics and alerts. */
 export const GET = route(async (request) => {
   const actor = await requireActor('fleet:view');
-  const period = parsePeriod(new URL(request.url).searchParams.get('days'));
-  if (period === null) throw new AppError('invalid:period', 'Some fields need attention.', { fields: { days: ['Use 7, 30, 90 or all'] } });
-  return json(await fleetOverview(actor, period));
+  const { days } = parseQuery(request, fleetQuerySchema(30));
+  return json(await fleetOverview(actor, days));
 });

@@ -1,11 +1,11 @@
 import { requireActor } from '@/lib/auth/guard.server';
-import { json, parseJson, route } from '@/lib/http/route.server';
+import { json, parseJson, parseQuery, route } from '@/lib/http/route.server';
 import { createRecorder, listRecorders } from '@/lib/recorders/service.server';
 import { createRecorderSchema, recorderQuerySchema } from '@/lib/recorders/schema';
 
 export const GET = route(async (request) => {
   const actor = await requireActor('recorder:manage');
-  const query = recorderQuerySchema.parse(Object.fromEntries(new URL(request.url).searchParams));
+  const query = parseQuery(request, recorderQuerySchema);
   return json({ recorders: await listRecorders(actor, query) });
 });
 

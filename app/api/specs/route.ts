@@ -1,4 +1,3 @@
-import { z } from 'zod';
 import { requireActor } from '@/lib/auth/guard.server';
 import { createSpec, listSpecs } from '@/lib/specs/service.server';
 import { json, parseJson, route } from '@/lib/http/route.server';
@@ -11,7 +10,6 @@ export const GET = route(async () => {
 
 export const POST = route(async (request) => {
   const actor = await requireActor('spec:manage');
-  const body = await parseJson(request, z.unknown());
-  const spec = await createSpec(actor, createSpecSchema.parse(body, { error: specErrorMap }));
-  return json(spec, 201);
+  const input = await parseJson(request, createSpecSchema, { error: specErrorMap });
+  return json(await createSpec(actor, input), 201);
 });

@@ -3,11 +3,11 @@ import Link from 'next/link';
 import { AlertList } from '@/components/AlertList';
 import { RecorderTrends } from '@/components/RecorderTrends';
 import { requireActor } from '@/lib/auth/guard.server';
-import { fleetAlerts, recorderRecentTakes, recorderTrends } from '@/lib/fleet/service.server';
+import { recorderFleetDetail } from '@/lib/fleet/service.server';
 import { DEFAULT_ALERT_SETTINGS } from '@/lib/fleet/alerts';
 import { FLEET_PERIODS, PERIOD_LABEL, parsePeriod } from '@/lib/fleet/views';
 import { loadPage } from '@/lib/http/pages.server';
-import { getRecorder } from '@/lib/recorders/service.server';
+import { idParam } from '@/lib/http/route.server';
 import { formatMeasure } from '@/lib/format';
 
 export const metadata: Metadata = { title: 'Recorder trends' };
@@ -19,10 +19,7 @@ export default async function RecorderTrendsPage({ params, searchParams }: { par
   const period = parsePeriod((await searchParams).days ?? '90') ?? 90;
   const { recorder, weeks, takes, alerts } = await loadPage(async () => {
     const actor = await requireActor('fleet:view');
-    const raw = Number((await params).id);
-    const id = Number.isInteger(raw) && raw > 0 ? raw : 0;
-    const recorder = await getRecorder(actor, id);
-    const [weeks, takes, alerts] = await Promise.all([recorderTrends(actor, id, period), recorderRecentTakes(actor, id), fleetAlerts(actor, { recorderId: id })]);
+    const { recorder, weeks, recentTakes: takes, alerts } = await recorderFleetDetail(actor, await idParam(params, 'recorder'), period);
     return { recorder, weeks, takes, alerts };
   });
   const s = DEFAULT_ALERT_SETTINGS;

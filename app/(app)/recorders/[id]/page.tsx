@@ -3,6 +3,7 @@ import Link from 'next/link';
 import { RecorderForm } from '@/components/RecorderForm';
 import { requireActor } from '@/lib/auth/guard.server';
 import { loadPage } from '@/lib/http/pages.server';
+import { idParam } from '@/lib/http/route.server';
 import { getRecorder } from '@/lib/recorders/service.server';
 
 export const metadata: Metadata = { title: 'Recorder' };
@@ -10,8 +11,7 @@ export const metadata: Metadata = { title: 'Recorder' };
 export default async function RecorderEditPage({ params, searchParams }: { params: Promise<{ id: string }>; searchParams: Promise<{ created?: string }> }) {
   const recorder = await loadPage(async () => {
     const actor = await requireActor('recorder:manage');
-    const id = Number((await params).id);
-    return getRecorder(actor, Number.isInteger(id) && id > 0 ? id : 0);
+    return getRecorder(actor, await idParam(params, 'recorder'));
   });
   const { created } = await searchParams;
   return (

@@ -9,6 +9,7 @@ import { requireActor } from '@/lib/auth/guard.server';
 import { can } from '@/lib/auth/policy';
 import { recorderOptions, specOptions } from '@/lib/studio/formOptions.server';
 import { loadPage } from '@/lib/http/pages.server';
+import { idParam } from '@/lib/http/route.server';
 import { getSession } from '@/lib/sessions/service.server';
 import { sessionTakesKey } from '@/lib/http/swrKeys';
 import { listSessionTakes } from '@/lib/takes/service.server';
@@ -18,8 +19,7 @@ export const metadata: Metadata = { title: 'Session' };
 export default async function SessionPage({ params }: { params: Promise<{ id: string }> }) {
   const { actor, session, takes, recorders, specs } = await loadPage(async () => {
     const actor = await requireActor('session:view');
-    const raw = Number((await params).id);
-    const session = await getSession(actor, Number.isInteger(raw) && raw > 0 ? raw : 0);
+    const session = await getSession(actor, await idParam(params, 'session'));
     return { actor, session, takes: await listSessionTakes(actor, session.id), recorders: await recorderOptions(actor), specs: await specOptions(actor) };
   });
   const takesKey = sessionTakesKey(session.id);

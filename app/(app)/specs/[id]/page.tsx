@@ -5,14 +5,14 @@ import { SpecForm } from '@/components/SpecForm';
 import { requireActor } from '@/lib/auth/guard.server';
 import { getSpec } from '@/lib/specs/service.server';
 import { loadPage } from '@/lib/http/pages.server';
+import { idParam } from '@/lib/http/route.server';
 
 export const metadata: Metadata = { title: 'Delivery spec' };
 
 export default async function SpecPage({ params, searchParams }: { params: Promise<{ id: string }>; searchParams: Promise<{ created?: string }> }) {
   const spec = await loadPage(async () => {
     const actor = await requireActor('spec:manage');
-    const id = Number((await params).id);
-    return getSpec(actor, Number.isInteger(id) && id > 0 ? id : 0);
+    return getSpec(actor, await idParam(params, 'spec'));
   });
   const { created } = await searchParams;
   return (

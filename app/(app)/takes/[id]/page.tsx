@@ -4,6 +4,7 @@ import { TakeReview } from '@/components/review/TakeReview';
 import { requireActor } from '@/lib/auth/guard.server';
 import { can } from '@/lib/auth/policy';
 import { loadPage } from '@/lib/http/pages.server';
+import { idParam } from '@/lib/http/route.server';
 import { getSession } from '@/lib/sessions/service.server';
 import { specForSession } from '@/lib/specs/sessionSpec.server';
 import { takeCommentsKey, takeKey } from '@/lib/http/swrKeys';
@@ -15,8 +16,7 @@ export const metadata: Metadata = { title: 'Take review' };
 export default async function TakePage({ params }: { params: Promise<{ id: string }> }) {
   const data = await loadPage(async () => {
     const actor = await requireActor('session:view');
-    const raw = Number((await params).id);
-    const id = Number.isInteger(raw) && raw > 0 && raw < 2 ** 31 ? raw : 0;
+    const id = await idParam(params, 'take');
     const take = await getTake(actor, id);
     const [session, spec, comments, neighbours] = await Promise.all([
       getSession(actor, take.sessionId),

@@ -7,7 +7,7 @@ type Context = { params: Promise<{ id: string }> };
 
 export const GET = route<Context>(async (_request, { params }) => {
   const actor = await requireActor('session:view');
-  return json(await getSession(actor, await idParam(params, "session")));
+  return json(await getSession(actor, await idParam(params, 'session')));
 });
 
 export const PATCH = route<Context>(async (request, { params }) => {

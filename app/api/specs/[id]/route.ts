@@ -1,4 +1,3 @@
-import { z } from 'zod';
 import { requireActor } from '@/lib/auth/guard.server';
 import { getSpec, updateSpec } from '@/lib/specs/service.server';
 import { idParam, json, parseJson, route } from '@/lib/http/route.server';
@@ -14,6 +13,6 @@ export const GET = route<Context>(async (_request, { params }) => {
 export const PATCH = route<Context>(async (request, { params }) => {
   const actor = await requireActor('spec:manage');
   const id = await idParam(params, 'spec');
-  const body = await parseJson(request, z.unknown());
-  return json(await updateSpec(actor, id, updateSpecSchema.parse(body, { error: specErrorMap })));
+  const patch = await parseJson(request, updateSpecSchema, { error: specErrorMap });
+  return json(await updateSpec(actor, id, patch));
 });

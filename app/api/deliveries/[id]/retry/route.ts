@@ -7,5 +7,7 @@ type Context = { params: Promise<{ id: string }> };
 /** Sends a failed e-mail again → 202 with the delivery's new state. */
 export const POST = route<Context>(async (_request, { params }) => {
   const actor = await requireActor();
-  return json({ delivery: await retryDelivery(actor, await idParam(params, 'delivery')) }, 202);
+  const delivery = await retryDelivery(actor, await idParam(params, 'delivery'));
+  // One object is answered bare; `delivery` is kept for the clients that read it there.
+  return json({ ...delivery, delivery }, 202);
 });

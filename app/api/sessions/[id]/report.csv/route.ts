@@ -1,6 +1,11 @@
-import { route } from '@/lib/http/route.server';
-import { reportDownload } from '@/lib/reports/download.server';
+import { requireActor } from '@/lib/auth/guard.server';
+import { idParam, route, send } from '@/lib/http/route.server';
+import { reportFile } from '@/lib/reports/download.server';
 
 type Context = { params: Promise<{ id: string }> };
 
-export const GET = route<Context>(async (_request, { params }) => reportDownload(params, 'csv'));
+export const GET = route<Context>(async (_request, { params }) => {
+  const actor = await requireActor('session:view');
+  const id = await idParam(params, 'session');
+  return send(await reportFile(actor, id, 'csv'));
+});

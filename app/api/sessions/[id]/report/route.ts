@@ -1,9 +1,7 @@
 import { requireActor } from '@/lib/auth/guard.server';
 import { idParam, json, parseJson, route } from '@/lib/http/route.server';
-import { listDeliveries } from '@/lib/mail/deliveries.server';
-import { sendSessionReport } from '@/lib/reports/send.server';
 import { sendReportSchema } from '@/lib/reports/schema';
-import { findSession } from '@/lib/sessions/service.server';
+import { listSessionReports, sendSessionReport } from '@/lib/reports/send.server';
 
 type Context = { params: Promise<{ id: string }> };
 
@@ -11,15 +9,15 @@ type Context = { params: Promise<{ id: string }> };
 export const GET = route<Context>(async (_request, { params }) => {
   const actor = await requireActor('report:send');
   const id = await idParam(params, 'session');
-  await findSession(actor, id);
-  return json({ deliveries: await listDeliveries(actor, { type: 'session', id }) });
+  return json({ deliveries: await listSessionReports(actor, id) });
 });
 
 /** `{ to: string[], message?: string }` → 202 with the delivery (its status says whether the mail server took it). */
 export const POST = route<Context>(async (request, { params }) => {
   const actor = await requireActor('report:send');
   const id = await idParam(params, 'session');
-  await findSession(actor, id);
   const input = await parseJson(request, sendReportSchema);
-  return json({ delivery: await sendSessionReport(actor, id, input) }, 202);
+  const delivery = await sendSessionReport(actor, id, input);
+  // One object is answered bare; `delivery` is kept for the clients that read it there.
+  return json({ ...delivery, delivery }, 202);
 });

@@ -1,23 +1,14 @@
 import { requireActor } from '@/lib/auth/guard.server';
-import { duplicateSpec } from '@/lib/specs/service.server';
-import { AppError } from '@/lib/errors';
-import { idParam, json, route } from '@/lib/http/route.server';
+import { idParam, json, parseJson, route } from '@/lib/http/route.server';
 import { duplicateSpecSchema, specErrorMap } from '@/lib/specs/schema';
+import { duplicateSpec } from '@/lib/specs/service.server';
 
 type Context = { params: Promise<{ id: string }> };
 
+/** `{ name? }`, or no body at all: without a name the copy is called "Copy of …". */
 export const POST = route<Context>(async (request, { params }) => {
   const actor = await requireActor('spec:manage');
   const id = await idParam(params, 'spec');
-  // The body is optional: without one the copy is named "Copy of …".
-  const text = await request.text();
-  let body: unknown = {};
-  if (text.trim()) {
-    try {
-      body = JSON.parse(text);
-    } catch {
-      throw new AppError('invalid:json', 'The request body is not valid JSON.');
-    }
-  }
-  return json(await duplicateSpec(actor, id, duplicateSpecSchema.parse(body, { error: specErrorMap })), 201);
+  const input = await parseJson(request, duplicateSpecSchema, { error: specErrorMap, optionalBody: true });
+  return json(await duplicateSpec(actor, id, input), 201);
 });

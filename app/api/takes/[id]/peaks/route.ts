@@ -1,5 +1,5 @@
 import { requireActor } from '@/lib/auth/guard.server';
-import { idParam, json, route } from '@/lib/http/route.server';
+import { idParam, json, parseQuery, route } from '@/lib/http/route.server';
 import { peaksQuerySchema } from '@/lib/review/schema';
 import { takePeaks } from '@/lib/review/service.server';
 
@@ -8,6 +8,7 @@ type Context = { params: Promise<{ id: string }> };
 /** `?buckets=N`: the take's waveform envelope at the stored zoom level nearest N buckets. */
 export const GET = route<Context>(async (request, { params }) => {
   const actor = await requireActor('session:view');
-  const { buckets } = peaksQuerySchema.parse(Object.fromEntries(new URL(request.url).searchParams));
-  return json(await takePeaks(actor, await idParam(params, 'take'), buckets));
+  const id = await idParam(params, 'take');
+  const { buckets } = parseQuery(request, peaksQuerySchema);
+  return json(await takePeaks(actor, id, buckets));
 });
