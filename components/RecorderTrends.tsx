@@ -15,7 +15,7 @@ export function RecorderTrends({ weeks }: { weeks: RecorderTrendWeek[] }) {
     ];
     const loudness: TrendSeries[] = [
       { label: '90th percentile', values: weeks.map((w) => w.p90Lufs), token: 'muted', dash: [2, 3] },
-      { label: 'Median loudness', values: weeks.map((w) => w.medianLufs), token: 'accent' },
+      { label: 'Median integrated loudness', values: weeks.map((w) => w.medianLufs), token: 'accent' },
       { label: '10th percentile', values: weeks.map((w) => w.p10Lufs), token: 'muted', dash: [6, 4] },
     ];
     return { labels, floor, bits, loudness };

@@ -1,34 +1,26 @@
+import { DECISION_LABEL, VERDICT_LABEL } from '@/lib/glossary';
 import type { Decision, TakeStatus, Verdict } from '@/models/Take';
 
 // Every status pairs a colour with a shape and a word, so it reads without colour too.
-const VERDICT = {
-  pass: { shape: '✓', word: 'Pass', tone: 'text-pass' },
-  warn: { shape: '▲', word: 'Warn', tone: 'text-warn' },
-  fail: { shape: '✕', word: 'Fail', tone: 'text-fail' },
-} as const;
-
-const DECISION = {
-  pending: { shape: '○', word: 'Pending', tone: 'text-muted' },
-  approved: { shape: '●', word: 'Approved', tone: 'text-pass' },
-  rejected: { shape: '■', word: 'Rejected', tone: 'text-fail' },
-} as const;
+const VERDICT_TONE = { pass: 'text-pass', warn: 'text-warn', fail: 'text-fail' } as const;
+const DECISION_TONE = { pending: 'text-muted', approved: 'text-pass', rejected: 'text-fail' } as const;
 
 export function VerdictMark({ verdict }: { verdict: Verdict | null }) {
   if (!verdict) return <span className="text-muted">—</span>;
-  const v = VERDICT[verdict];
+  const v = VERDICT_LABEL[verdict];
   return (
-    <span className={`inline-flex items-center gap-1 font-semibold ${v.tone}`}>
-      <span aria-hidden="true">{v.shape}</span>
+    <span className={`inline-flex items-center gap-1 font-semibold ${VERDICT_TONE[verdict]}`}>
+      <span aria-hidden="true">{v.mark}</span>
       {v.word}
     </span>
   );
 }
 
 export function DecisionMark({ decision }: { decision: Decision }) {
-  const d = DECISION[decision];
+  const d = DECISION_LABEL[decision];
   return (
-    <span className={`inline-flex items-center gap-1 font-semibold ${d.tone}`}>
-      <span aria-hidden="true">{d.shape}</span>
+    <span className={`inline-flex items-center gap-1 font-semibold ${DECISION_TONE[decision]}`}>
+      <span aria-hidden="true">{d.mark}</span>
       {d.word}
     </span>
   );

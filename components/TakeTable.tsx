@@ -5,6 +5,7 @@ import { useMemo, useState } from 'react';
 import useSWR from 'swr';
 import type { ApiError } from '@/lib/http/fetcher';
 import { describeFormat, formatDuration, formatMeasure } from '@/lib/format';
+import { DECISION_LABEL, MEASURE, VERDICT_LABEL } from '@/lib/glossary';
 import type { TakeSummary } from '@/lib/takes/views';
 import { DecisionMark, TakeStatusMark, VerdictMark } from './StatusMarks';
 
@@ -13,12 +14,12 @@ type SortKey = 'originalName' | 'recorderLabel' | 'durationSec' | 'effectiveBits
 const COLUMNS: { key: SortKey; label: string; numeric?: boolean }[] = [
   { key: 'originalName', label: 'Take' },
   { key: 'recorderLabel', label: 'Recorder' },
-  { key: 'durationSec', label: 'Length', numeric: true },
-  { key: 'effectiveBits', label: 'Bits used', numeric: true },
-  { key: 'truePeakDbtp', label: 'True peak', numeric: true },
-  { key: 'integratedLufs', label: 'Loudness', numeric: true },
-  { key: 'noiseFloorDbfs', label: 'Noise floor', numeric: true },
-  { key: 'clipEvents', label: 'Clips', numeric: true },
+  { key: 'durationSec', label: MEASURE.duration.label, numeric: true },
+  { key: 'effectiveBits', label: MEASURE.effectiveBits.label, numeric: true },
+  { key: 'truePeakDbtp', label: MEASURE.truePeak.label, numeric: true },
+  { key: 'integratedLufs', label: MEASURE.integratedLoudness.label, numeric: true },
+  { key: 'noiseFloorDbfs', label: MEASURE.noiseFloor.label, numeric: true },
+  { key: 'clipEvents', label: MEASURE.clipEvents.label, numeric: true },
   { key: 'verdict', label: 'Verdict' },
   { key: 'decision', label: 'Decision' },
 ];
@@ -96,11 +97,11 @@ export function TakeTable({ takesKey }: { takesKey: string }) {
       {takes.length > 0 && (
         <p className="flex flex-wrap gap-x-5 gap-y-1 border-b border-line bg-sunken px-4 py-2 text-sm" data-testid="take-summary" aria-live="polite">
           <span>{takes.length} takes</span>
-          <span className="text-pass">✓ {counts.pass} pass</span>
-          <span className="text-warn">▲ {counts.warn} warn</span>
-          <span className="text-fail">✕ {counts.fail} fail</span>
-          <span>● {counts.approved} approved</span>
-          <span>■ {counts.rejected} rejected</span>
+          <span className="text-pass">{VERDICT_LABEL.pass.mark} {counts.pass} pass</span>
+          <span className="text-warn">{VERDICT_LABEL.warn.mark} {counts.warn} warn</span>
+          <span className="text-fail">{VERDICT_LABEL.fail.mark} {counts.fail} fail</span>
+          <span>{DECISION_LABEL.approved.mark} {counts.approved} approved</span>
+          <span>{DECISION_LABEL.rejected.mark} {counts.rejected} rejected</span>
           {counts.waiting > 0 && <span className="text-muted">◷ {counts.waiting} still measuring</span>}
         </p>
       )}

@@ -5,7 +5,7 @@
 import type { SessionSummary } from '@/lib/sessions/views';
 import type { TakeSummary } from '@/lib/takes/views';
 import { describeFormat, formatDuration, formatMeasure } from '@/lib/format';
-import { DECISION_LABEL, VERDICT_LABEL } from './labels';
+import { DECISION_LABEL, VERDICT_LABEL } from '@/lib/glossary';
 
 export interface ReportData {
   studio: string;

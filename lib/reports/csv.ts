@@ -1,5 +1,5 @@
 import type { TakeSummary } from '@/lib/takes/views';
-import { DECISION_LABEL, VERDICT_LABEL } from './labels';
+import { DECISION_LABEL, MEASURE, VERDICT_LABEL, labelWithUnit } from '@/lib/glossary';
 
 type Cell = string | number | null;
 
@@ -20,15 +20,15 @@ export function csvRow(cells: Cell[]): string {
 
 export const CSV_HEADER = [
   'Take',
-  'Sample rate (Hz)',
-  'Bit depth',
-  'Channels',
-  'Duration (s)',
-  'Effective bits',
-  'True peak (dBTP)',
-  'Integrated loudness (LUFS)',
-  'Noise floor (dBFS)',
-  'Clip events',
+  labelWithUnit('sampleRate'),
+  MEASURE.bitDepth.label,
+  MEASURE.channels.label,
+  labelWithUnit('duration'),
+  MEASURE.effectiveBits.label,
+  labelWithUnit('truePeak'),
+  labelWithUnit('integratedLoudness'),
+  labelWithUnit('noiseFloor'),
+  MEASURE.clipEvents.label,
   'Verdict',
   'Decision',
   'Decided by',

@@ -1,3 +1,4 @@
+import { MEASURE } from '@/lib/glossary';
 import { REPORT_CAUTION } from './labels';
 import { sessionDetails, summaryLines, takeCells } from './content';
 import type { ReportData } from './content';
@@ -38,7 +39,7 @@ export function reportHtml(data: ReportData, message: string | null, sender: str
 </tr>`;
     })
     .join('\n');
-  const head = ['Take', 'Verdict', 'Decision', 'True peak', 'Loudness', 'Noise floor', 'Effective bits', 'Clip events', 'Notes']
+  const head = ['Take', 'Verdict', 'Decision', MEASURE.truePeak.label, MEASURE.integratedLoudness.label, MEASURE.noiseFloor.label, MEASURE.effectiveBits.label, MEASURE.clipEvents.label, 'Notes']
     .map((h) => `<th scope="col" style="${cell}border-bottom:2px solid ${INK};">${h}</th>`)
     .join('');
   return `<!doctype html>
@@ -73,7 +74,7 @@ export function reportText(data: ReportData, message: string | null, sender: str
   for (const t of data.takes) {
     const c = takeCells(t);
     lines.push(
-      `- ${c.name}: ${c.verdict.mark} ${c.verdict.word}, ${c.decision.word}; true peak ${c.truePeak}, loudness ${c.loudness}, noise floor ${c.noiseFloor}, effective bits ${c.effectiveBits}, clip events ${c.clips}${c.problem ? `; ${c.problem}` : ''}${c.note ? `; ${c.note}` : ''}`,
+      `- ${c.name}: ${c.verdict.mark} ${c.verdict.word}, ${c.decision.word}; true peak ${c.truePeak}, integrated loudness ${c.loudness}, noise floor ${c.noiseFloor}, effective bits ${c.effectiveBits}, clipping events ${c.clips}${c.problem ? `; ${c.problem}` : ''}${c.note ? `; ${c.note}` : ''}`,
     );
   }
   lines.push('', REPORT_CAUTION, '', 'The same table is attached as a PDF and as a CSV file.');

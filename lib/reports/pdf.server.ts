@@ -1,5 +1,6 @@
 import 'server-only';
 import PDFDocument from 'pdfkit';
+import { MEASURE } from '@/lib/glossary';
 import { REPORT_CAUTION } from './labels';
 import { sessionDetails, takeCells } from './content';
 import type { ReportData } from './content';
@@ -7,7 +8,7 @@ import type { ReportData } from './content';
 // The PDF uses the built-in Helvetica, whose encoding is Windows-1252: other characters are
 // spelled out or simplified so nothing turns into garbage.
 const WIN_ANSI_EXTRA = '€‚ƒ„…†‡ˆ‰Š‹ŒŽ‘’“”•–—˜™š›œžŸ';
-const REPLACE: Record<string, string> = { '−': '-', '‐': '-', '‑': '-', '≤': '<=', '≥': '>=', 'Ł': 'L', 'ł': 'l', 'Đ': 'D', 'đ': 'd', 'ı': 'i', '✓': '', '▲': '', '✕': '', '○': '' };
+const REPLACE: Record<string, string> = { '−': '-', '‐': '-', '‑': '-', '≤': '<=', '≥': '>=', 'Ł': 'L', 'ł': 'l', 'Đ': 'D', 'đ': 'd', 'ı': 'i', '✓': '', '▲': '', '✕': '', '○': '', '●': '', '■': '' };
 
 export function pdfText(text: string): string {
   let out = '';
@@ -29,9 +30,9 @@ const MUTED = '#505a68';
 const LINE = '#cfc9bd';
 const TONE = { pass: '#1a6636', warn: '#855400', fail: '#aa221c', none: MUTED, approved: '#1a6636', rejected: '#aa221c', pending: MUTED } as const;
 
-type Shape = 'check' | 'triangle' | 'cross' | 'circle';
+type Shape = 'check' | 'triangle' | 'cross' | 'circle' | 'dot' | 'square';
 const VERDICT_SHAPE: Record<string, Shape> = { pass: 'check', warn: 'triangle', fail: 'cross', none: 'circle' };
-const DECISION_SHAPE: Record<string, Shape> = { approved: 'check', rejected: 'cross', pending: 'circle' };
+const DECISION_SHAPE: Record<string, Shape> = { approved: 'dot', rejected: 'square', pending: 'circle' };
 
 /** Draws a small status shape (8 pt), so status never depends on colour. */
 function shape(doc: PDFKit.PDFDocument, kind: Shape, x: number, y: number, color: string) {
@@ -39,6 +40,8 @@ function shape(doc: PDFKit.PDFDocument, kind: Shape, x: number, y: number, color
   if (kind === 'check') doc.moveTo(x, y + 4).lineTo(x + 3, y + 7.5).lineTo(x + 8, y).stroke();
   else if (kind === 'triangle') doc.polygon([x + 4, y], [x + 8, y + 7.5], [x, y + 7.5]).fill();
   else if (kind === 'cross') doc.moveTo(x, y).lineTo(x + 7.5, y + 7.5).moveTo(x + 7.5, y).lineTo(x, y + 7.5).stroke();
+  else if (kind === 'dot') doc.circle(x + 4, y + 4, 3.4).fill();
+  else if (kind === 'square') doc.rect(x + 0.5, y + 0.5, 7, 7).fill();
   else doc.circle(x + 4, y + 4, 3.4).stroke();
   doc.restore();
 }
@@ -48,11 +51,11 @@ const COLUMNS = [
   { key: 'format', title: 'Format', width: 118 },
   { key: 'verdict', title: 'Verdict', width: 92 },
   { key: 'decision', title: 'Decision', width: 78 },
-  { key: 'truePeak', title: 'True peak', width: 62 },
-  { key: 'loudness', title: 'Loudness', width: 62 },
-  { key: 'noiseFloor', title: 'Noise floor', width: 62 },
-  { key: 'effectiveBits', title: 'Eff. bits', width: 48 },
-  { key: 'clips', title: 'Clips', width: 62 },
+  { key: 'truePeak', title: MEASURE.truePeak.label, width: 62 },
+  { key: 'loudness', title: MEASURE.integratedLoudness.label, width: 62 },
+  { key: 'noiseFloor', title: MEASURE.noiseFloor.label, width: 62 },
+  { key: 'effectiveBits', title: MEASURE.effectiveBits.label, width: 48 },
+  { key: 'clips', title: MEASURE.clipEvents.label, width: 62 },
 ] as const;
 
 /** The session report as an A4 landscape PDF: details, summary, the take table, the caution. */
@@ -127,12 +130,14 @@ export function reportPdf(data: ReportData): Promise<Buffer> {
     const y = doc.y;
     let x = left;
     doc.font('Helvetica-Bold').fontSize(9).fillColor(INK);
+    // Headings wrap onto a second line where the column is narrower than the glossary's name.
+    const headingHeight = Math.max(...COLUMNS.map((c) => doc.heightOfString(c.title, { width: c.width - 6 })));
     for (const c of COLUMNS) {
-      doc.text(c.title, x + 3, y, { width: c.width - 6, lineBreak: false });
+      doc.text(c.title, x + 3, y, { width: c.width - 6 });
       x += c.width;
     }
-    doc.moveTo(left, y + 13).lineTo(left + width, y + 13).lineWidth(1).strokeColor(INK).stroke();
-    doc.y = y + 17;
+    doc.moveTo(left, y + headingHeight + 2).lineTo(left + width, y + headingHeight + 2).lineWidth(1).strokeColor(INK).stroke();
+    doc.y = y + headingHeight + 6;
   };
   doc.font('Helvetica-Bold').fontSize(12).fillColor(INK).text('Takes', left, doc.y);
   doc.moveDown(0.3);

@@ -2,6 +2,7 @@ import type { Metadata } from 'next';
 import Link from 'next/link';
 import { AlertList } from '@/components/AlertList';
 import { RecorderTrends } from '@/components/RecorderTrends';
+import { DecisionMark, VerdictMark } from '@/components/StatusMarks';
 import { requireActor } from '@/lib/auth/guard.server';
 import { recorderFleetDetail } from '@/lib/fleet/service.server';
 import { DEFAULT_ALERT_SETTINGS } from '@/lib/fleet/alerts';
@@ -9,11 +10,9 @@ import { FLEET_PERIODS, PERIOD_LABEL, parsePeriod } from '@/lib/fleet/views';
 import { loadPage } from '@/lib/http/pages.server';
 import { idParam } from '@/lib/http/route.server';
 import { formatMeasure } from '@/lib/format';
+import { MEASURE, labelWithUnit } from '@/lib/glossary';
 
 export const metadata: Metadata = { title: 'Recorder trends' };
-
-const VERDICT = { pass: '✓ Pass', warn: '▲ Warn', fail: '✕ Fail' } as const;
-const DECISION = { pending: '○ Pending', approved: '● Approved', rejected: '✕ Rejected' } as const;
 
 export default async function RecorderTrendsPage({ params, searchParams }: { params: Promise<{ id: string }>; searchParams: Promise<{ days?: string }> }) {
   const period = parsePeriod((await searchParams).days ?? '90') ?? 90;
@@ -84,11 +83,11 @@ export default async function RecorderTrendsPage({ params, searchParams }: { par
                 <tr>
                   <th scope="col" className="px-3 py-2 font-semibold">Take</th>
                   <th scope="col" className="px-3 py-2 font-semibold">Measured</th>
-                  <th scope="col" className="px-3 py-2 font-semibold">Noise floor (dBFS)</th>
-                  <th scope="col" className="px-3 py-2 font-semibold">Effective bits</th>
-                  <th scope="col" className="px-3 py-2 font-semibold">Loudness (LUFS)</th>
-                  <th scope="col" className="px-3 py-2 font-semibold">True peak (dBTP)</th>
-                  <th scope="col" className="px-3 py-2 font-semibold">Clip events</th>
+                  {(['noiseFloor', 'effectiveBits', 'integratedLoudness', 'truePeak', 'clipEvents'] as const).map((key) => (
+                    <th key={key} scope="col" className="px-3 py-2 font-semibold">
+                      {key === 'effectiveBits' || key === 'clipEvents' ? MEASURE[key].label : labelWithUnit(key)}
+                    </th>
+                  ))}
                   <th scope="col" className="px-3 py-2 font-semibold">Verdict</th>
                   <th scope="col" className="px-3 py-2 font-semibold">Decision</th>
                 </tr>
@@ -111,8 +110,8 @@ export default async function RecorderTrendsPage({ params, searchParams }: { par
                       {t.clipEvents ?? '—'}
                       {t.belowFullScaleClipEvents ? ` (${t.belowFullScaleClipEvents} below 0 dBFS)` : ''}
                     </td>
-                    <td className="px-3 py-2">{t.verdict ? VERDICT[t.verdict] : '—'}</td>
-                    <td className="px-3 py-2">{DECISION[t.decision]}</td>
+                    <td className="px-3 py-2"><VerdictMark verdict={t.verdict} /></td>
+                    <td className="px-3 py-2"><DecisionMark decision={t.decision} /></td>
                   </tr>
                 ))}
               </tbody>
