@@ -17,6 +17,7 @@ import { pathToFileURL } from 'node:url';
 import wavefile from 'wavefile';
 import { LoudnessAnalyzer } from '../dsp/analyzers/loudness';
 import type { AudioFormat } from '../dsp/types';
+import { seededRandom } from '../tests/support/testSignals';
 
 const { WaveFile } = wavefile;
 
@@ -67,18 +68,6 @@ export const DEMO_TAKES: DemoTake[] = [
 ];
 
 const FS = 48000;
-
-/** Deterministic PRNG (mulberry32), uniform in [0, 1). */
-function seeded(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
 /** RBJ audio-EQ-cookbook biquad (band-pass with 0 dB peak, or high-pass), direct form I, in place. */
 class Biquad {
@@ -165,7 +154,7 @@ const VOWELS: [number, number, number][] = [
 
 /** Speech-like programme, mono, peak-normalised to 1 before level setting. */
 function speech(frames: number, fs: number, seed: number): Float64Array {
-  const rand = seeded(seed);
+  const rand = seededRandom(seed);
   const out = new Float64Array(frames);
   const formants = [new Biquad(), new Biquad(), new Biquad()];
   const hiss = new Biquad();
@@ -215,7 +204,7 @@ function speech(frames: number, fs: number, seed: number): Float64Array {
 /** Stereo programme: the voice with a slight level and time offset between channels, plus independent room tone. */
 function programme(frames: number, fs: number, seed: number, roomDbfs: number): [Float64Array, Float64Array] {
   const voice = speech(frames, fs, seed);
-  const rand = seeded(seed + 1);
+  const rand = seededRandom(seed + 1);
   const delay = Math.round(0.0003 * fs);
   const left = new Float64Array(frames);
   const right = new Float64Array(frames);
@@ -283,7 +272,7 @@ function converterFilter(channels: Float64Array[], fs: number): Float64Array[] {
 function build(take: string): { fs: number; bits: 16 | 24; codes: Int32Array[] } {
   const seconds = 12;
   const frames = seconds * FS;
-  const rand = seeded(1000 + take.length * 7 + take.charCodeAt(6));
+  const rand = seededRandom(1000 + take.length * 7 + take.charCodeAt(6));
   const room = (n: number, fs: number, db: number) => [roomTone(n, db, rand), roomTone(n, db, rand)];
   const mix = (a: Float64Array[], b: Float64Array[]) => a.map((c, i) => c.map((v, j) => v + b[i][j]));
   switch (take) {

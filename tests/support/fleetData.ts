@@ -2,6 +2,8 @@ import { Readable } from 'node:stream';
 import { randomUUID } from 'node:crypto';
 import { analyzeStream } from '@/dsp/pipeline';
 import type { AnalysisReport } from '@/dsp/types';
+import { seededRandom } from './testSignals';
+import { encodeSamples, wavFile } from './wavWriter';
 
 /**
  * Test data for the fleet and spec tests: a real analysis of a generated WAV, and rows for
@@ -14,37 +16,18 @@ import type { AnalysisReport } from '@/dsp/types';
  */
 export function sixteenBitTakeWav(sampleRate = 48000): Buffer {
   const frames = Math.round(3.5 * sampleRate);
-  const data = Buffer.alloc(frames * 2 * 3);
-  let state = 12345;
-  const rnd = () => {
-    state ^= state << 13;
-    state ^= state >>> 17;
-    state ^= state << 5;
-    return (state >>> 0) / 2 ** 32 - 0.5;
-  };
+  const random = seededRandom(12345);
+  const audio = [new Float64Array(frames), new Float64Array(frames)];
   for (let i = 0; i < frames; i++) {
     const t = i / sampleRate;
     const loud = t < 2 ? 0.12 * (Math.sin(2 * Math.PI * 220 * t) + Math.sin(2 * Math.PI * 330 * t) + 0.5 * Math.sin(2 * Math.PI * 1250 * t)) : 0;
-    for (let c = 0; c < 2; c++) {
-      const x = loud + 0.0006 * rnd();
-      const code16 = Math.max(-32768, Math.min(32767, Math.round(x * 32767)));
-      data.writeIntLE(code16 * 256, (i * 2 + c) * 3, 3);
+    for (const channel of audio) {
+      const x = loud + 0.0006 * (random() - 0.5);
+      // On the 16-bit grid: the 24-bit container's lowest 8 bits stay zero.
+      channel[i] = Math.max(-32768, Math.min(32767, Math.round(x * 32767))) / 32768;
     }
   }
-  const header = Buffer.alloc(44);
-  header.write('RIFF', 0, 'latin1');
-  header.writeUInt32LE(36 + data.length, 4);
-  header.write('WAVEfmt ', 8, 'latin1');
-  header.writeUInt32LE(16, 16);
-  header.writeUInt16LE(1, 20);
-  header.writeUInt16LE(2, 22);
-  header.writeUInt32LE(sampleRate, 24);
-  header.writeUInt32LE(sampleRate * 6, 28);
-  header.writeUInt16LE(6, 32);
-  header.writeUInt16LE(24, 34);
-  header.write('data', 36, 'latin1');
-  header.writeUInt32LE(data.length, 40);
-  return Buffer.concat([header, data]);
+  return wavFile({ sampleRate, channels: 2, coding: 'pcm24' }, encodeSamples(audio, 'pcm24'));
 }
 
 /** Runs the real measurement pipeline over a WAV held in memory. */

@@ -2,6 +2,7 @@
  * A corpus of damaged and hostile WAV files, made by code: every way a header can be
  * cut short or lie, impossible formats, misplaced chunks and plain noise.
  */
+import { seededRandom } from './testSignals';
 
 interface Chunk {
   id: string;
@@ -50,18 +51,8 @@ function extensibleFmt(subFormatFirstBytes: number, validBits = 24): Buffer {
   return Buffer.concat([base, ext]);
 }
 
-function seeded(seed: number) {
-  let s = seed >>> 0 || 1;
-  return () => {
-    s ^= s << 13;
-    s ^= s >>> 17;
-    s ^= s << 5;
-    return (s >>> 0) / 2 ** 32;
-  };
-}
-
 function noiseBytes(n: number, seed: number): Buffer {
-  const rand = seeded(seed);
+  const rand = seededRandom(seed);
   const out = Buffer.alloc(n);
   for (let i = 0; i < n; i++) out[i] = Math.floor(rand() * 256);
   return out;

@@ -3,6 +3,7 @@
  * "recorded too hot" (the right channel clips at full scale), with a dropout,
  * and helpers to upload one into a fresh session and wait for its measurement.
  */
+import { seededRandom } from './testSignals';
 import { encodeSamples, wavFile } from './wavWriter';
 import type { Client } from './http';
 
@@ -10,18 +11,6 @@ export const REVIEW_RATE = 48_000;
 /** Where the generated take clips (right channel, full scale), seconds. */
 export const CLIP_AT_SEC = 4;
 export const DROPOUT_AT_SEC = 6;
-
-/** Deterministic PRNG (mulberry32) in [0, 1). */
-function prng(seed: number) {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
 /**
  * 8 s, 48 kHz, 24-bit stereo: syllable-shaped tones and noise on both channels,
@@ -31,7 +20,7 @@ function prng(seed: number) {
  */
 export function hotInterviewTake(seed = 1, seconds = 8): Buffer {
   const n = REVIEW_RATE * seconds;
-  const random = prng(seed);
+  const random = seededRandom(seed);
   const left = new Float64Array(n);
   const right = new Float64Array(n);
   for (let i = 0; i < n; i++) {
@@ -83,13 +72,6 @@ export async function waitMeasured(client: Client, takeId: number, timeoutMs = 9
 
 /** Starts like a WAV file (so the upload accepts it) but has no format chunk: the worker cannot read it. */
 export function unreadableWav(): Buffer {
-  const junk = Buffer.alloc(4096, 0x5a);
-  const head = Buffer.alloc(12);
-  head.write('RIFF', 0, 'latin1');
-  head.writeUInt32LE(4 + 8 + junk.length, 4);
-  head.write('WAVE', 8, 'latin1');
-  const chunk = Buffer.alloc(8);
-  chunk.write('junk', 0, 'latin1');
-  chunk.writeUInt32LE(junk.length, 4);
-  return Buffer.concat([head, chunk, junk]);
+  const layout = { sampleRate: REVIEW_RATE, channels: 2, coding: 'pcm24' as const };
+  return wavFile(layout, Buffer.alloc(0), { omitFmt: true, chunksBeforeFmt: [{ id: 'junk', body: Buffer.alloc(4096, 0x5a) }] });
 }

@@ -8,11 +8,12 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import wavefile from 'wavefile';
 import type { Analyzer, AudioFormat, SampleBlock } from '@/dsp/types';
-import { seededRandom } from './testSignals';
+import { seededRandom, sineFrames } from './testSignals';
 
 const { WaveFile } = wavefile;
 
-export { seededRandom };
+// The spectral tests count in frames: their `sine` is the frame-count form of the one generator.
+export { seededRandom, sineFrames as sine };
 
 /** Standard normal deviates by Box–Muller. */
 export function gaussian(rand: () => number): () => number {
@@ -69,13 +70,6 @@ export function pinkNoise(frames: number, rms: number, seed: number): Float64Arr
   return x;
 }
 
-/** A sine of peak amplitude `amplitude` at `hz`, sampled at `sampleRate` (the frequency may exceed Nyquist: it then folds). */
-export function sine(frames: number, sampleRate: number, hz: number, amplitude: number, phase = 0): Float64Array {
-  const x = new Float64Array(frames);
-  const w = (2 * Math.PI * hz) / sampleRate;
-  for (let i = 0; i < frames; i++) x[i] = amplitude * Math.sin(w * i + phase);
-  return x;
-}
 
 export function addInto(target: Float64Array, source: Float64Array, gain = 1): Float64Array {
   for (let i = 0; i < target.length; i++) target[i] += gain * source[i];
@@ -182,7 +176,7 @@ export function speechLike(frames: number, sampleRate: number, peak: number, see
 export function mainsHum(frames: number, sampleRate: number, base: 50 | 60, rmsDbfs: number): Float64Array {
   const amps = [1, 0.7, 0.5, 0.35, 0.25, 0.18];
   const x = new Float64Array(frames);
-  for (let h = 1; h <= amps.length; h++) addInto(x, sine(frames, sampleRate, h * base, amps[h - 1], 0.3 * h));
+  for (let h = 1; h <= amps.length; h++) addInto(x, sineFrames(frames, sampleRate, h * base, amps[h - 1], 0.3 * h));
   let ms = 0;
   for (const a of amps) ms += (a * a) / 2;
   const k = 10 ** (rmsDbfs / 20) / Math.sqrt(ms);

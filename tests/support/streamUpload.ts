@@ -1,24 +1,8 @@
 import { createHash } from 'node:crypto';
 import http from 'node:http';
 import type { Client } from './http';
+import { streamingHeader } from './wavWriter';
 
-/** A 48 kHz stereo 24-bit WAV header for `dataBytes` of audio. */
-function wavHeader(dataBytes: number): Buffer {
-  const h = Buffer.alloc(44);
-  h.write('RIFF', 0, 'latin1');
-  h.writeUInt32LE(Math.min(0xffffffff, 36 + dataBytes), 4);
-  h.write('WAVEfmt ', 8, 'latin1');
-  h.writeUInt32LE(16, 16);
-  h.writeUInt16LE(1, 20);
-  h.writeUInt16LE(2, 22);
-  h.writeUInt32LE(48000, 24);
-  h.writeUInt32LE(48000 * 6, 28);
-  h.writeUInt16LE(6, 32);
-  h.writeUInt16LE(24, 34);
-  h.write('data', 36, 'latin1');
-  h.writeUInt32LE(dataBytes, 40);
-  return h;
-}
 
 /**
  * Streams a generated WAV of about `totalBytes` to a session's upload route without holding it in
@@ -29,7 +13,7 @@ export function streamGeneratedUpload(client: Client, baseUrl: string, sessionId
   const boundary = `takeproof${seed}x${Date.now()}`;
   const head = Buffer.from(`--${boundary}\r\nContent-Disposition: form-data; name="file"; filename="${fileName}"\r\nContent-Type: audio/wav\r\n\r\n`);
   const tail = Buffer.from(`\r\n--${boundary}--\r\n`);
-  const header = wavHeader(dataBytes);
+  const header = streamingHeader({ sampleRate: 48000, channels: 2, coding: 'pcm24' }, dataBytes);
   const chunk = Buffer.alloc(1024 * 1024);
   for (let i = 0; i < chunk.length; i++) chunk[i] = ((i + seed * 7919) * 2654435761) >>> 24;
   const hash = createHash('sha256').update(header);

@@ -1,5 +1,7 @@
 import { readFileSync } from 'node:fs';
 import type { Client } from './http';
+import { seededRandom } from './testSignals';
+import { encodeSamples, wavFile } from './wavWriter';
 
 /**
  * A 24-bit (or 16-bit) PCM WAV of programme-like noise: a seeded generator, so every
@@ -7,35 +9,11 @@ import type { Client } from './http';
  */
 export function makeWav({ seconds = 2, sampleRate = 48000, channels = 2, bits = 24, seed = 1, amplitude = 0.1 } = {}): Buffer {
   const frames = Math.round(seconds * sampleRate);
-  const bytesPerSample = bits / 8;
-  const dataBytes = frames * channels * bytesPerSample;
-  const buffer = Buffer.alloc(44 + dataBytes);
-  buffer.write('RIFF', 0, 'latin1');
-  buffer.writeUInt32LE(36 + dataBytes, 4);
-  buffer.write('WAVEfmt ', 8, 'latin1');
-  buffer.writeUInt32LE(16, 16);
-  buffer.writeUInt16LE(1, 20);
-  buffer.writeUInt16LE(channels, 22);
-  buffer.writeUInt32LE(sampleRate, 24);
-  buffer.writeUInt32LE(sampleRate * channels * bytesPerSample, 28);
-  buffer.writeUInt16LE(channels * bytesPerSample, 32);
-  buffer.writeUInt16LE(bits, 34);
-  buffer.write('data', 36, 'latin1');
-  buffer.writeUInt32LE(dataBytes, 40);
-  let state = seed >>> 0 || 1;
-  const full = 2 ** (bits - 1) - 1;
-  let offset = 44;
-  for (let i = 0; i < frames * channels; i++) {
-    // xorshift32: uniform in [-1, 1)
-    state ^= state << 13;
-    state ^= state >>> 17;
-    state ^= state << 5;
-    const value = Math.round(((state >>> 0) / 2 ** 31 - 1) * amplitude * full);
-    if (bits === 24) buffer.writeIntLE(value, offset, 3);
-    else buffer.writeInt16LE(value, offset);
-    offset += bytesPerSample;
-  }
-  return buffer;
+  const random = seededRandom(seed);
+  const audio = Array.from({ length: channels }, () => new Float64Array(frames));
+  for (let i = 0; i < frames; i++) for (const channel of audio) channel[i] = (2 * random() - 1) * amplitude;
+  const coding = bits === 24 ? 'pcm24' : 'pcm16';
+  return wavFile({ sampleRate, channels, coding }, encodeSamples(audio, coding));
 }
 
 export interface UploadFile {

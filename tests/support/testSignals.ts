@@ -16,15 +16,20 @@ export function seededRandom(seed: number): () => number {
 export const dbToAmplitude = (db: number) => 10 ** (db / 20);
 
 /**
- * A sine: amplitude·sin(2π·f·n/fs + phase).
- * @param frequencyHz Hz; @param amplitude peak, full scale 1.0; @param seconds length; @param sampleRate Hz; @param phaseRad start phase
+ * The one sine generator of the tests: amplitude·sin(2π·f·n/fs + phase) for `frames` samples
+ * (the frequency may exceed Nyquist: it then folds).
+ * @param frames length in samples; @param sampleRate Hz; @param frequencyHz Hz; @param amplitude peak, full scale 1.0; @param phaseRad start phase
  */
-export function sine(frequencyHz: number, amplitude: number, seconds: number, sampleRate: number, phaseRad = 0): Float64Array {
-  const frames = Math.round(seconds * sampleRate);
+export function sineFrames(frames: number, sampleRate: number, frequencyHz: number, amplitude: number, phaseRad = 0): Float64Array {
   const out = new Float64Array(frames);
   const step = (2 * Math.PI * frequencyHz) / sampleRate;
   for (let n = 0; n < frames; n++) out[n] = amplitude * Math.sin(step * n + phaseRad);
   return out;
+}
+
+/** The same sine, `seconds` long. */
+export function sine(frequencyHz: number, amplitude: number, seconds: number, sampleRate: number, phaseRad = 0): Float64Array {
+  return sineFrames(Math.round(seconds * sampleRate), sampleRate, frequencyHz, amplitude, phaseRad);
 }
 
 /** Joins signals end to end. */
