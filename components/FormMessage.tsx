@@ -1,22 +1,23 @@
 /**
  * The outcome line under a form: an error (✕, read out at once) or a confirmation (✓, polite).
- * Renders nothing when there is no message.
+ * Renders nothing when there is no message; `inline` renders it as a span inside a line of controls.
  */
-export function FormMessage({ error, notice, className = '' }: { error?: string | null; notice?: string | null; className?: string }) {
+export function FormMessage({ error, notice, className = '', inline = false, testId }: { error?: string | null; notice?: string | null; className?: string; inline?: boolean; testId?: string }) {
+  const Tag = inline ? 'span' : 'p';
   if (error) {
     return (
-      <p role="alert" className={`tp-field-error ${className}`}>
+      <Tag role="alert" data-testid={testId} className={`tp-field-error ${className}`}>
         <span aria-hidden="true">✕ </span>
         {error}
-      </p>
+      </Tag>
     );
   }
   if (notice) {
     return (
-      <p role="status" className={`text-sm text-pass ${className}`}>
+      <Tag role="status" data-testid={testId} className={`text-sm text-pass ${className}`}>
         <span aria-hidden="true">✓ </span>
         {notice}
-      </p>
+      </Tag>
     );
   }
   return null;

@@ -7,6 +7,7 @@ import { FormField } from './FormField';
 import { FormMessage } from '@/components/FormMessage';
 import { useApiForm } from './useApiForm';
 import type { DeliveryView } from '@/lib/mail/views';
+import { formatDateTime } from '@/lib/format';
 
 const STATUS = {
   sent: { mark: '✓', word: 'Sent', tone: 'text-pass' },
@@ -31,7 +32,7 @@ function DeliveryLine({ delivery, onRetry, busy }: { delivery: DeliveryView; onR
           {s.word}
         </span>
         <span className="break-all">{delivery.recipients.join(', ')}</span>
-        <span className="font-mono text-xs text-muted">{(delivery.sentAt ?? delivery.createdAt).slice(0, 16).replace('T', ' ')} UTC</span>
+        <span className="font-mono text-xs text-muted">{formatDateTime(delivery.sentAt ?? delivery.createdAt)}</span>
         {delivery.sentBy && <span className="text-xs text-muted">by {delivery.sentBy}</span>}
       </div>
       {delivery.status === 'failed' && (

@@ -10,6 +10,7 @@ import type { TeamMember } from '@/lib/team/views';
 import type { DeliveryView } from '@/lib/mail/views';
 import { ROLE_LABEL } from '@/lib/auth/policy';
 import type { Role } from '@/models/User';
+import { formatDateTime } from '@/lib/format';
 
 const KEY = '/api/users';
 const STATUS = {
@@ -19,13 +20,7 @@ const STATUS = {
 } as const;
 
 function Notice({ notice }: { notice: { ok: boolean; text: string } | null }) {
-  if (!notice) return null;
-  return (
-    <p role={notice.ok ? 'status' : 'alert'} data-testid="team-notice" className={`mb-3 text-sm font-semibold ${notice.ok ? 'text-pass' : 'text-fail'}`}>
-      <span aria-hidden="true">{notice.ok ? '✓ ' : '✕ '}</span>
-      {notice.text}
-    </p>
-  );
+  return <FormMessage error={notice && !notice.ok ? notice.text : null} notice={notice?.ok ? notice.text : null} testId="team-notice" className="mb-3 font-semibold" />;
 }
 
 function InviteForm({ onDone }: { onDone: (text: string, ok: boolean) => Promise<void> }) {
@@ -158,7 +153,7 @@ export function TeamManager({ initial, selfId }: { initial: TeamMember[]; selfId
                       {s.word}
                       {u.status === 'invited' && u.invitationExpiresAt && (
                         <span className="block text-xs font-normal text-muted">
-                          {!u.invitationExpired ? `link valid until ${u.invitationExpiresAt.slice(0, 16).replace('T', ' ')} UTC` : 'link expired'}
+                          {!u.invitationExpired ? `link valid until ${formatDateTime(u.invitationExpiresAt)}` : 'link expired'}
                         </span>
                       )}
                       {u.status === 'invited' && u.lastInvitation?.status === 'failed' && (

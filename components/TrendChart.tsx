@@ -3,7 +3,7 @@
 import { useEffect, useRef } from 'react';
 import uPlot from 'uplot';
 import 'uplot/dist/uPlot.min.css';
-import { formatMeasure } from '@/lib/format';
+import { formatDate, formatMeasure } from '@/lib/format';
 
 export interface TrendSeries {
   label: string;
@@ -46,7 +46,7 @@ export function TrendChart({ title, unit, weeks, series, height = 220 }: { title
             { ...axis, label: unit, size: 60 },
           ],
           series: [
-            { label: 'Week', value: (_u, v) => (v == null ? '—' : new Date(v * 1000).toISOString().slice(0, 10)) },
+            { label: 'Week', value: (_u, v) => (v == null ? '—' : formatDate(new Date(v * 1000))) },
             ...series.map((s) => ({
               label: s.label,
               stroke: cssColor(s.token),

@@ -13,6 +13,16 @@ export function formatDuration(seconds: number | null): string {
   return seconds == null ? '—' : formatClock(seconds, 0);
 }
 
+/** An instant as "2026-12-03 14:05 UTC": the one date-and-time format of pages, e-mail and PDF. */
+export function formatDateTime(instant: string | Date): string {
+  return `${new Date(instant).toISOString().slice(0, 16).replace('T', ' ')} UTC`;
+}
+
+/** A day as "2026-12-03" (UTC). */
+export function formatDate(instant: string | Date): string {
+  return new Date(instant).toISOString().slice(0, 10);
+}
+
 /** A size in B, KB, MB or GB (binary multiples, as file managers show them). */
 export function formatBytes(n: number): string {
   if (n >= 1024 ** 3) return `${(n / 1024 ** 3).toFixed(2)} GB`;

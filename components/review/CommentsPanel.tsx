@@ -5,9 +5,10 @@ import { FormField } from '@/components/FormField';
 import { useApiForm } from '@/components/useApiForm';
 import { fetchJson } from '@/lib/http/fetcher';
 import { fieldErrorsOf } from '@/lib/errors';
-import { formatClock, parseClock } from '@/lib/format';
+import { formatClock, formatDateTime, parseClock } from '@/lib/format';
 import { commentSchema } from '@/lib/review/schema';
 import type { TakeCommentView } from '@/lib/review/views';
+import { FormMessage } from '@/components/FormMessage';
 
 /** Time-stamped comments: listed in time order, added at the playhead (or a typed time). */
 export function CommentsPanel({
@@ -66,7 +67,7 @@ export function CommentsPanel({
               </button>{' '}
               <span className="whitespace-pre-line">{c.body}</span>
               <span className="block text-xs text-muted">
-                {c.author?.name ?? 'Former member'} · {new Date(c.createdAt).toLocaleString('en-GB', { dateStyle: 'medium', timeStyle: 'short' })}
+                {c.author?.name ?? 'Former member'} · {formatDateTime(c.createdAt)}
               </span>
             </li>
           ))}
@@ -83,12 +84,7 @@ export function CommentsPanel({
           <button type="submit" className="tp-button" disabled={busy}>
             Add comment
           </button>
-          {error && !Object.keys(fields).length && (
-            <p role="alert" className="tp-field-error">
-              <span aria-hidden="true">✕ </span>
-              {error}
-            </p>
-          )}
+          <FormMessage error={Object.keys(fields).length ? null : error} />
         </form>
       )}
     </section>

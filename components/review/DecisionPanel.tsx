@@ -8,8 +8,8 @@ import { fetchJson } from '@/lib/http/fetcher';
 import { fieldErrorsOf } from '@/lib/errors';
 import { decisionSchema } from '@/lib/review/schema';
 import type { TakeDetail } from '@/lib/takes/views';
-
-const when = (iso: string) => new Date(iso).toLocaleString('en-GB', { dateStyle: 'medium', timeStyle: 'short' });
+import { formatDateTime } from '@/lib/format';
+import { FormMessage } from '@/components/FormMessage';
 
 /** The producer's decision on the take: shown to everyone, made by producers and managers. */
 export function DecisionPanel({ take, canDecide, onDecided }: { take: TakeDetail; canDecide: boolean; onDecided: (take: TakeDetail) => void }) {
@@ -42,7 +42,7 @@ export function DecisionPanel({ take, canDecide, onDecided }: { take: TakeDetail
           <span className="text-muted">
             {' '}
             by {take.decidedBy ?? 'someone no longer in the studio'}
-            {take.decidedAt && <> on {when(take.decidedAt)}</>}
+            {take.decidedAt && <> on {formatDateTime(take.decidedAt)}</>}
           </span>
         )}
         {take.decision === 'pending' && <span className="text-muted"> — no one has decided on this take yet.</span>}
@@ -80,12 +80,7 @@ export function DecisionPanel({ take, canDecide, onDecided }: { take: TakeDetail
             )}
           </div>
           {!measured && <p className="text-xs text-muted">Approval opens once the take has been measured.</p>}
-          {error && !Object.keys(fields).length && (
-            <p role="alert" className="tp-field-error">
-              <span aria-hidden="true">✕ </span>
-              {error}
-            </p>
-          )}
+          <FormMessage error={Object.keys(fields).length ? null : error} />
         </form>
       ) : (
         <p className="mt-3 text-xs text-muted">Producers and studio managers decide on takes.</p>

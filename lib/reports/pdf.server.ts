@@ -4,6 +4,7 @@ import { MEASURE } from '@/lib/glossary';
 import { REPORT_CAUTION } from './labels';
 import { sessionDetails, takeCells } from './content';
 import type { ReportData } from './content';
+import { formatDateTime } from '@/lib/format';
 
 // The PDF uses the built-in Helvetica, whose encoding is Windows-1252: other characters are
 // spelled out or simplified so nothing turns into garbage.
@@ -194,7 +195,7 @@ export function reportPdf(data: ReportData): Promise<Buffer> {
     doc.font('Helvetica').fontSize(8).fillColor(MUTED);
     doc.text(pdfText(REPORT_CAUTION), left, y, { width: width - 80, lineBreak: true, height: 24 });
     doc.text(`Page ${i + 1} of ${range.count}`, left + width - 70, y, { width: 70, align: 'right', lineBreak: false });
-    doc.text(`Generated ${data.generatedAt.toISOString().slice(0, 16).replace('T', ' ')} UTC`, left + width - 200, y + 10, { width: 200, align: 'right', lineBreak: false });
+    doc.text(`Generated ${formatDateTime(data.generatedAt)}`, left + width - 200, y + 10, { width: 200, align: 'right', lineBreak: false });
   }
   doc.end();
   return done;

@@ -5,6 +5,7 @@ import { auditFilterOptions, listAuditEvents } from '@/lib/audit/log.server';
 import { loadPage } from '@/lib/http/pages.server';
 import { auditQuerySchema, type AuditQuery } from '@/lib/audit/schema';
 import type { AuditPage } from '@/lib/audit/views';
+import { formatDateTime } from '@/lib/format';
 
 export const metadata: Metadata = { title: 'Audit log' };
 
@@ -109,7 +110,7 @@ export default async function AuditLogPage({ searchParams }: { searchParams: Pro
               <tbody>
                 {result.events.map((e) => (
                   <tr key={e.id} className="border-t border-line align-top">
-                    <td className="whitespace-nowrap px-4 py-2 font-mono">{e.at.slice(0, 19).replace('T', ' ')}</td>
+                    <td className="whitespace-nowrap px-4 py-2 font-mono">{formatDateTime(e.at)}</td>
                     <td className="px-4 py-2">{e.actor?.name ?? '—'}</td>
                     <td className="px-4 py-2 font-mono">{e.action}</td>
                     <td className="px-4 py-2">{`${e.subjectType}${e.subjectId != null ? ` #${e.subjectId}` : ''}`}</td>

@@ -3,6 +3,7 @@ import Link from 'next/link';
 import { requireActor } from '@/lib/auth/guard.server';
 import { listOutbox } from '@/lib/mail/outbox.server';
 import { loadPage } from '@/lib/http/pages.server';
+import { formatDateTime } from '@/lib/format';
 
 export const metadata: Metadata = { title: 'Outbox' };
 
@@ -32,7 +33,7 @@ export default async function OutboxPage() {
               <tbody>
                 {messages.map((m) => (
                   <tr key={m.id} className="border-t border-line align-top">
-                    <td className="whitespace-nowrap px-4 py-2 font-mono">{m.receivedAt.slice(0, 19).replace('T', ' ')}</td>
+                    <td className="whitespace-nowrap px-4 py-2 font-mono">{formatDateTime(m.receivedAt)}</td>
                     <td className="break-all px-4 py-2">{m.to.join(', ')}</td>
                     <td className="px-4 py-2">
                       <Link href={`/outbox/${m.id}`} className="font-semibold text-accent hover:underline">

@@ -9,7 +9,7 @@ import { DEFAULT_ALERT_SETTINGS } from '@/lib/fleet/alerts';
 import { FLEET_PERIODS, PERIOD_LABEL, parsePeriod } from '@/lib/fleet/views';
 import { loadPage } from '@/lib/http/pages.server';
 import { idParam } from '@/lib/http/route.server';
-import { formatMeasure } from '@/lib/format';
+import { formatDate, formatMeasure } from '@/lib/format';
 import { MEASURE, labelWithUnit } from '@/lib/glossary';
 
 export const metadata: Metadata = { title: 'Recorder trends' };
@@ -101,7 +101,7 @@ export default async function RecorderTrendsPage({ params, searchParams }: { par
                       </Link>
                       <div className="text-xs text-muted">{t.sessionTitle}</div>
                     </td>
-                    <td className="px-3 py-2 font-mono">{t.measuredAt.slice(0, 10)}</td>
+                    <td className="px-3 py-2 font-mono">{formatDate(t.measuredAt)}</td>
                     <td className="px-3 py-2 font-mono">{formatMeasure(t.noiseFloorDbfs)}</td>
                     <td className="px-3 py-2 font-mono">{t.effectiveBits ?? '—'}</td>
                     <td className="px-3 py-2 font-mono">{formatMeasure(t.integratedLufs)}</td>

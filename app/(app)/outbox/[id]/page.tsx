@@ -3,7 +3,7 @@ import Link from 'next/link';
 import { requireActor } from '@/lib/auth/guard.server';
 import { getOutboxMessage } from '@/lib/mail/outbox.server';
 import { loadPage } from '@/lib/http/pages.server';
-import { formatBytes } from '@/lib/format';
+import { formatBytes, formatDateTime } from '@/lib/format';
 
 export const metadata: Metadata = { title: 'Outbox message' };
 
@@ -20,7 +20,7 @@ export default async function OutboxMessagePage({ params }: { params: Promise<{ 
       <h1 className="mb-3 text-2xl font-semibold">{m.subject || '(no subject)'}</h1>
       <dl className="tp-card mb-4 grid gap-x-4 gap-y-1 p-4 text-sm sm:grid-cols-[8rem_1fr]">
         <dt className="text-muted">Received</dt>
-        <dd className="font-mono">{m.receivedAt.slice(0, 19).replace('T', ' ')} UTC</dd>
+        <dd className="font-mono">{formatDateTime(m.receivedAt)}</dd>
         <dt className="text-muted">From</dt>
         <dd className="break-all">{m.from}</dd>
         <dt className="text-muted">To</dt>
