@@ -8,6 +8,7 @@ import { FLEET_PERIODS, PERIOD_LABEL, type FleetPeriod, type FleetRow } from '@/
 import { fleetKey } from '@/lib/http/swrKeys';
 import { Sparkline } from './Sparkline';
 import { formatMeasure } from '@/lib/format';
+import { FormMessage } from './FormMessage';
 
 type SortKey = 'label' | 'takes' | 'medianFloorDbfs' | 'clippedShare' | 'minEffectiveBits' | 'overTakes' | 'rateMismatchTakes' | 'aliasingTakes' | 'rejectRate' | 'alerts';
 
@@ -69,11 +70,7 @@ export function FleetTable({ initialPeriod }: { initialPeriod: FleetPeriod }) {
           </select>
         </label>
       </div>
-      {error && (
-        <p role="alert" className="p-4 text-fail">
-          ✕ {error.message}
-        </p>
-      )}
+      <FormMessage error={error?.message} className="p-4" />
       {!error && isLoading && !data && <p className="p-4 text-muted">Loading the fleet…</p>}
       {data && rows.length === 0 && <p className="p-6 text-muted">No recorders yet. <Link href="/recorders" className="text-accent underline">Add one</Link>.</p>}
       {rows.length > 0 && (

@@ -6,17 +6,10 @@ import { BEXT_MATCH_HELP } from '@/lib/recorders/schema';
 import { FormField } from './FormField';
 import { useApiForm } from './useApiForm';
 import { FormMessage } from '@/components/FormMessage';
+import type { RecorderView } from '@/lib/recorders/views';
 
-interface RecorderValues {
-  id?: number;
-  label: string;
-  makeModel: string | null;
-  serial: string | null;
-  location: string | null;
-  notes: string | null;
-  bextMatch: string | null;
-  active?: boolean;
-}
+/** A recorder's editable fields; `id` and `active` only once it exists. */
+type RecorderValues = Pick<RecorderView, 'label' | 'makeModel' | 'serial' | 'location' | 'notes' | 'bextMatch'> & Partial<Pick<RecorderView, 'id' | 'active'>>;
 
 const EMPTY: RecorderValues = { label: '', makeModel: null, serial: null, location: null, notes: null, bextMatch: null };
 

@@ -6,6 +6,7 @@ import useSWR from 'swr';
 import { type ApiError } from '@/lib/http/fetcher';
 import { sessionsKey } from '@/lib/http/swrKeys';
 import type { SessionSummary } from '@/lib/sessions/views';
+import { FormMessage } from './FormMessage';
 
 /** The studio's sessions with search and an open/closed filter. */
 export function SessionList() {
@@ -33,11 +34,7 @@ export function SessionList() {
           </select>
         </label>
       </div>
-      {error && (
-        <p role="alert" className="p-4 text-fail">
-          ✕ {error.message}
-        </p>
-      )}
+      <FormMessage error={error?.message} className="p-4" />
       {!error && isLoading && !data && <p className="p-4 text-muted">Loading sessions…</p>}
       {!error && data && sessions.length === 0 && (
         <p className="p-6 text-muted">{q || status !== 'all' ? 'No session matches this search.' : 'No sessions yet. Start one with the form on this page.'}</p>

@@ -8,6 +8,7 @@ import { describeFormat, formatDuration, formatMeasure } from '@/lib/format';
 import { DECISION_LABEL, MEASURE, VERDICT_LABEL } from '@/lib/glossary';
 import type { TakeSummary } from '@/lib/takes/views';
 import { DecisionMark, TakeStatusMark, VerdictMark } from './StatusMarks';
+import { FormMessage } from './FormMessage';
 
 type SortKey = 'originalName' | 'recorderLabel' | 'durationSec' | 'effectiveBits' | 'truePeakDbtp' | 'integratedLufs' | 'noiseFloorDbfs' | 'clipEvents' | 'verdict' | 'decision';
 
@@ -105,11 +106,7 @@ export function TakeTable({ takesKey }: { takesKey: string }) {
           {counts.waiting > 0 && <span className="text-muted">◷ {counts.waiting} still measuring</span>}
         </p>
       )}
-      {error && (
-        <p role="alert" className="p-4 text-fail">
-          ✕ {error.message}
-        </p>
-      )}
+      <FormMessage error={error?.message} className="p-4" />
       {!error && !data && <p className="p-4 text-muted">Loading takes…</p>}
       {data && takes.length === 0 && <p className="p-6 text-muted">No takes yet. Drop the session’s WAV files into “Add takes”.</p>}
       {takes.length > 0 && shown.length === 0 && <p className="p-6 text-muted">No take matches these filters.</p>}

@@ -1,5 +1,6 @@
 import { beforeAll, describe, expect, it } from 'vitest';
 import { signedInAll, type Client, type DemoPerson } from '../support/http';
+import type { AuditEntry } from '@/lib/audit/views';
 
 let as: Record<DemoPerson | 'anonymous', Client>;
 let engineerId: number;
@@ -10,14 +11,7 @@ let firstDay: string;
 let lastDay: string;
 const utcDay = () => new Date().toISOString().slice(0, 10);
 
-interface Entry {
-  id: number;
-  at: string;
-  action: string;
-  actor: { id: number; name: string } | null;
-  subjectType: string;
-  subjectId: number | null;
-}
+type Entry = AuditEntry;
 
 async function audit(client: Client, query: string) {
   const response = await client.fetch(`/api/audit${query}`);

@@ -3,6 +3,7 @@ import { db } from '@/lib/db/connection.server';
 import { Take, User } from '@/models';
 import { signedInAll, type Client, type DemoPerson } from '../support/http';
 import { summaryTake, type SummaryRow } from '../support/fleetData';
+import type { FleetRow } from '@/lib/fleet/views';
 
 let as: Record<DemoPerson | 'anonymous', Client>;
 const unique = () => Math.random().toString(36).slice(2, 8);
@@ -10,19 +11,7 @@ const DAY = 86_400_000;
 const ago = (days: number) => new Date(Date.now() - days * DAY);
 
 interface Fleet {
-  recorders: {
-    id: number;
-    takes: number;
-    medianFloorDbfs: number | null;
-    clippedShare: number | null;
-    minEffectiveBits: number | null;
-    overTakes: number;
-    rateMismatchTakes: number;
-    aliasingTakes: number;
-    rejectRate: number | null;
-    weeks: { weekStart: string; medianFloorDbfs: number | null }[];
-    alerts: { kind: string; severity: string; title: string }[];
-  }[];
+  recorders: FleetRow[];
 }
 
 // Known takes, computed on independently below.
