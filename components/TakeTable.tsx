@@ -80,18 +80,22 @@ export function TakeTable({ takesKey }: { takesKey: string }) {
           <span className="tp-label">Verdict</span>
           <select className="tp-input" value={filter.verdict} onChange={(e) => setFilter({ ...filter, verdict: e.target.value })}>
             <option value="all">All</option>
-            <option value="pass">Pass</option>
-            <option value="warn">Warn</option>
-            <option value="fail">Fail</option>
+            {(['pass', 'warn', 'fail'] as const).map((v) => (
+              <option key={v} value={v}>
+                {VERDICT_LABEL[v].word}
+              </option>
+            ))}
           </select>
         </label>
         <label className="text-sm">
           <span className="tp-label">Decision</span>
           <select className="tp-input" value={filter.decision} onChange={(e) => setFilter({ ...filter, decision: e.target.value })}>
             <option value="all">All</option>
-            <option value="pending">Pending</option>
-            <option value="approved">Approved</option>
-            <option value="rejected">Rejected</option>
+            {(['pending', 'approved', 'rejected'] as const).map((d) => (
+              <option key={d} value={d}>
+                {DECISION_LABEL[d].word}
+              </option>
+            ))}
           </select>
         </label>
       </div>
