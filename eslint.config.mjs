@@ -22,6 +22,9 @@ const layers = {
         if (clientModule && !typeOnly && /\.server$/.test(source)) {
           context.report({ node, message: `A 'use client' module must not import the server-only module ${source}; import its views.ts instead.` });
         }
+        if (/\/lib\/.*(?<!\.server)\.tsx?$/.test(file) && !typeOnly && /\.server$/.test(source)) {
+          context.report({ node, message: `A browser-safe lib module must not import ${source}: name this file *.server.ts, or move what it needs out of the server module.` });
+        }
         if (/\/lib\//.test(file) && /^@\/components\//.test(source)) {
           context.report({ node, message: 'lib/ must not import from components/: move the shared type or helper into lib/.' });
         }

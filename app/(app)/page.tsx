@@ -18,7 +18,7 @@ export default async function OverviewPage() {
     const uploads = can(actor.role, 'take:upload');
     return {
       actor,
-      sessions: await openSessionsFor(actor, !can(actor.role, 'session:view-all-open')),
+      sessions: await openSessionsFor(actor, !can(actor.role, 'session:oversee')),
       measuring: uploads ? await takesInMeasurement(actor) : null,
       review: can(actor.role, 'take:decide') ? await takesAwaitingReview(actor) : null,
       rejects: can(actor.role, 'fleet:view') ? await recentRejects(actor) : null,

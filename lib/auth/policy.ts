@@ -7,7 +7,7 @@ import type { Role } from '@/models/User';
 export const CAPABILITIES = {
   'session:view': ['engineer', 'producer', 'manager'],
   /** The overview lists every open session of the studio, not only the ones the person runs. */
-  'session:view-all-open': ['producer', 'manager'],
+  'session:oversee': ['producer', 'manager'],
   'session:create': ['engineer', 'manager'],
   /** A session this person creates without naming an engineer names them its engineer. */
   'session:run': ['engineer'],
