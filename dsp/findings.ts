@@ -1,11 +1,9 @@
 import type { DeliverySpec } from './spec';
-import { channelName, formatClock, formatKhz, plural } from './format';
+import { channelName as positionName, formatClock, formatKhz, plural } from './format';
 import type { AnalysisReport, Finding, Severity } from './types';
 
 /** A DC offset this many times the spec's limit fails instead of warning [common practice]. */
 const DC_FAIL_FACTOR = 10;
-/** Share of anti-phase windows worth a warning [common practice: more than 5 % of programme]. */
-const ANTI_PHASE_SHARE_WARN = 0.05;
 /** Dropouts and clip events spelled out one by one before the rest are summed up. */
 const LISTED_EVENTS = 5;
 
@@ -21,6 +19,8 @@ export function judgeReport(report: AnalysisReport, spec: DeliverySpec): Finding
   const add = (finding: Finding) => findings.push(finding);
   const channelCount = report.file.channels;
   const strict: Severity = spec.loudnessIsStrict ? 'fail' : 'warn';
+  const poly = report.file.layout === 'poly';
+  const channelName = (channel: number) => positionName(channel, channelCount, { name: report.channels[channel]?.name ?? null, isTrack: poly });
 
   // container
   for (const issue of report.file.headerIssues ?? []) add({ check: 'container', severity: 'warn', message: issue });
@@ -88,14 +88,34 @@ export function judgeReport(report: AnalysisReport, spec: DeliverySpec): Finding
         const where = events.slice(0, LISTED_EVENTS).map((event) => formatClock(event.startSec)).join(', ') + (events.length > LISTED_EVENTS ? ', ...' : '');
         const what =
           kind === 'fullScale'
-            ? `${plural(events.length, 'clipping event')} on ${channelName(channel, channelCount)} at full scale (at ${where})`
-            : `${plural(events.length, 'clipping event')} on ${channelName(channel, channelCount)}, flat-topped at ${db(first.levelDbfs)} dBFS (at ${where}): something before the converter clipped and the level was lowered afterwards`;
+            ? `${plural(events.length, 'clipping event')} on ${channelName(channel)} at full scale (at ${where})`
+            : `${plural(events.length, 'clipping event')} on ${channelName(channel)}, flat-topped at ${db(first.levelDbfs)} dBFS (at ${where}): something before the converter clipped and the level was lowered afterwards`;
         add({ check: 'clipping', severity, message: `${what[0].toUpperCase()}${what.slice(1)}.`, channel, startSec: first.startSec, endSec: first.endSec });
       }
     }
   }
-  if (encoding === 'float' && report.peak.samplePeakDbfs !== null && report.peak.samplePeakDbfs > 0) {
-    add({ check: 'clipping', severity: 'warn', message: `Float samples reach ${db(report.peak.samplePeakDbfs, 2)} dBFS, above full scale: they will clip when converted to fixed point.` });
+  // float sample values
+  const samples = report.samples;
+  if (samples && samples.nonFinite > 0) {
+    const channels = report.channels.map((channel, index) => ((channel.nonFiniteSamples ?? 0) > 0 ? index : -1)).filter((index) => index >= 0);
+    add({
+      check: 'non-finite',
+      severity: 'fail',
+      message: `${plural(samples.nonFinite, 'sample')} ${samples.nonFinite === 1 ? 'is' : 'are'} not a number (NaN or infinity), the first at ${formatClock(samples.firstNonFiniteSec ?? 0)} on ${channels.length === 1 ? channelName(channels[0]) : plural(channels.length, 'channel')}: the file is damaged; they were measured as silence.`,
+      ...(channels.length === 1 ? { channel: channels[0] } : {}),
+      ...(samples.firstNonFiniteSec !== null ? { startSec: samples.firstNonFiniteSec, endSec: samples.firstNonFiniteSec } : {}),
+    });
+  }
+  if (encoding === 'float' && samples && samples.overFullScale > 0 && report.peak.samplePeakDbfs !== null) {
+    add({
+      check: 'over-full-scale',
+      severity: 'warn',
+      message: `${plural(samples.overFullScale, 'float sample')} ${samples.overFullScale === 1 ? 'goes' : 'go'} over full scale (up to ${db(report.peak.samplePeakDbfs, 2)} dBFS, first at ${formatClock(samples.firstOverFullScaleSec ?? 0)}): not clipped yet, but ${samples.overFullScale === 1 ? 'it' : 'they'} will clip when converted to fixed point.`,
+      ...(samples.firstOverFullScaleSec !== null ? { startSec: samples.firstOverFullScaleSec, endSec: samples.firstOverFullScaleSec } : {}),
+    });
+  } else if (encoding === 'float' && !samples && report.peak.samplePeakDbfs !== null && report.peak.samplePeakDbfs > 0) {
+    // Reports made before over-full-scale samples were counted.
+    add({ check: 'over-full-scale', severity: 'warn', message: `Float samples reach ${db(report.peak.samplePeakDbfs, 2)} dBFS, over full scale: not clipped yet, but they will clip when converted to fixed point.` });
   }
 
   // true peak
@@ -104,7 +124,7 @@ export function judgeReport(report: AnalysisReport, spec: DeliverySpec): Finding
       add({
         check: 'true-peak',
         severity: channel.truePeakDbtp > 0 ? 'fail' : strict,
-        message: `True peak on ${channelName(index, channelCount)} reaches ${db(channel.truePeakDbtp)} dBTP${channel.truePeakAtSec !== undefined ? ` at ${formatClock(channel.truePeakAtSec)}` : ''}, above the ${db(spec.maxTruePeakDbtp)} dBTP limit.`,
+        message: `True peak on ${channelName(index)} reaches ${db(channel.truePeakDbtp)} dBTP${channel.truePeakAtSec !== undefined ? ` at ${formatClock(channel.truePeakAtSec)}` : ''}, above the ${db(spec.maxTruePeakDbtp)} dBTP limit.`,
         channel: index,
         ...(channel.truePeakAtSec !== undefined ? { startSec: channel.truePeakAtSec, endSec: channel.truePeakAtSec } : {}),
       });
@@ -113,7 +133,9 @@ export function judgeReport(report: AnalysisReport, spec: DeliverySpec): Finding
 
   // loudness
   const integrated = report.loudness.integratedLufs;
-  if (integrated === null) {
+  if (poly) {
+    // Iso tracks are raw material, not a programme: their loudness is reported per track, not judged.
+  } else if (integrated === null) {
     if (anySignal) add({ check: 'loudness', severity: 'info', message: 'The take is too short or too quiet for an integrated loudness reading.' });
   } else if (Math.abs(integrated - spec.loudnessTargetLufs) > spec.loudnessToleranceLu) {
     const direction = integrated > spec.loudnessTargetLufs ? 'louder' : 'quieter';
@@ -144,12 +166,13 @@ export function judgeReport(report: AnalysisReport, spec: DeliverySpec): Finding
 
   // DC offset
   report.channels.forEach((channel, index) => {
-    const offset = Math.abs(channel.dcOffset);
+    // The steady offset (the quiet windows' mean), so an asymmetric waveform's mean is not taken for a converter's offset.
+    const offset = Math.abs(channel.steadyDcOffset ?? channel.dcOffset);
     if (!channel.silent && offset > spec.maxDcOffset) {
       add({
         check: 'dc-offset',
         severity: offset > DC_FAIL_FACTOR * spec.maxDcOffset ? 'fail' : 'warn',
-        message: `${capitalise(channelName(index, channelCount))} has a DC offset of ${(offset * 100).toPrecision(2)}% of full scale (${db(20 * Math.log10(offset))} dBFS).`,
+        message: `${capitalise(channelName(index))} has a DC offset of ${(offset * 100).toPrecision(2)}% of full scale (${db(20 * Math.log10(offset))} dBFS).`,
         channel: index,
       });
     }
@@ -170,10 +193,18 @@ export function judgeReport(report: AnalysisReport, spec: DeliverySpec): Finding
   if (report.file.frames === 0) {
     add({ check: 'container', severity: 'fail', message: 'The file holds no audio at all.' });
   } else if (silentChannels.length === channelCount) {
-    add({ check: 'silent-channel', severity: 'fail', message: 'The whole take is silent: no channel carries a signal.' });
+    const noiseOnly = report.channels.every((channel) => channel.silentKind === 'noise-only');
+    add({ check: 'silent-channel', severity: 'fail', message: noiseOnly ? 'The whole take carries no programme, only a steady noise: check the inputs, cables and routing.' : 'The whole take is silent: no channel carries a signal.' });
   } else {
     for (const index of silentChannels) {
-      add({ check: 'silent-channel', severity: 'fail', message: `${capitalise(channelName(index, channelCount))} carries no signal: check the input, cable or routing.`, channel: index });
+      const noiseOnly = report.channels[index].silentKind === 'noise-only';
+      const what = noiseOnly ? 'carries only a steady noise, no programme' : 'carries no signal';
+      if (poly) {
+        // An iso track left unused is normal on a location recorder.
+        add({ check: 'silent-channel', severity: 'info', message: `${capitalise(channelName(index))} ${what}: an unused track.`, channel: index });
+      } else {
+        add({ check: 'silent-channel', severity: 'fail', message: `${capitalise(channelName(index))} ${what}: check the input, cable or routing.`, channel: index });
+      }
     }
   }
 
@@ -183,9 +214,17 @@ export function judgeReport(report: AnalysisReport, spec: DeliverySpec): Finding
     if (stereo.identicalChannels) {
       add({ check: 'stereo', severity: 'info', message: 'Both channels are identical: this is a mono take in a stereo file.' });
     } else if (stereo.polarityInverted) {
-      add({ check: 'stereo', severity: 'warn', message: `The channels are in opposite polarity (correlation ${db(stereo.correlation, 2)}): one of them is probably wired inverted; the take will cancel when summed to mono.` });
-    } else if ((stereo.antiPhaseShare ?? 0) > ANTI_PHASE_SHARE_WARN) {
-      add({ check: 'stereo', severity: 'warn', message: `${Math.round((stereo.antiPhaseShare ?? 0) * 100)}% of the take is in anti-phase between left and right: it will lose level when summed to mono.` });
+      const from = stereo.invertedFromSec ?? null;
+      const to = stereo.invertedToSec ?? null;
+      const partial = from !== null && to !== null && (from > 0.5 || to < report.file.durationSec - 5.5);
+      add({
+        check: 'stereo',
+        severity: 'warn',
+        message: partial
+          ? `The channels are in opposite polarity from ${formatClock(from)} to ${formatClock(to)}: one of them was probably wired inverted there; that part will cancel when summed to mono.`
+          : 'The channels are in opposite polarity: one of them is probably wired inverted; the take will cancel when summed to mono.',
+        ...(from !== null && to !== null ? { startSec: from, endSec: to } : {}),
+      });
     }
   }
 

@@ -16,8 +16,19 @@ const ENTRY_SLOPE_FACTOR = 4;
 const EXTREME_LEVEL_WINDOW_DB = 0.5;
 /** At least this many flat tops at the extreme make a below-full-scale clip [common practice]. */
 const MIN_FLAT_TOPS = 3;
-/** Histogram bins per unit of full scale (magnitudes >= MIN_FLAT_TOP_LEVEL only). */
+/** Histogram bins per unit of full scale. */
 const HISTOGRAM_BINS_PER_UNIT = 2048;
+/**
+ * Histograms are filled from this magnitude up: far enough below MIN_FLAT_TOP_LEVEL that the bins a
+ * flat top at -20 dBFS is compared with are filled too (0.08 = -21.9 dBFS).
+ */
+const HISTOGRAM_FLOOR = 0.08;
+/**
+ * Of the half-cycles whose peak lies at a flat-top level, at least this share must be flat [common practice]:
+ * a clipping stage flattens every peak that reaches its level, while the rounded peaks of clean speech
+ * that happen to stop there are nearly all rounded.
+ */
+const MIN_FLAT_SHARE = 0.5;
 /** The flat-top level's bin must hold this many times the mean of the bins just below it [common practice]. */
 const HISTOGRAM_SPIKE_RATIO = 4;
 /** Merged groups kept per channel and kind; clean audio has a handful. */
@@ -61,6 +72,11 @@ class ChannelClipState {
   readonly flatTopGroups: [ClipGroup[], ClipGroup[]] = [[], []];
   readonly positiveHistogram = new Uint32Array(HISTOGRAM_BINS_PER_UNIT + 2);
   readonly negativeHistogram = new Uint32Array(HISTOGRAM_BINS_PER_UNIT + 2);
+  /** Peak magnitude of each half-cycle (between sign changes), binned like the sample histograms. */
+  readonly positivePeaks = new Uint32Array(HISTOGRAM_BINS_PER_UNIT + 2);
+  readonly negativePeaks = new Uint32Array(HISTOGRAM_BINS_PER_UNIT + 2);
+  halfCycleSign = 0;
+  halfCycleMax = 0;
 }
 
 /**
@@ -78,6 +94,8 @@ export class ClippingAnalyzer implements Analyzer<ClippingResult> {
   private readonly channelCount: number;
   private readonly positiveLimit: number;
   private readonly negativeLimit: number;
+  /** Float only: beyond this a sample is over full scale, not clipped at it. */
+  private readonly positiveCeiling: number;
   private readonly toleranceFloor: number;
   private readonly states: ChannelClipState[];
   private readonly mergeGapFrames: number;
@@ -91,12 +109,14 @@ export class ClippingAnalyzer implements Analyzer<ClippingResult> {
       // Float: at or beyond the 16-bit top code, so float files carrying 16- or 24-bit data are covered.
       this.positiveLimit = 1 - 2 ** -15;
       this.negativeLimit = -(1 - 2 ** -15);
+      this.positiveCeiling = 1 + 2 ** -15;
       this.toleranceFloor = FLAT_TOP_LSB_TOLERANCE * 2 ** -23;
     } else {
       const validBits = Math.min(format.validBitsPerSample || format.bitsPerSample, format.bitsPerSample);
       // Top codes: +(2^(n-1) - 1) and -2^(n-1) of the valid bits, left-justified (WAVEFORMATEXTENSIBLE).
       this.positiveLimit = 1 - 2 ** (1 - validBits);
       this.negativeLimit = -1;
+      this.positiveCeiling = Number.POSITIVE_INFINITY;
       this.toleranceFloor = FLAT_TOP_LSB_TOLERANCE * 2 ** (1 - validBits);
     }
     this.mergeGapFrames = Math.round(MERGE_GAP_SEC * format.sampleRate);
@@ -110,6 +130,11 @@ export class ClippingAnalyzer implements Analyzer<ClippingResult> {
   private pushChannel(state: ChannelClipState, samples: Float64Array, frames: number, startFrame: number): void {
     const positiveLimit = this.positiveLimit;
     const negativeLimit = this.negativeLimit;
+    const positiveCeiling = this.positiveCeiling;
+    const positivePeaks = state.positivePeaks;
+    const negativePeaks = state.negativePeaks;
+    let halfCycleSign = state.halfCycleSign;
+    let halfCycleMax = state.halfCycleMax;
     const toleranceFloor = this.toleranceFloor;
     const positiveHistogram = state.positiveHistogram;
     const negativeHistogram = state.negativeHistogram;
@@ -133,7 +158,8 @@ export class ClippingAnalyzer implements Analyzer<ClippingResult> {
       const magnitude = x < 0 ? -x : x;
 
       // Full-scale runs.
-      const atLimit = x >= positiveLimit ? 1 : x <= negativeLimit ? -1 : 0;
+      // A float sample beyond full scale is not clipped (yet): the levels analyzer counts it.
+      const atLimit = x >= positiveLimit ? (x <= positiveCeiling ? 1 : 0) : x <= negativeLimit ? (x >= -positiveCeiling ? -1 : 0) : 0;
       if (atLimit !== 0 || fullScaleRunLength !== 0) {
         if (atLimit !== 0 && atLimit === fullScaleRunSign) {
           fullScaleRunLength++;
@@ -145,12 +171,24 @@ export class ClippingAnalyzer implements Analyzer<ClippingResult> {
         }
       }
 
-      if (magnitude >= MIN_FLAT_TOP_LEVEL) {
+      if (magnitude >= HISTOGRAM_FLOOR) {
         let bin = (magnitude * HISTOGRAM_BINS_PER_UNIT) | 0;
         if (bin > topBin) bin = topBin;
         if (x > 0) positiveHistogram[bin]++;
         else negativeHistogram[bin]++;
       }
+      const sign = x > 0 ? 1 : x < 0 ? -1 : 0;
+      if (sign !== 0 && sign !== halfCycleSign) {
+        if (halfCycleMax >= HISTOGRAM_FLOOR) {
+          let bin = (halfCycleMax * HISTOGRAM_BINS_PER_UNIT) | 0;
+          if (bin > topBin) bin = topBin;
+          if (halfCycleSign > 0) positivePeaks[bin]++;
+          else negativePeaks[bin]++;
+        }
+        halfCycleSign = sign;
+        halfCycleMax = 0;
+      }
+      if (magnitude > halfCycleMax) halfCycleMax = magnitude;
 
       // Flat-top runs below full scale: same polarity, within tolerance of the run's first sample.
       if (flatRunLength > 0) {
@@ -196,6 +234,8 @@ export class ClippingAnalyzer implements Analyzer<ClippingResult> {
     state.previous2 = previous2;
     state.previous3 = previous3;
     state.previousAtLimit = previousAtLimit;
+    state.halfCycleSign = halfCycleSign;
+    state.halfCycleMax = halfCycleMax;
   }
 
   /** Adds a run to the groups, merging it into the last group when close in time and (for flat tops) in level. */
@@ -250,6 +290,15 @@ export class ClippingAnalyzer implements Analyzer<ClippingResult> {
     return spike >= HISTOGRAM_SPIKE_RATIO * Math.max(1, below / width);
   }
 
+  /** Half-cycles whose peak lies within [low, high] (linear magnitudes). */
+  private static peaksBetween(peaks: Uint32Array, low: number, high: number): number {
+    const first = Math.max(0, Math.floor(low * HISTOGRAM_BINS_PER_UNIT));
+    const last = Math.min(HISTOGRAM_BINS_PER_UNIT + 1, Math.floor(high * HISTOGRAM_BINS_PER_UNIT));
+    let count = 0;
+    for (let bin = first; bin <= last; bin++) count += peaks[bin];
+    return count;
+  }
+
   finish(): ClippingResult {
     const events: ClipEvent[] = [];
     const channelClippedSamples: number[] = [];
@@ -266,6 +315,10 @@ export class ClippingAnalyzer implements Analyzer<ClippingResult> {
           const meanLevel = cluster.reduce((sum, group) => sum + group.level * group.runs, 0) / flatTops;
           const tolerance = Math.max(this.toleranceFloor, meanLevel * FLAT_TOP_RELATIVE_TOLERANCE);
           if (!ClippingAnalyzer.isHistogramSpike(histogram, meanLevel, tolerance)) continue;
+          const lowest = Math.min(...cluster.map((group) => group.level));
+          const highest = Math.max(...cluster.map((group) => group.level));
+          const peaks = ClippingAnalyzer.peaksBetween(polarity === 0 ? state.positivePeaks : state.negativePeaks, lowest - 2 * tolerance, highest + 2 * tolerance);
+          if (flatTops < MIN_FLAT_SHARE * peaks) continue;
           for (const group of cluster) kept.push({ ...group, kind: 'belowFullScale' });
         }
       }

@@ -14,5 +14,5 @@ export type FromWorker =
   | { kind: 'ready' }
   /** A block is done; its buffers come back for reuse. */
   | { kind: 'done'; channels: Float64Array[] }
-  | { kind: 'results'; truePeak: TruePeakResult; loudness: LoudnessResult; clipping: ClippingResult }
+  | { kind: 'results'; truePeak: TruePeakResult; loudness: LoudnessResult; trackLoudness: LoudnessResult[] | null; clipping: ClippingResult }
   | { kind: 'failed'; message: string };
