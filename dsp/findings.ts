@@ -90,7 +90,11 @@ export function judgeReport(report: AnalysisReport, spec: DeliverySpec): Finding
           kind === 'fullScale'
             ? `${plural(events.length, 'clipping event')} on ${channelName(channel)} at full scale (at ${where})`
             : `${plural(events.length, 'clipping event')} on ${channelName(channel)}, flat-topped at ${db(first.levelDbfs)} dBFS (at ${where}): something before the converter clipped and the level was lowered afterwards`;
-        add({ check: 'clipping', severity, message: `${what[0].toUpperCase()}${what.slice(1)}.`, channel, startSec: first.startSec, endSec: first.endSec });
+        const summary =
+          kind === 'fullScale'
+            ? `Clipped at full scale: ${plural(events.length, 'event')} on ${channelName(channel)}, first at ${formatClock(first.startSec)}`
+            : `Clipped before the converter: ${plural(events.length, 'flat top')} at ${db(first.levelDbfs)} dBFS on ${channelName(channel)}`;
+        add({ check: 'clipping', severity, message: `${what[0].toUpperCase()}${what.slice(1)}.`, summary, channel, startSec: first.startSec, endSec: first.endSec });
       }
     }
   }
@@ -101,6 +105,7 @@ export function judgeReport(report: AnalysisReport, spec: DeliverySpec): Finding
     add({
       check: 'non-finite',
       severity: 'fail',
+      summary: `Damaged file: ${plural(samples.nonFinite, 'sample')} not a number, first at ${formatClock(samples.firstNonFiniteSec ?? 0)}`,
       message: `${plural(samples.nonFinite, 'sample')} ${samples.nonFinite === 1 ? 'is' : 'are'} not a number (NaN or infinity), the first at ${formatClock(samples.firstNonFiniteSec ?? 0)} on ${channels.length === 1 ? channelName(channels[0]) : plural(channels.length, 'channel')}: the file is damaged; they were measured as silence.`,
       ...(channels.length === 1 ? { channel: channels[0] } : {}),
       ...(samples.firstNonFiniteSec !== null ? { startSec: samples.firstNonFiniteSec, endSec: samples.firstNonFiniteSec } : {}),
@@ -110,6 +115,7 @@ export function judgeReport(report: AnalysisReport, spec: DeliverySpec): Finding
     add({
       check: 'over-full-scale',
       severity: 'warn',
+      summary: `Float samples over full scale (${db(report.peak.samplePeakDbfs, 1)} dBFS): will clip in fixed point`,
       message: `${plural(samples.overFullScale, 'float sample')} ${samples.overFullScale === 1 ? 'goes' : 'go'} over full scale (up to ${db(report.peak.samplePeakDbfs, 2)} dBFS, first at ${formatClock(samples.firstOverFullScaleSec ?? 0)}): not clipped yet, but ${samples.overFullScale === 1 ? 'it' : 'they'} will clip when converted to fixed point.`,
       ...(samples.firstOverFullScaleSec !== null ? { startSec: samples.firstOverFullScaleSec, endSec: samples.firstOverFullScaleSec } : {}),
     });
@@ -124,6 +130,7 @@ export function judgeReport(report: AnalysisReport, spec: DeliverySpec): Finding
       add({
         check: 'true-peak',
         severity: channel.truePeakDbtp > 0 ? 'fail' : strict,
+        summary: `True peak ${db(channel.truePeakDbtp)} dBTP on ${channelName(index)}, above the ${db(spec.maxTruePeakDbtp)} dBTP limit`,
         message: `True peak on ${channelName(index)} reaches ${db(channel.truePeakDbtp)} dBTP${channel.truePeakAtSec !== undefined ? ` at ${formatClock(channel.truePeakAtSec)}` : ''}, above the ${db(spec.maxTruePeakDbtp)} dBTP limit.`,
         channel: index,
         ...(channel.truePeakAtSec !== undefined ? { startSec: channel.truePeakAtSec, endSec: channel.truePeakAtSec } : {}),
@@ -142,6 +149,7 @@ export function judgeReport(report: AnalysisReport, spec: DeliverySpec): Finding
     add({
       check: 'loudness',
       severity: strict,
+      summary: `Loudness ${db(integrated)} LUFS, ${db(Math.abs(integrated - spec.loudnessTargetLufs))} LU ${direction} than the ${db(spec.loudnessTargetLufs)} LUFS target`,
       message: `Integrated loudness is ${db(integrated)} LUFS, ${db(Math.abs(integrated - spec.loudnessTargetLufs))} LU ${direction} than the ${db(spec.loudnessTargetLufs)} LUFS target (±${spec.loudnessToleranceLu} LU).`,
     });
   }
@@ -172,6 +180,7 @@ export function judgeReport(report: AnalysisReport, spec: DeliverySpec): Finding
       add({
         check: 'dc-offset',
         severity: offset > DC_FAIL_FACTOR * spec.maxDcOffset ? 'fail' : 'warn',
+        summary: `DC offset of ${(offset * 100).toPrecision(2)}% of full scale on ${channelName(index)}`,
         message: `${capitalise(channelName(index))} has a DC offset of ${(offset * 100).toPrecision(2)}% of full scale (${db(20 * Math.log10(offset))} dBFS).`,
         channel: index,
       });
@@ -180,12 +189,21 @@ export function judgeReport(report: AnalysisReport, spec: DeliverySpec): Finding
 
   // dropouts
   const dropoutCount = report.dropoutCount ?? report.dropouts.length;
-  if (dropoutCount > 0) {
+  if (dropoutCount > 0 && report.silentPauses) {
+    add({ check: 'dropout', severity: 'info', message: `The take falls to digital silence in its own pauses (${plural(dropoutCount, 'gap')}), as gated, edited or synthesised material does: dropouts cannot be told apart from them, so none is reported.` });
+  } else if (dropoutCount > 0) {
     const severity: Severity = dropoutCount > spec.maxDropouts ? 'fail' : 'warn';
     const where = report.dropouts.slice(0, LISTED_EVENTS).map((gap) => `${formatClock(gap.startSec)} (${Math.round((gap.endSec - gap.startSec) * 1000)} ms)`).join(', ');
     const more = dropoutCount > LISTED_EVENTS ? ', ...' : '';
     const first = report.dropouts[0];
-    add({ check: 'dropout', severity, message: `${plural(dropoutCount, 'dropout')} (digital silence inside the take) at ${where}${more}.`, startSec: first?.startSec, endSec: first?.endSec });
+    add({
+      check: 'dropout',
+      severity,
+      message: `${plural(dropoutCount, 'dropout')} (digital silence inside the take) at ${where}${more}.`,
+      summary: `${plural(dropoutCount, 'dropout')} (digital silence), first at ${formatClock(first?.startSec ?? 0)}`,
+      startSec: first?.startSec,
+      endSec: first?.endSec,
+    });
   }
 
   // silent channels
@@ -203,7 +221,13 @@ export function judgeReport(report: AnalysisReport, spec: DeliverySpec): Finding
         // An iso track left unused is normal on a location recorder.
         add({ check: 'silent-channel', severity: 'info', message: `${capitalise(channelName(index))} ${what}: an unused track.`, channel: index });
       } else {
-        add({ check: 'silent-channel', severity: 'fail', message: `${capitalise(channelName(index))} ${what}: check the input, cable or routing.`, channel: index });
+        add({
+          check: 'silent-channel',
+          severity: 'fail',
+          message: `${capitalise(channelName(index))} ${what}: check the input, cable or routing.`,
+          summary: `Dead ${channelName(index)}: ${noiseOnly ? 'only steady noise' : 'no signal'}`,
+          channel: index,
+        });
       }
     }
   }
@@ -220,6 +244,7 @@ export function judgeReport(report: AnalysisReport, spec: DeliverySpec): Finding
       add({
         check: 'stereo',
         severity: 'warn',
+        summary: partial ? `Channels in opposite polarity from ${formatClock(from)} to ${formatClock(to)}` : 'Channels in opposite polarity: one is wired inverted',
         message: partial
           ? `The channels are in opposite polarity from ${formatClock(from)} to ${formatClock(to)}: one of them was probably wired inverted there; that part will cancel when summed to mono.`
           : 'The channels are in opposite polarity: one of them is probably wired inverted; the take will cancel when summed to mono.',
@@ -243,6 +268,41 @@ export function judgeReport(report: AnalysisReport, spec: DeliverySpec): Finding
 }
 
 const capitalise = (text: string) => text[0].toUpperCase() + text.slice(1);
+
+/** Importance of each check when several findings share the worst severity, most important first. */
+const CHECK_IMPORTANCE: Finding['check'][] = [
+  'non-finite', 'container', 'silent-channel', 'clipping', 'dropout', 'true-peak', 'over-full-scale', 'stereo', 'format', 'sample-rate',
+  'resolution', 'loudness', 'dc-offset', 'noise-floor', 'hum', 'bandwidth', 'aliasing', 'tone',
+];
+const SEVERITY_RANK: Record<Severity, number> = { fail: 0, warn: 1, info: 2 };
+/** Longest one-line reason, characters. */
+export const REASON_MAX_LENGTH = 90;
+
+/** A finding's short form: its summary, or its message cut at the first clause or word that fits. */
+function shortForm(finding: Finding): string {
+  const text = finding.summary ?? finding.message.replace(/\.$/, '');
+  if (text.length <= REASON_MAX_LENGTH) return text;
+  const clause = text.split(/: | \(|; /)[0];
+  if (clause.length <= REASON_MAX_LENGTH) return clause;
+  return `${text.slice(0, text.lastIndexOf(' ', REASON_MAX_LENGTH - 1))}…`;
+}
+
+/**
+ * The one-line reason for a take's verdict: the most important warning or failure, in at most
+ * REASON_MAX_LENGTH characters; null when the take passes (information only).
+ */
+export function reasonOf(findings: readonly Finding[]): string | null {
+  const ranked = findings
+    .filter((finding) => finding.severity !== 'info')
+    .map((finding, order) => ({ finding, order }))
+    .sort(
+      (a, b) =>
+        SEVERITY_RANK[a.finding.severity] - SEVERITY_RANK[b.finding.severity] ||
+        CHECK_IMPORTANCE.indexOf(a.finding.check) - CHECK_IMPORTANCE.indexOf(b.finding.check) ||
+        a.order - b.order,
+    );
+  return ranked.length > 0 ? shortForm(ranked[0].finding) : null;
+}
 
 /** The take's overall verdict: 'fail' if any finding fails, else 'warn' if any warns, else 'pass'. */
 export function verdictOf(findings: readonly Finding[]): 'pass' | 'warn' | 'fail' {

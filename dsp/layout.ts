@@ -8,7 +8,7 @@
  * channel count that only the conventional loudspeaker orders use (5.0, 5.1, 7.1).
  */
 
-export type ChannelLayout = 'mono' | 'stereo' | 'surround' | 'poly';
+import type { ChannelLayout } from './types';
 
 export interface LayoutInfo {
   layout: ChannelLayout;

@@ -218,7 +218,8 @@ function assembleReport(format: AudioFormat, metadata: WavMetadata, frames: numb
     },
     dropouts: m.dropouts.dropouts,
     dropoutCount: m.dropouts.dropoutCount,
-    stereo: m.stereo && {
+    silentPauses: m.dropouts.silentPauses,
+    stereo: m.stereo && layout !== 'poly' ? {
       correlation: roundTo(m.stereo.correlation, 4),
       identicalChannels: m.stereo.identicalChannels,
       polarityInverted: m.stereo.polarityInverted,
@@ -227,7 +228,7 @@ function assembleReport(format: AudioFormat, metadata: WavMetadata, frames: numb
       invertedSegments: m.stereo.polarity.invertedSegments,
       invertedFromSec: m.stereo.polarity.invertedFromSec,
       invertedToSec: m.stereo.polarity.invertedToSec,
-    },
+    } : null,
     tone: m.tone,
     waveform: m.waveform,
     findings: [],

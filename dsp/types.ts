@@ -105,6 +105,8 @@ export interface Finding {
   severity: Severity;
   /** Plain words a producer understands. */
   message: string;
+  /** The same in at most 90 characters, for one-line reasons (absent in older reports). */
+  summary?: string;
   channel?: number;
   startSec?: number;
   endSec?: number;
@@ -169,6 +171,8 @@ export interface AnalysisReport {
   dropouts: { startSec: number; endSec: number }[];
   /** Dropouts found, including any beyond those listed. */
   dropoutCount?: number;
+  /** The take falls to digital silence in its own pauses (gated, edited, synthesised), so gaps are not judged as dropouts. */
+  silentPauses?: boolean;
   stereo: {
     correlation: number;
     identicalChannels: boolean;

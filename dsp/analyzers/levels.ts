@@ -10,6 +10,8 @@ const HISTOGRAM_FLOOR_DB = -200;
 const HISTOGRAM_BINS = 880;
 /** Share of windows, the quietest first, whose mean is the steady DC offset [common practice]. */
 const QUIET_WINDOW_SHARE = 0.2;
+/** The steady offset is reported net of this many standard errors of the windows' scatter (about 99.7 % one-sided) [textbook]. */
+const STANDARD_ERRORS = 3;
 /**
  * A channel whose loud windows (99.5th percentile) are within this of its quiet ones (10th percentile)
  * carries a steady noise, not programme [common practice]: speech and music move by 20 dB and more.
@@ -35,8 +37,9 @@ export interface ChannelLevels {
   /** Mean sample value (DC offset), full scale = 1.0. */
   dcOffset: number;
   /**
-   * Mean of the quietest 20 % of 100 ms windows: a converter's offset is there all the time, while the
-   * mean of an asymmetric waveform (speech) is there only while it sounds. Full scale = 1.0.
+   * Mean of the quietest 20 % of 100 ms windows, less three standard errors of their scatter: a
+   * converter's offset is there all the time, while the mean of an asymmetric waveform (speech) is
+   * there only while it sounds, and that of low-frequency noise wanders. Full scale = 1.0.
    */
   steadyDcOffset: number;
   /** AC level the loudest 0.5 % of 100 ms windows reach, dBFS (square-wave reference); null when all are silent. */
@@ -82,9 +85,10 @@ export class LevelsAnalyzer implements Analyzer<LevelsResult> {
   private windowFill = 0;
   private readonly windowSums: Float64Array;
   private readonly windowSquareSums: Float64Array;
-  /** Per channel: windows per AC-level bin, and the sum of those windows' means. */
+  /** Per channel: windows per AC-level bin, and the sums of those windows' means and squared means. */
   private readonly windowCounts: Float64Array[];
   private readonly windowMeanSums: Float64Array[];
+  private readonly windowMeanSquareSums: Float64Array[];
   private readonly overFullScale: Float64Array;
   private readonly firstOverFullScale: Float64Array;
 
@@ -102,6 +106,7 @@ export class LevelsAnalyzer implements Analyzer<LevelsResult> {
     this.windowSquareSums = new Float64Array(format.channels);
     this.windowCounts = Array.from({ length: format.channels }, () => new Float64Array(HISTOGRAM_BINS));
     this.windowMeanSums = Array.from({ length: format.channels }, () => new Float64Array(HISTOGRAM_BINS));
+    this.windowMeanSquareSums = Array.from({ length: format.channels }, () => new Float64Array(HISTOGRAM_BINS));
     this.overFullScale = new Float64Array(format.channels);
     this.firstOverFullScale = new Float64Array(format.channels).fill(-1);
   }
@@ -185,6 +190,7 @@ export class LevelsAnalyzer implements Analyzer<LevelsResult> {
       const bin = acPower > 0 ? Math.max(0, Math.min(HISTOGRAM_BINS - 1, Math.floor((10 * Math.log10(acPower) - HISTOGRAM_FLOOR_DB) / HISTOGRAM_STEP_DB))) : 0;
       this.windowCounts[channel][bin]++;
       this.windowMeanSums[channel][bin] += mean;
+      this.windowMeanSquareSums[channel][bin] += mean * mean;
       this.windowSums[channel] = 0;
       this.windowSquareSums[channel] = 0;
     }
@@ -206,21 +212,30 @@ export class LevelsAnalyzer implements Analyzer<LevelsResult> {
     return null;
   }
 
-  /** Mean of the quietest QUIET_WINDOW_SHARE of windows (digital silence included); the whole mean when there are none. */
+  /**
+   * Mean of the quietest QUIET_WINDOW_SHARE of windows (digital silence included), less three
+   * standard errors of that mean (towards 0): low-frequency noise moves a window's mean from window to
+   * window, a converter's offset does not, so only an offset that stands out of that scatter remains.
+   * The whole mean when there are no windows.
+   */
   private steadyDcOffset(channel: number, wholeMean: number): number {
     const counts = this.windowCounts[channel];
-    const meanSums = this.windowMeanSums[channel];
     let total = 0;
     for (let bin = 0; bin < HISTOGRAM_BINS; bin++) total += counts[bin];
     if (total === 0) return wholeMean;
     const wanted = Math.max(1, QUIET_WINDOW_SHARE * total);
     let windows = 0;
     let meanSum = 0;
+    let meanSquareSum = 0;
     for (let bin = 0; bin < HISTOGRAM_BINS && windows < wanted; bin++) {
       windows += counts[bin];
-      meanSum += meanSums[bin];
+      meanSum += this.windowMeanSums[channel][bin];
+      meanSquareSum += this.windowMeanSquareSums[channel][bin];
     }
-    return meanSum / windows;
+    const mean = meanSum / windows;
+    const variance = windows > 1 ? Math.max(0, (meanSquareSum - windows * mean * mean) / (windows - 1)) : 0;
+    const bound = Math.max(0, Math.abs(mean) - STANDARD_ERRORS * Math.sqrt(variance / windows));
+    return Math.sign(mean) * bound;
   }
 
   finish(): LevelsResult {
