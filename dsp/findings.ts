@@ -240,7 +240,8 @@ export function judgeReport(report: AnalysisReport, spec: DeliverySpec): Finding
     } else if (stereo.polarityInverted) {
       const from = stereo.invertedFromSec ?? null;
       const to = stereo.invertedToSec ?? null;
-      const partial = from !== null && to !== null && (from > 0.5 || to < report.file.durationSec - 5.5);
+      // Some stretches were found in polarity, others not: a cable or a patch changed during the take.
+      const partial = from !== null && to !== null && (stereo.inPolaritySegments ?? 0) > 0;
       add({
         check: 'stereo',
         severity: 'warn',

@@ -235,7 +235,7 @@ export class LevelsAnalyzer implements Analyzer<LevelsResult> {
     const mean = meanSum / windows;
     const variance = windows > 1 ? Math.max(0, (meanSquareSum - windows * mean * mean) / (windows - 1)) : 0;
     const bound = Math.max(0, Math.abs(mean) - STANDARD_ERRORS * Math.sqrt(variance / windows));
-    return Math.sign(mean) * bound;
+    return bound === 0 ? 0 : Math.sign(mean) * bound;
   }
 
   finish(): LevelsResult {

@@ -51,8 +51,8 @@ const CONVERSATION_LINES: [string, string][] = [
 
 const mono = (signal: Float64Array, sampleRate: number, coding: SampleCoding): TakeAudio => ({ channels: [signal], sampleRate, coding });
 
-function speech(voiceIndex: number, lineIndex: number, sampleRate: number, peakDbfs: number, roomToneDbfs = -66): Float64Array {
-  return speechTake({ voice: VOICES[voiceIndex], line: LINES[lineIndex], sampleRate, peakDbfs, roomToneDbfs, seed: 100 * voiceIndex + lineIndex });
+function speech(voiceIndex: number, lineIndex: number, sampleRate: number, peakDbfs: number, roomToneDbfs = -66, roomPercent = 25): Float64Array {
+  return speechTake({ voice: VOICES[voiceIndex], line: LINES[lineIndex], sampleRate, peakDbfs, roomToneDbfs, roomPercent, seed: 100 * voiceIndex + lineIndex });
 }
 
 function conversation(index: number, sampleRate: number, peakDbfs: number, bleedDb: number, bleedDelaySec: number): Float64Array[] {
@@ -105,6 +105,9 @@ export const CLEAN_TAKES: EvalTake[] = [
   { id: 'speech-very-deep-96k-float', description: 'speech, very deep slow voice (en-us m7), peak -1.5 dBFS, 96 kHz float mono', slice: true, make: () => mono(speech(5, 5, 96000, -1.5), 96000, 'float32') },
   { id: 'speech-quiet-48k-16', description: 'speech, high voice (en-gb f4), quiet: peak -20 dBFS, 48 kHz 16-bit mono', slice: false, make: () => mono(fault.quantise(speech(6, 0, 48000, -20, -78), 16), 48000, 'pcm16') },
   { id: 'speech-low-male-44k-24-loud', description: 'speech, low male voice, loud: peak -1 dBFS, 44.1 kHz 24-bit mono', slice: false, make: () => mono(speech(0, 3, 44100, -1), 44100, 'pcm24') },
+  { id: 'speech-booth-very-deep-96k-float', description: 'speech in a dead booth (no reverberation), very deep voice (en-us m7), peak -1 dBFS, 96 kHz float mono', slice: true, make: () => mono(speech(5, 2, 96000, -1, -72, 0), 96000, 'float32') },
+  { id: 'speech-booth-low-male-96k-24', description: 'speech in a dead booth, low male voice (en-gb m3), peak -3 dBFS, 96 kHz 24-bit mono', slice: false, make: () => mono(speech(0, 5, 96000, -3, -70, 0), 96000, 'pcm24') },
+  { id: 'speech-booth-scottish-48k-16', description: 'speech in a dead booth, deep voice (en-gb-scotland m1), peak -20 dBFS, 48 kHz 16-bit mono', slice: false, make: () => mono(fault.quantise(speech(2, 4, 48000, -20, -80, 0), 16), 48000, 'pcm16') },
   { id: 'conversation-48k-24', description: 'two-mic conversation (m3 + f3), bleed -14 dB at 2.5 ms, 48 kHz 24-bit stereo', slice: true, make: () => ({ channels: conversation(0, 48000, -5, -14, 0.0025), sampleRate: 48000, coding: 'pcm24' }) },
   { id: 'conversation-44k-16', description: 'two-mic conversation (m1 + f2), bleed -20 dB at 4 ms, 44.1 kHz 16-bit stereo', slice: true, make: () => ({ channels: conversation(1, 44100, -6, -20, 0.004).map((c) => fault.quantise(c, 16)), sampleRate: 44100, coding: 'pcm16' }) },
   { id: 'conversation-96k-float', description: 'two-mic conversation (m2 + f4), bleed -10 dB at 1.5 ms, 96 kHz float stereo', slice: false, make: () => ({ channels: conversation(2, 96000, -3, -10, 0.0015), sampleRate: 96000, coding: 'float32' }) },

@@ -43,15 +43,17 @@ export interface Voice {
 }
 
 /**
- * Speech from espeak-ng (22.05 kHz 16-bit, unclipped), put through sox: a small room (reverb), the
- * low cut every voice chain has, resampling to `sampleRate`, and levelled so its sample peak sits at `peakDbfs`.
+ * Speech from espeak-ng (22.05 kHz 16-bit, unclipped), put through sox: the low cut every voice chain
+ * has, a small room (reverb; none when `roomPercent` is 0), resampling to `sampleRate`, and levelled so
+ * its sample peak sits at `peakDbfs`.
  */
 export function speak(text: string, voice: Voice, sampleRate: number, peakDbfs: number, roomPercent = 25): Float64Array {
   const folder = mkdtempSync(join(tmpdir(), 'takeproof-speech-'));
   try {
     const wav = join(folder, 'speech.wav');
     run('espeak-ng', ['-v', voice.name, '-s', String(voice.rate), '-p', String(voice.pitch), '-w', wav, text]);
-    return soxToSamples([wav], sampleRate, 1, ['highpass', '70', 'reverb', String(roomPercent), '50', '30', 'rate', '-v', String(sampleRate), 'gain', '-n', String(peakDbfs)])[0];
+    const room = roomPercent > 0 ? ['reverb', String(roomPercent), '50', '30'] : [];
+    return soxToSamples([wav], sampleRate, 1, ['highpass', '70', ...room, 'rate', '-v', String(sampleRate), 'gain', '-n', String(peakDbfs)])[0];
   } finally {
     rmSync(folder, { recursive: true, force: true });
   }

@@ -11,7 +11,7 @@ import type { AnalysisReport } from '../../../dsp/types';
 import { formatOf } from '../../support/analyzerHarness';
 import { ffmpegEbur128, soxStats } from '../../support/referenceTools';
 import { tempDirectory } from '../../support/tempFiles';
-import { ProgrammeGenerator, sine } from '../../support/testSignals';
+import { ProgrammeGenerator, concat, seededRandom, sine } from '../../support/testSignals';
 import { bufferStream } from '../../support/wavStreams';
 import { encodeSamples, wavFile } from '../../support/wavWriter';
 
@@ -58,7 +58,12 @@ describe('cross-checks on 40 s of programme-like material against ffmpeg and sox
     for (const key of contractKeys) expect(report).toHaveProperty(key);
     expect(Object.keys(report.file)).toEqual(expect.arrayContaining(['container', 'encoding', 'sampleRate', 'bitsPerSample', 'channels', 'frames', 'durationSec']));
     expect(report.file).toMatchObject({ container: 'RIFF', encoding: 'pcm', sampleRate: RATE, bitsPerSample: 24, channels: 2, frames: 40 * RATE, durationSec: 40 });
-    expect(Object.keys(report.channels[0]).sort()).toEqual(['clippedSamples', 'dcOffset', 'effectiveBits', 'rmsDbfs', 'samplePeakDbfs', 'silent', 'truePeakAtSec', 'truePeakDbtp']);
+    expect(Object.keys(report.channels[0]).sort()).toEqual([
+      'clippedSamples', 'dcOffset', 'effectiveBits', 'integratedLufs', 'name', 'nonFiniteSamples', 'overFullScaleSamples', 'rmsDbfs',
+      'samplePeakDbfs', 'silent', 'silentKind', 'steadyDcOffset', 'truePeakAtSec', 'truePeakDbtp',
+    ]);
+    expect(report.file.layout).toBe('stereo');
+    expect(report.channels.map((channel) => channel.name)).toEqual(['L', 'R']);
     expect(Object.keys(report.loudness)).toEqual(expect.arrayContaining(['integratedLufs', 'rangeLu', 'momentaryMaxLufs', 'shortTermMaxLufs']));
     expect(Object.keys(report.bandwidth)).toEqual(expect.arrayContaining(['effectiveHz', 'impliedSourceRate', 'nearNyquistDb', 'aliasingRisk']));
     expect(Object.keys(report.noise).sort()).toEqual(['floorDbfs', 'humHz']);
@@ -91,12 +96,15 @@ describe('effective bits against sox', () => {
 
 describe('report details', () => {
   it('a mono take has no stereo section; noise-limited bits follow the floor', async () => {
-    const report = await analyzeStream(bufferStream(wavFile({ sampleRate: RATE, channels: 1, coding: 'pcm16' }, encodeSamples([sine(997, 0.25, 3, RATE)], 'pcm16'))));
+    // A tone over noise at -80 dBFS RMS, so the quiet stretches have a floor to measure.
+    const random = seededRandom(4);
+    const tone = concat(sine(997, 0.25, 3, RATE), new Float64Array(RATE)).map((x) => x + 1e-4 * Math.sqrt(6) * (random() - random()));
+    const report = await analyzeStream(bufferStream(wavFile({ sampleRate: RATE, channels: 1, coding: 'pcm24' }, encodeSamples([tone], 'pcm24'))));
     expect(report.stereo).toBeNull();
-    if (report.noise.floorDbfs !== null) {
-      // Ideal quantiser noise: -6.02·N - 4.77 dBFS (square-wave reference) -> N = (-floor - 4.77)/6.02.
-      expect(report.resolution.noiseLimitedBits).toBeCloseTo((-report.noise.floorDbfs - 4.77) / 6.02, 1);
-    }
+    expect(report.file.layout).toBe('mono');
+    expect(report.noise.floorDbfs).not.toBeNull();
+    // Ideal quantiser noise: -6.02·N - 4.77 dBFS (square-wave reference) -> N = (-floor - 4.77)/6.02.
+    expect(report.resolution.noiseLimitedBits).toBeCloseTo((-report.noise.floorDbfs! - 4.77) / 6.02, 1);
   });
 
   it('a truncated take is analysed and the findings carry a container problem', async () => {
