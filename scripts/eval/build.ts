@@ -5,7 +5,7 @@ import { encodeSamples, wavFile, type Chunk } from '../../tests/support/wavWrite
 import type { EvalTake, TakeAudio } from './corpus';
 
 /** Bump when the material generators change, so cached takes are made again. */
-const GENERATOR_VERSION = 2;
+const GENERATOR_VERSION = 3;
 
 /** An iXML chunk with a TRACK_LIST naming each channel (iXML specification, gallery.co.uk/ixml). */
 export function ixmlChunk(names: string[]): Chunk {

@@ -1,5 +1,6 @@
 import { seededRandom } from '../../tests/support/testSignals';
 import { roomTone } from './material';
+import { converterBand } from './tools';
 
 /**
  * Faults planted into clean material, each of a stated size, the way they arise in a signal chain.
@@ -17,18 +18,23 @@ export function peakOf(signal: Float64Array): number {
 }
 
 /**
- * An analogue stage that clipped before the converter, the level lowered afterwards: from `fromSec`
- * to `toSec` the signal is driven `overdriveDb` past a clip level that ends up at `flatTopDbfs`
- * (signal elsewhere is untouched), then converter noise at `noiseDbfs` RMS is added on top.
+ * An analogue stage that clipped before the converter, the level lowered afterwards: the take runs
+ * through a stage that clips at a level that ends up at `flatTopDbfs`; outside `fromSec`..`toSec` its
+ * peaks stay 4 dB under that level, inside (a louder passage) they are driven `overdriveDb` past it and
+ * clipped. With `converterFilter` the clipped signal then passes a converter's anti-alias filter;
+ * converter noise at `noiseDbfs` RMS is added on top.
  */
-export function clipBeforeConverter(signal: Float64Array, sampleRate: number, fromSec: number, toSec: number, flatTopDbfs: number, overdriveDb: number, noiseDbfs: number, seed: number): Float64Array {
+export function clipBeforeConverter(signal: Float64Array, sampleRate: number, fromSec: number, toSec: number, flatTopDbfs: number, overdriveDb: number, noiseDbfs: number, seed: number, converterFilter = false): Float64Array {
   const start = frame(fromSec, sampleRate), end = Math.min(signal.length, frame(toSec, sampleRate));
-  let sectionPeak = 0;
-  for (let i = start; i < end; i++) sectionPeak = Math.max(sectionPeak, Math.abs(signal[i]));
   const level = dbToGain(flatTopDbfs);
-  // Drive the section so its peak sits overdriveDb above the clip level, clip it there.
-  const drive = (level * dbToGain(overdriveDb)) / sectionPeak;
-  for (let i = start; i < end; i++) signal[i] = Math.max(-level, Math.min(level, signal[i] * drive));
+  const outsidePeak = Math.max(peakOf(signal.subarray(0, start)), peakOf(signal.subarray(end)));
+  const outsideGain = (level * dbToGain(-4)) / outsidePeak;
+  const drive = (level * dbToGain(overdriveDb)) / peakOf(signal.subarray(start, end));
+  for (let i = 0; i < signal.length; i++) {
+    signal[i] = i >= start && i < end ? Math.max(-level, Math.min(level, signal[i] * drive)) : signal[i] * outsideGain;
+  }
+  // An analogue clip reaches the file through the converter's anti-alias filter, which ripples the flat tops.
+  if (converterFilter) signal.set(converterBand(signal, sampleRate));
   const random = seededRandom(seed);
   const noise = dbToGain(noiseDbfs) * Math.sqrt(3);
   for (let i = 0; i < signal.length; i++) signal[i] += noise * (random() - random());

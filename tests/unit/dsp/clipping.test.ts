@@ -5,7 +5,7 @@ import { ProgrammeGenerator, concat, seededRandom, sine } from '../../support/te
 import { analyzeWavBuffer } from '../../support/wavStreams';
 import { encodeSamples, wavFile, type SampleCoding } from '../../support/wavWriter';
 import { LINES, VOICES } from '../../../scripts/eval/material';
-import { resample, speak } from '../../../scripts/eval/tools';
+import { converterBand, resample, speak, synthesise } from '../../../scripts/eval/tools';
 
 const RATE = 48000;
 const clipsOfWav = (coding: SampleCoding, channels: Float64Array[], sampleRate = RATE) =>
@@ -97,6 +97,21 @@ describe('flat tops below full scale (analogue clip, then gain lowered): >= 3 fl
     expect(result.events).toHaveLength(1);
     expect(Math.abs(result.events[0].levelDbfs - -20)).toBeLessThan(0.05);
     expect(result.events[0].startSec).toBeGreaterThan(0.99);
+  });
+
+  it('finds flat tops rippled by the converter\'s anti-alias filter after an analogue clip (sox sinc low-pass at 0.45 fs)', async () => {
+    const random = seededRandom(12);
+    const voice = speak(LINES[4], VOICES[1], RATE, -10, 0);
+    const clipped = clamp(voice.map((x) => x * 10 ** (14 / 20)), 10 ** (-6 / 20)).map((x) => x * 10 ** (-3 / 20));
+    const filtered = converterBand(clipped, RATE).map((x) => x + 10 ** (-105 / 20) * (random() - random()));
+    const result = await clipsOfWav('pcm24', [filtered]);
+    expect(result.events.length).toBeGreaterThan(0);
+    expect(result.events.every((event) => event.level === 'belowFullScale' && Math.abs(event.levelDbfs - -9) < 0.5)).toBe(true);
+  });
+
+  it('a synthesiser\'s square wave (sox synth square, its plateaus all one length) is not clipping', async () => {
+    const square = synthesise(3, ['square', '220'], RATE, 1, ['gain', '-6'])[0];
+    expect((await clipsOfWav('pcm24', [square])).events).toEqual([]);
   });
 
   describe('rounded peaks of voiced speech are not flat tops (espeak-ng speech, levelled and resampled with sox)', () => {
