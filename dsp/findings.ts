@@ -4,6 +4,8 @@ import type { AnalysisReport, Finding, Severity } from './types';
 
 /** A DC offset this many times the spec's limit fails instead of warning [common practice]. */
 const DC_FAIL_FACTOR = 10;
+/** Shortest take whose channels can be compared for polarity (one 5 s segment), seconds. */
+const POLARITY_MIN_SEC = 5;
 /** Dropouts and clip events spelled out one by one before the rest are summed up. */
 const LISTED_EVENTS = 5;
 
@@ -220,6 +222,8 @@ export function judgeReport(report: AnalysisReport, spec: DeliverySpec): Finding
       if (poly) {
         // An iso track left unused is normal on a location recorder.
         add({ check: 'silent-channel', severity: 'info', message: `${capitalise(channelName(index))} ${what}: an unused track.`, channel: index });
+      } else if (report.file.layout === 'surround' && report.channels[index].name === 'LFE') {
+        add({ check: 'silent-channel', severity: 'info', message: `The LFE channel ${what}: normal when the programme has no low-frequency effects.`, channel: index });
       } else {
         add({
           check: 'silent-channel',
@@ -237,6 +241,8 @@ export function judgeReport(report: AnalysisReport, spec: DeliverySpec): Finding
   if (stereo && silentChannels.length === 0) {
     if (stereo.identicalChannels) {
       add({ check: 'stereo', severity: 'info', message: 'Both channels are identical: this is a mono take in a stereo file.' });
+    } else if (stereo.inPolaritySegments === 0 && stereo.invertedSegments === 0 && !stereo.polarityInverted && report.file.durationSec >= POLARITY_MIN_SEC) {
+      add({ check: 'stereo', severity: 'info', message: 'The two channels share no common sound (separate sources, no bleed between them), so their relative polarity cannot be checked.' });
     } else if (stereo.polarityInverted) {
       const from = stereo.invertedFromSec ?? null;
       const to = stereo.invertedToSec ?? null;

@@ -184,15 +184,18 @@ export class LevelsAnalyzer implements Analyzer<LevelsResult> {
   private closeWindow(): void {
     const n = this.windowFrames;
     for (let channel = 0; channel < this.format.channels; channel++) {
+      const squareSum = this.windowSquareSums[channel];
       const mean = this.windowSums[channel] / n;
-      const acPower = this.windowSquareSums[channel] / n - mean * mean;
-      // Digital silence (and anything below the floor) goes to bin 0.
+      this.windowSums[channel] = 0;
+      this.windowSquareSums[channel] = 0;
+      // Digital zero (no converter in the path: muted, gated, edited) says nothing of level or offset.
+      if (squareSum === 0) continue;
+      const acPower = squareSum / n - mean * mean;
+      // A constant (DC only) window, and anything below the floor, goes to bin 0.
       const bin = acPower > 0 ? Math.max(0, Math.min(HISTOGRAM_BINS - 1, Math.floor((10 * Math.log10(acPower) - HISTOGRAM_FLOOR_DB) / HISTOGRAM_STEP_DB))) : 0;
       this.windowCounts[channel][bin]++;
       this.windowMeanSums[channel][bin] += mean;
       this.windowMeanSquareSums[channel][bin] += mean * mean;
-      this.windowSums[channel] = 0;
-      this.windowSquareSums[channel] = 0;
     }
     this.windowFill = 0;
   }
@@ -213,10 +216,10 @@ export class LevelsAnalyzer implements Analyzer<LevelsResult> {
   }
 
   /**
-   * Mean of the quietest QUIET_WINDOW_SHARE of windows (digital silence included), less three
+   * Mean of the quietest QUIET_WINDOW_SHARE of windows (digital zero left out), less three
    * standard errors of that mean (towards 0): low-frequency noise moves a window's mean from window to
    * window, a converter's offset does not, so only an offset that stands out of that scatter remains.
-   * The whole mean when there are no windows.
+   * The whole mean when there are no such windows.
    */
   private steadyDcOffset(channel: number, wholeMean: number): number {
     const counts = this.windowCounts[channel];

@@ -224,6 +224,26 @@ describe('poly takes (iso tracks)', () => {
   });
 });
 
+describe('what cannot be judged is said, not alarmed', () => {
+  it('an empty LFE channel in a surround take is a note', () => {
+    const findings = judge((r) => {
+      r.file.layout = 'surround';
+      r.file.channels = 6;
+      r.stereo = null;
+      r.channels = ['L', 'R', 'C', 'LFE', 'Ls', 'Rs'].map((name) => ({ ...r.channels[0], name, silent: name === 'LFE', silentKind: name === 'LFE' ? ('no-signal' as const) : null }));
+    });
+    expect(only(findings, 'silent-channel')).toEqual([{ check: 'silent-channel', severity: 'info', channel: 3, message: 'The LFE channel carries no signal: normal when the programme has no low-frequency effects.' }]);
+  });
+
+  it('two channels with nothing in common: polarity cannot be checked, said as a note', () => {
+    const findings = only(judge((r) => Object.assign(r.stereo!, { inPolaritySegments: 0, invertedSegments: 0 })), 'stereo');
+    expect(findings).toHaveLength(1);
+    expect(findings[0]).toMatchObject({ severity: 'info', message: expect.stringMatching(/relative polarity cannot be checked/) });
+    // Reports made before the comparison existed say nothing.
+    expect(only(judgeReport(cleanReport(), DEFAULT_SPEC), 'stereo')).toEqual([]);
+  });
+});
+
 describe('reasonOf: one line for the verdict', () => {
   it('is null for a take that passes, and the worst finding in at most 90 characters otherwise', () => {
     expect(reasonOf(judgeReport(cleanReport(), DEFAULT_SPEC))).toBeNull();
