@@ -68,7 +68,8 @@ export async function analyzeStream(readable: Readable, options: AnalyzeOptions 
   const { format } = wav;
 
   const audioBytes = format.declaredDataBytes ?? (options.totalBytes ?? 0) - format.dataOffset;
-  const remote = options.parallel !== false && audioBytes >= PARALLEL_MIN_BYTES ? await WorkerAnalyzers.start(format) : null;
+  const perTrack = mayBeIsoTracks(format, wav.metadata);
+  const remote = options.parallel !== false && audioBytes >= PARALLEL_MIN_BYTES ? await WorkerAnalyzers.start(format, perTrack) : null;
   const levels = new LevelsAnalyzer(format);
   const dropouts = new DropoutAnalyzer(format);
   const stereo = format.channels === 2 ? new StereoAnalyzer(format) : null;
@@ -79,8 +80,7 @@ export async function analyzeStream(readable: Readable, options: AnalyzeOptions 
   const truePeak = remote ? null : new TruePeakAnalyzer(format);
   const loudness = remote || format.sampleRate < MIN_LOUDNESS_RATE_HZ ? null : new LoudnessAnalyzer(format);
   const clipping = remote ? null : new ClippingAnalyzer(format);
-  // Each channel's own loudness: needed for iso tracks, whose layout may only be known from an iXML chunk after the audio.
-  const trackLoudness = remote || format.channels < 2 || format.sampleRate < MIN_LOUDNESS_RATE_HZ ? null : new TrackLoudnessAnalyzer(format);
+  const trackLoudness = remote || !perTrack || format.sampleRate < MIN_LOUDNESS_RATE_HZ ? null : new TrackLoudnessAnalyzer(format);
   const local: Analyzer<unknown>[] = [levels, dropouts, spectrum, noise, tone];
   for (const analyzer of [stereo, peaks, truePeak, loudness, clipping, trackLoudness]) if (analyzer) local.push(analyzer);
 
@@ -123,6 +123,17 @@ export async function analyzeStream(readable: Readable, options: AnalyzeOptions 
   const report = assembleReport(format, wav.metadata, wav.framesRead(), measurements);
   report.findings = judgeReport(report, spec);
   return report;
+}
+
+/**
+ * Whether each channel's own loudness is needed: iso tracks, known from an iXML track list before the
+ * audio, or possible whenever more than two channels come without a loudspeaker mask (an iXML chunk
+ * after the audio may still declare them tracks). Not for mono, plain stereo or declared surround.
+ */
+function mayBeIsoTracks(format: AudioFormat, metadata: WavMetadata): boolean {
+  if (format.channels < 2) return false;
+  if (channelLayout(format.channels, format.channelMask, metadata.ixml).layout === 'poly') return true;
+  return format.channels > 2 && !format.channelMask;
 }
 
 /** What the analyzers found, before it is shaped into the report. */

@@ -169,6 +169,8 @@ export class ClippingAnalyzer implements Analyzer<ClippingResult> {
     let halfCycleMax = state.halfCycleMax;
     const halfCycle = state.halfCycle;
     let halfCycleFill = state.halfCycleFill;
+    let halfCycleStart = state.halfCycleStart;
+    let halfCycleAtLimit = state.halfCycleAtLimit;
     const toleranceFloor = this.toleranceFloor;
     const positiveHistogram = state.positiveHistogram;
     const negativeHistogram = state.negativeHistogram;
@@ -211,27 +213,26 @@ export class ClippingAnalyzer implements Analyzer<ClippingResult> {
         if (x > 0) positiveHistogram[bin]++;
         else negativeHistogram[bin]++;
       }
-      const sign = x > 0 ? 1 : x < 0 ? -1 : 0;
-      if (sign !== 0 && sign !== halfCycleSign) {
+      // Half-cycles: from one sign change to the next.
+      if (x > 0 ? halfCycleSign <= 0 : x < 0 && halfCycleSign >= 0) {
         if (halfCycleMax >= HISTOGRAM_FLOOR) {
           let bin = (halfCycleMax * HISTOGRAM_BINS_PER_UNIT) | 0;
           if (bin > topBin) bin = topBin;
           if (halfCycleSign > 0) positivePeaks[bin]++;
           else negativePeaks[bin]++;
-          if (halfCycleMax >= MIN_FLAT_TOP_LEVEL && halfCycleFill < MAX_HALF_CYCLE && !state.halfCycleAtLimit) {
-            this.closeHalfCycle(state, halfCycleSign, halfCycleMax, halfCycleFill);
+          if (halfCycleMax >= MIN_FLAT_TOP_LEVEL && halfCycleFill < MAX_HALF_CYCLE && !halfCycleAtLimit) {
+            this.closeHalfCycle(state, halfCycleSign, halfCycleMax, halfCycleFill, halfCycleStart);
           }
         }
-        halfCycleSign = sign;
+        halfCycleSign = x > 0 ? 1 : -1;
         halfCycleMax = 0;
         halfCycleFill = 0;
-        state.halfCycleStart = startFrame + i;
-        state.halfCycleAtLimit = false;
+        halfCycleStart = startFrame + i;
+        halfCycleAtLimit = false;
       }
       if (magnitude > halfCycleMax) halfCycleMax = magnitude;
       if (halfCycleFill < MAX_HALF_CYCLE) halfCycle[halfCycleFill++] = magnitude;
-      else halfCycleFill = MAX_HALF_CYCLE;
-      if (atLimit !== 0) state.halfCycleAtLimit = true;
+      if (atLimit !== 0) halfCycleAtLimit = true;
 
       // Flat-top runs below full scale: same polarity, within tolerance of the run's first sample.
       if (flatRunLength > 0) {
@@ -280,10 +281,12 @@ export class ClippingAnalyzer implements Analyzer<ClippingResult> {
     state.halfCycleSign = halfCycleSign;
     state.halfCycleMax = halfCycleMax;
     state.halfCycleFill = halfCycleFill;
+    state.halfCycleStart = halfCycleStart;
+    state.halfCycleAtLimit = halfCycleAtLimit;
   }
 
   /** Keeps a finished half-cycle as a plateau candidate when it dwells at its peak far longer than it took to rise. */
-  private closeHalfCycle(state: ChannelClipState, sign: number, peak: number, length: number): void {
+  private closeHalfCycle(state: ChannelClipState, sign: number, peak: number, length: number, startFrame: number): void {
     const magnitudes = state.halfCycle;
     const top = (1 - PLATEAU_DEPTH) * peak;
     let first = 0;
@@ -306,7 +309,7 @@ export class ClippingAnalyzer implements Analyzer<ClippingResult> {
     while (fall < length - 1 && magnitudes[fall + 1] >= half) fall++;
     const slowest = Math.max(first - rise + 1, fall - last + 1);
     if (dwell < PLATEAU_RATIO * slowest) return;
-    this.addRun(state.plateauGroups[sign > 0 ? 0 : 1], state.halfCycleStart + first, dwell, sum / dwell, PLATEAU_DEPTH * peak, first - rise + 1);
+    this.addRun(state.plateauGroups[sign > 0 ? 0 : 1], startFrame + first, dwell, sum / dwell, PLATEAU_DEPTH * peak, first - rise + 1);
   }
 
   /** Adds a run to the groups, merging it into the last group when close in time and (for flat tops) in level. */

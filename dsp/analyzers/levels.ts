@@ -113,39 +113,54 @@ export class LevelsAnalyzer implements Analyzer<LevelsResult> {
 
   push(block: SampleBlock): void {
     const frames = block.frames;
+    const channels = this.format.channels;
     const isFloat = this.format.encoding === 'float';
     const codeScale = isFloat ? FLOAT_GRID_SCALE : 2 ** (this.format.bitsPerSample - 1);
-    for (let channel = 0; channel < this.format.channels; channel++) {
-      const samples = block.channels[channel];
-      let peak = this.peaks[channel];
-      let sum = 0;
-      let squareSum = 0;
-      let bitsUsed = this.codeBitsUsed[channel];
-      for (let i = 0; i < frames; i++) {
-        const x = samples[i];
-        const magnitude = x < 0 ? -x : x;
-        if (magnitude > peak) peak = magnitude;
-        sum += x;
-        squareSum += x * x;
-        // Integer codes are exact in float64, so `| 0` of code·scale is the code itself.
-        bitsUsed |= x * codeScale;
+    // One pass, cut where the 100 ms windows end.
+    let start = 0;
+    while (start < frames) {
+      const end = Math.min(frames, start + this.windowFrames - this.windowFill);
+      for (let channel = 0; channel < channels; channel++) {
+        const samples = block.channels[channel];
+        let peak = this.peaks[channel];
+        let sum = 0;
+        let squareSum = 0;
+        let bitsUsed = this.codeBitsUsed[channel];
+        for (let i = start; i < end; i++) {
+          const x = samples[i];
+          const magnitude = x < 0 ? -x : x;
+          if (magnitude > peak) peak = magnitude;
+          sum += x;
+          squareSum += x * x;
+          // Integer codes are exact in float64, so `| 0` of code·scale is the code itself.
+          bitsUsed |= x * codeScale;
+        }
+        this.peaks[channel] = peak;
+        this.sums[channel] += sum;
+        this.squareSums[channel] += squareSum;
+        this.windowSums[channel] += sum;
+        this.windowSquareSums[channel] += squareSum;
+        this.codeBitsUsed[channel] = bitsUsed;
       }
-      if (isFloat && this.offGrid[channel] === 0) {
-        for (let i = 0; i < frames; i++) {
-          const code = samples[i] * codeScale;
-          if (code !== Math.trunc(code) || code >= 2147483648 || code < -2147483648) {
-            this.offGrid[channel] = 1;
-            break;
+      this.windowFill += end - start;
+      start = end;
+      if (this.windowFill === this.windowFrames) this.closeWindow();
+    }
+    if (isFloat) {
+      for (let channel = 0; channel < channels; channel++) {
+        const samples = block.channels[channel];
+        if (this.offGrid[channel] === 0) {
+          for (let i = 0; i < frames; i++) {
+            const code = samples[i] * codeScale;
+            if (code !== Math.trunc(code) || code >= 2147483648 || code < -2147483648) {
+              this.offGrid[channel] = 1;
+              break;
+            }
           }
         }
+        if (this.peaks[channel] > 1) this.countOverFullScale(channel, samples, frames, block.startFrame);
       }
-      if (isFloat && peak > 1) this.countOverFullScale(channel, samples, frames, block.startFrame);
-      this.peaks[channel] = peak;
-      this.sums[channel] += sum;
-      this.squareSums[channel] += squareSum;
-      this.codeBitsUsed[channel] = bitsUsed;
     }
-    this.pushWindows(block);
     this.frames += frames;
   }
 
@@ -157,28 +172,6 @@ export class LevelsAnalyzer implements Analyzer<LevelsResult> {
       }
     }
     this.overFullScale[channel] += count;
-  }
-
-  /** Cuts the block into 100 ms windows and files each window's AC level and mean. */
-  private pushWindows(block: SampleBlock): void {
-    let start = 0;
-    while (start < block.frames) {
-      const end = Math.min(block.frames, start + this.windowFrames - this.windowFill);
-      for (let channel = 0; channel < this.format.channels; channel++) {
-        const samples = block.channels[channel];
-        let sum = 0;
-        let squareSum = 0;
-        for (let i = start; i < end; i++) {
-          sum += samples[i];
-          squareSum += samples[i] * samples[i];
-        }
-        this.windowSums[channel] += sum;
-        this.windowSquareSums[channel] += squareSum;
-      }
-      this.windowFill += end - start;
-      start = end;
-      if (this.windowFill === this.windowFrames) this.closeWindow();
-    }
   }
 
   private closeWindow(): void {

@@ -18,7 +18,7 @@ port.on('message', (message: ToWorker) => {
       analyzers = {
         truePeak: new TruePeakAnalyzer(message.format),
         loudness: measurable ? new LoudnessAnalyzer(message.format) : null,
-        trackLoudness: measurable && message.format.channels > 1 ? new TrackLoudnessAnalyzer(message.format) : null,
+        trackLoudness: measurable && message.perTrack ? new TrackLoudnessAnalyzer(message.format) : null,
         clipping: new ClippingAnalyzer(message.format),
       };
       send({ kind: 'ready' });

@@ -5,7 +5,7 @@ import type { AudioFormat } from '../types';
 
 /** Messages from the pipeline to the analysis worker. */
 export type ToWorker =
-  | { kind: 'start'; format: AudioFormat }
+  | { kind: 'start'; format: AudioFormat; perTrack: boolean }
   | { kind: 'block'; channels: Float64Array[]; frames: number; startFrame: number }
   | { kind: 'finish' };
 
