@@ -18,8 +18,8 @@ import { faultFound, falseAlarms } from '../../../scripts/eval/score';
 const FOLDER = join('var', 'eval');
 
 /**
- * Checks whose judgement of dense material (music and ambience have no quiet passages) is being reworked;
- * `npm run eval` prints their figures. Their findings on clean takes are not asserted here yet.
+ * Checks that do not yet tell dense material (music and ambience have no quiet passages) from a noisy
+ * quiet passage; `npm run eval` prints their figures. Their findings on clean takes are not asserted here.
  */
 const reworked = (finding: Finding) =>
   ['noise-floor', 'hum', 'bandwidth', 'aliasing'].includes(finding.check) || (finding.check === 'sample-rate' && /converted up/.test(finding.message));
