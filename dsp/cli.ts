@@ -1,5 +1,5 @@
 import { readFile } from 'node:fs/promises';
-import { verdictOf } from './findings';
+import { reasonOf, verdictOf } from './findings';
 import { analyzeFile } from './pipeline';
 import { UnreadableWavError } from './reader/UnreadableWavError';
 import { DEFAULT_SPEC, deliverySpecSchema, type DeliverySpec } from './spec';
@@ -63,13 +63,13 @@ function summary(report: AnalysisReport, file: string, spec: DeliverySpec): stri
   const { file: format, loudness, peak } = report;
   const lines = [
     `${file}`,
-    `  ${format.container} ${format.encoding === 'float' ? 'float' : 'PCM'}, ${format.bitsPerSample}-bit, ${format.sampleRate} Hz, ${format.channels} ch, ${format.durationSec.toFixed(2)} s`,
+    `  ${format.container} ${format.encoding === 'float' ? 'float' : 'PCM'}, ${format.bitsPerSample}-bit, ${format.sampleRate} Hz, ${format.channels} ch${format.layout ? ` (${format.layout})` : ''}, ${format.durationSec.toFixed(2)} s`,
     `  Integrated ${show(loudness.integratedLufs, 'LUFS')}   range ${show(loudness.rangeLu, 'LU')}   max momentary ${show(loudness.momentaryMaxLufs, 'LUFS')}   max short-term ${show(loudness.shortTermMaxLufs, 'LUFS')}`,
     `  Sample peak ${show(peak.samplePeakDbfs, 'dBFS', 2)}   true peak ${show(peak.truePeakDbtp, 'dBTP', 2)}   effective bits ${report.resolution.effectiveBits}   noise floor ${show(report.noise.floorDbfs, 'dBFS')}`,
     ...report.channels.map((channel, index) =>
-      `  ch ${index + 1}: peak ${show(channel.samplePeakDbfs, 'dBFS', 2)}, true peak ${show(channel.truePeakDbtp, 'dBTP', 2)}, RMS ${show(channel.rmsDbfs, 'dBFS', 2)}, DC ${channel.dcOffset.toExponential(2)}${channel.silent ? ', silent' : ''}`),
+      `  ch ${index + 1}${channel.name ? ` ${channel.name}` : ''}: ${channel.integratedLufs != null ? `${show(channel.integratedLufs, 'LUFS')}, ` : ''}peak ${show(channel.samplePeakDbfs, 'dBFS', 2)}, true peak ${show(channel.truePeakDbtp, 'dBTP', 2)}, RMS ${show(channel.rmsDbfs, 'dBFS', 2)}, DC ${channel.dcOffset.toExponential(2)}${channel.silent ? ', silent' : ''}`),
     `  Judged against: ${spec.name}`,
-    `  Verdict: ${verdictOf(report.findings).toUpperCase()}`,
+    `  Verdict: ${verdictOf(report.findings).toUpperCase()}${reasonOf(report.findings) ? ` (${reasonOf(report.findings)})` : ''}`,
     ...report.findings.map((finding) => `   [${finding.severity}] ${finding.check}: ${finding.message}`),
   ];
   return lines.join('\n');

@@ -30,13 +30,25 @@ export function plural(count: number, word: string): string {
   return `${count} ${word}${count === 1 ? '' : 's'}`;
 }
 
-/** A channel in a sentence: "left channel", "right channel", "channel 3". */
-export function channelName(channel: number, channelCount: number): string {
-  return channelCount === 2 ? `${channel === 0 ? 'left' : 'right'} channel` : `channel ${channel + 1}`;
+/** How a channel is known beyond its position: its name (iXML track or loudspeaker) and whether it is an iso track. */
+export interface ChannelLabel {
+  name: string | null;
+  isTrack: boolean;
 }
 
-/** A channel on a lane or in a table cell: "L", "R", "ch 3". */
-export function channelShortName(channel: number, channelCount: number): string {
+/**
+ * A channel in a sentence: "left channel", "right channel", "channel 3", "channel 3 (C)",
+ * "track 2 (Boom)". Stereo keeps left/right; a name is added where there is one.
+ */
+export function channelName(channel: number, channelCount: number, label?: ChannelLabel): string {
+  if (label?.isTrack) return `track ${channel + 1}${label.name ? ` (${label.name})` : ''}`;
+  if (channelCount === 2) return `${channel === 0 ? 'left' : 'right'} channel`;
+  return `channel ${channel + 1}${label?.name ? ` (${label.name})` : ''}`;
+}
+
+/** A channel on a lane or in a table cell: "L", "R", "ch 3", or its name. */
+export function channelShortName(channel: number, channelCount: number, name?: string | null): string {
+  if (name) return name;
   return channelCount === 2 ? (channel === 0 ? 'L' : 'R') : `ch ${channel + 1}`;
 }
 

@@ -12,8 +12,10 @@ import { ToneAnalyzer, type ToneResult } from './analyzers/tone';
 import { TruePeakAnalyzer, type TruePeakResult } from './analyzers/truePeak';
 import { WaveformPeaksAnalyzer, type WaveformPeaksResult } from './analyzers/waveformPeaks';
 import { judgeReport } from './findings';
+import { channelLayout } from './layout';
+import { TrackLoudnessAnalyzer } from './trackLoudness';
 import { WorkerAnalyzers } from './parallel/WorkerAnalyzers';
-import { openWav, type OpenedWav, type WavMetadata } from './reader/wavReader';
+import { openWav, type NonFiniteSamples, type OpenedWav, type WavMetadata } from './reader/wavReader';
 import { DEFAULT_SPEC, type DeliverySpec } from './spec';
 import type { AnalysisReport, Analyzer, AudioFormat } from './types';
 import { amplitudeToDb, powerToDb, roundOrNull, roundTo } from './util/decibels';
@@ -66,7 +68,8 @@ export async function analyzeStream(readable: Readable, options: AnalyzeOptions 
   const { format } = wav;
 
   const audioBytes = format.declaredDataBytes ?? (options.totalBytes ?? 0) - format.dataOffset;
-  const remote = options.parallel !== false && audioBytes >= PARALLEL_MIN_BYTES ? await WorkerAnalyzers.start(format) : null;
+  const perTrack = mayBeIsoTracks(format, wav.metadata);
+  const remote = options.parallel !== false && audioBytes >= PARALLEL_MIN_BYTES ? await WorkerAnalyzers.start(format, perTrack) : null;
   const levels = new LevelsAnalyzer(format);
   const dropouts = new DropoutAnalyzer(format);
   const stereo = format.channels === 2 ? new StereoAnalyzer(format) : null;
@@ -77,8 +80,9 @@ export async function analyzeStream(readable: Readable, options: AnalyzeOptions 
   const truePeak = remote ? null : new TruePeakAnalyzer(format);
   const loudness = remote || format.sampleRate < MIN_LOUDNESS_RATE_HZ ? null : new LoudnessAnalyzer(format);
   const clipping = remote ? null : new ClippingAnalyzer(format);
+  const trackLoudness = remote || !perTrack || format.sampleRate < MIN_LOUDNESS_RATE_HZ ? null : new TrackLoudnessAnalyzer(format);
   const local: Analyzer<unknown>[] = [levels, dropouts, spectrum, noise, tone];
-  for (const analyzer of [stereo, peaks, truePeak, loudness, clipping]) if (analyzer) local.push(analyzer);
+  for (const analyzer of [stereo, peaks, truePeak, loudness, clipping, trackLoudness]) if (analyzer) local.push(analyzer);
 
   const totalBytes = options.totalBytes ?? null;
   let lastProgressAt = 0;
@@ -107,6 +111,8 @@ export async function analyzeStream(readable: Readable, options: AnalyzeOptions 
     clipping: remoteResults?.clipping ?? clipping!.finish(),
     truePeak: remoteResults?.truePeak ?? truePeak!.finish(),
     loudness: remoteResults?.loudness ?? loudness?.finish() ?? UNMEASURED_LOUDNESS,
+    trackLoudness: remoteResults ? remoteResults.trackLoudness : (trackLoudness?.finish() ?? null),
+    nonFinite: wav.nonFiniteSamples(),
     dropouts: dropouts.finish(),
     stereo: stereo?.finish() ?? null,
     bandwidth: spectrum.finish(),
@@ -119,12 +125,26 @@ export async function analyzeStream(readable: Readable, options: AnalyzeOptions 
   return report;
 }
 
+/**
+ * Whether each channel's own loudness is needed: iso tracks, known from an iXML track list before the
+ * audio, or possible whenever more than two channels come without a loudspeaker mask (an iXML chunk
+ * after the audio may still declare them tracks). Not for mono, plain stereo or declared surround.
+ */
+function mayBeIsoTracks(format: AudioFormat, metadata: WavMetadata): boolean {
+  if (format.channels < 2) return false;
+  if (channelLayout(format.channels, format.channelMask, metadata.ixml).layout === 'poly') return true;
+  return format.channels > 2 && !format.channelMask;
+}
+
 /** What the analyzers found, before it is shaped into the report. */
 interface Measurements {
   levels: LevelsResult;
   clipping: ClippingResult;
   truePeak: TruePeakResult;
   loudness: LoudnessResult;
+  /** Each channel's own loudness (multichannel takes only). */
+  trackLoudness: LoudnessResult[] | null;
+  nonFinite: NonFiniteSamples;
   dropouts: DropoutResult;
   stereo: StereoResult | null;
   bandwidth: BandwidthResult;
@@ -135,16 +155,27 @@ interface Measurements {
 
 /** Shapes the measurements into the report contract (levels in dB, rounded; findings left empty). */
 function assembleReport(format: AudioFormat, metadata: WavMetadata, frames: number, m: Measurements): AnalysisReport {
+  const { layout, names } = channelLayout(format.channels, format.channelMask, metadata.ixml);
+  const wholeLoudness = layout === 'poly' ? UNMEASURED_LOUDNESS : m.loudness;
+  const channelLoudness = (index: number) => (format.channels === 1 ? m.loudness : m.trackLoudness?.[index] ?? null)?.integratedLufs ?? null;
+  const seconds = (frame: number | null) => (frame === null ? null : roundTo(frame / format.sampleRate, 4));
+  const overFullScaleFrames = m.levels.channels.map((channel) => channel.firstOverFullScaleFrame).filter((frame): frame is number => frame !== null);
   const channels = m.levels.channels.map((channel, index) => ({
+    name: names[index],
     samplePeakDbfs: dbOrNull(channel.samplePeak),
     truePeakDbtp: dbOrNull(m.truePeak.channelTruePeaks[index]),
     truePeakAtSec: roundTo(m.truePeak.channelTruePeakFrames[index] / format.sampleRate, 4),
     // Mean square re a full-scale square wave: a full-scale sine reads -3.01 dBFS.
     rmsDbfs: roundOrNull(powerToDb(channel.meanSquare), 3),
     dcOffset: channel.dcOffset,
+    steadyDcOffset: channel.steadyDcOffset,
     effectiveBits: channel.effectiveBits,
     clippedSamples: m.clipping.channelClippedSamples[index],
     silent: channel.silent,
+    silentKind: channel.silentKind,
+    integratedLufs: roundOrNull(channelLoudness(index), 3),
+    nonFiniteSamples: m.nonFinite.perChannel[index],
+    overFullScaleSamples: channel.overFullScaleSamples,
   }));
   const floorDbfs = m.noise.floorDbfs;
   return {
@@ -159,6 +190,13 @@ function assembleReport(format: AudioFormat, metadata: WavMetadata, frames: numb
       frames,
       durationSec: frames / format.sampleRate,
       headerIssues: metadata.headerIssues,
+      layout,
+    },
+    samples: {
+      nonFinite: m.nonFinite.perChannel.reduce((sum, count) => sum + count, 0),
+      firstNonFiniteSec: seconds(m.nonFinite.firstFrame),
+      overFullScale: m.levels.channels.reduce((sum, channel) => sum + channel.overFullScaleSamples, 0),
+      firstOverFullScaleSec: seconds(overFullScaleFrames.length > 0 ? Math.min(...overFullScaleFrames) : null),
     },
     bext: metadata.bext,
     ixml: metadata.ixml,
@@ -173,12 +211,13 @@ function assembleReport(format: AudioFormat, metadata: WavMetadata, frames: numb
       truePeakDbtp: dbOrNull(Math.max(...m.truePeak.channelTruePeaks)),
     },
     clipping: { clippedSamples: m.clipping.clippedSamples, events: m.clipping.events },
+    // Iso tracks are not one programme: their loudness is per track only.
     loudness: {
-      integratedLufs: roundOrNull(m.loudness.integratedLufs, 3),
-      rangeLu: roundOrNull(m.loudness.rangeLu, 3),
-      momentaryMaxLufs: roundOrNull(m.loudness.momentaryMaxLufs, 3),
-      shortTermMaxLufs: roundOrNull(m.loudness.shortTermMaxLufs, 3),
-      shortTermSeries: m.loudness.shortTermSeries,
+      integratedLufs: roundOrNull(wholeLoudness.integratedLufs, 3),
+      rangeLu: roundOrNull(wholeLoudness.rangeLu, 3),
+      momentaryMaxLufs: roundOrNull(wholeLoudness.momentaryMaxLufs, 3),
+      shortTermMaxLufs: roundOrNull(wholeLoudness.shortTermMaxLufs, 3),
+      shortTermSeries: wholeLoudness.shortTermSeries,
     },
     noise: { floorDbfs, humHz: m.noise.humHz },
     bandwidth: {
@@ -190,12 +229,17 @@ function assembleReport(format: AudioFormat, metadata: WavMetadata, frames: numb
     },
     dropouts: m.dropouts.dropouts,
     dropoutCount: m.dropouts.dropoutCount,
-    stereo: m.stereo && {
+    silentPauses: m.dropouts.silentPauses,
+    stereo: m.stereo && layout !== 'poly' ? {
       correlation: roundTo(m.stereo.correlation, 4),
       identicalChannels: m.stereo.identicalChannels,
       polarityInverted: m.stereo.polarityInverted,
       antiPhaseShare: roundTo(m.stereo.antiPhaseShare, 4),
-    },
+      inPolaritySegments: m.stereo.polarity.inPolaritySegments,
+      invertedSegments: m.stereo.polarity.invertedSegments,
+      invertedFromSec: m.stereo.polarity.invertedFromSec,
+      invertedToSec: m.stereo.polarity.invertedToSec,
+    } : null,
     tone: m.tone,
     waveform: m.waveform,
     findings: [],

@@ -63,16 +63,30 @@ export interface BextInfo {
   codingHistory: string;
 }
 
+export type ChannelLayout = 'mono' | 'stereo' | 'surround' | 'poly';
+
 export interface ChannelReport {
+  /** The iXML track name, the loudspeaker name (L, R, C, LFE, Ls, Rs...), or null (absent in older reports). */
+  name?: string | null;
   samplePeakDbfs: number | null;
   truePeakDbtp: number | null;
   /** When the channel's true peak occurs, seconds (absent in reports made before it was measured). */
   truePeakAtSec?: number;
   rmsDbfs: number | null;
   dcOffset: number;
+  /** Mean of the quietest 20 % of 100 ms windows: the steady offset a converter adds, full scale = 1.0. */
+  steadyDcOffset?: number;
   effectiveBits: number;
   clippedSamples: number;
   silent: boolean;
+  /** Why the channel is silent: 'no-signal' (digital zero, or nothing above -90 dBFS) or 'noise-only' (steady hiss of an open input). */
+  silentKind?: 'no-signal' | 'noise-only' | null;
+  /** This channel's own integrated loudness (BS.1770, the channel alone), LUFS; null when unmeasurable. */
+  integratedLufs?: number | null;
+  /** Float samples that were NaN or ±Inf (measured as 0). */
+  nonFiniteSamples?: number;
+  /** Float samples beyond full scale (|x| > 1). */
+  overFullScaleSamples?: number;
 }
 
 export interface ClipEvent {
@@ -87,10 +101,12 @@ export interface Finding {
   check:
     | 'container' | 'format' | 'resolution' | 'clipping' | 'true-peak' | 'loudness'
     | 'noise-floor' | 'hum' | 'bandwidth' | 'aliasing' | 'dc-offset' | 'dropout'
-    | 'silent-channel' | 'stereo' | 'tone' | 'sample-rate';
+    | 'silent-channel' | 'stereo' | 'tone' | 'sample-rate' | 'non-finite' | 'over-full-scale';
   severity: Severity;
   /** Plain words a producer understands. */
   message: string;
+  /** The same in at most 90 characters, for one-line reasons (absent in older reports). */
+  summary?: string;
   channel?: number;
   startSec?: number;
   endSec?: number;
@@ -111,6 +127,17 @@ export interface AnalysisReport {
     channelMask?: number | null;
     /** Header problems the reader worked around (sizes that disagree with the bytes present...), in plain words. */
     headerIssues?: string[];
+    /** One programme for loudspeakers (mono, stereo, surround) or independent iso tracks (poly). */
+    layout?: ChannelLayout;
+  };
+  /** Float sample values that cannot be used as they are (absent in older reports). */
+  samples?: {
+    /** NaN or ±Inf samples, all channels; every measure treats them as 0. */
+    nonFinite: number;
+    firstNonFiniteSec: number | null;
+    /** Float samples beyond full scale (|x| > 1), all channels. */
+    overFullScale: number;
+    firstOverFullScaleSec: number | null;
   };
   bext: BextInfo | null;
   /** Raw iXML text when the file carries an `iXML` chunk. */
@@ -144,12 +171,20 @@ export interface AnalysisReport {
   dropouts: { startSec: number; endSec: number }[];
   /** Dropouts found, including any beyond those listed. */
   dropoutCount?: number;
+  /** The take falls to digital silence in its own pauses (gated, edited, synthesised), so gaps are not judged as dropouts. */
+  silentPauses?: boolean;
   stereo: {
     correlation: number;
     identicalChannels: boolean;
     polarityInverted: boolean;
     /** Share of audible 400 ms windows whose correlation is below -0.3. */
     antiPhaseShare?: number;
+    /** 5 s segments whose delay-tolerant comparison found the channels in the same / opposite polarity. */
+    inPolaritySegments?: number;
+    invertedSegments?: number;
+    /** Span of the segments in opposite polarity, seconds (null when none). */
+    invertedFromSec?: number | null;
+    invertedToSec?: number | null;
   } | null;
   tone: {
     startSec: number;

@@ -22,6 +22,7 @@ test_env_install() {
   command -v mariadbd >/dev/null 2>&1 || missing+=(mariadb-server)
   command -v ffmpeg >/dev/null 2>&1 || missing+=(ffmpeg)
   command -v sox >/dev/null 2>&1 || missing+=(sox)
+  command -v espeak-ng >/dev/null 2>&1 || missing+=(espeak-ng)
   [ -x /usr/bin/chromium ] || missing+=(chromium)
   command -v pdftotext >/dev/null 2>&1 || missing+=(poppler-utils)
   command -v curl >/dev/null 2>&1 || missing+=(curl)

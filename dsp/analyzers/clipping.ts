@@ -16,10 +16,41 @@ const ENTRY_SLOPE_FACTOR = 4;
 const EXTREME_LEVEL_WINDOW_DB = 0.5;
 /** At least this many flat tops at the extreme make a below-full-scale clip [common practice]. */
 const MIN_FLAT_TOPS = 3;
-/** Histogram bins per unit of full scale (magnitudes >= MIN_FLAT_TOP_LEVEL only). */
+/** Histogram bins per unit of full scale. */
 const HISTOGRAM_BINS_PER_UNIT = 2048;
+/**
+ * Histograms are filled from this magnitude up: far enough below MIN_FLAT_TOP_LEVEL that the bins a
+ * flat top at -20 dBFS is compared with are filled too (0.08 = -21.9 dBFS).
+ */
+const HISTOGRAM_FLOOR = 0.08;
+/**
+ * Of the half-cycles whose peak lies at a flat-top level, at least this share must be flat [common practice]:
+ * a clipping stage flattens every peak that reaches its level, while the rounded peaks of clean speech
+ * that happen to stop there are nearly all rounded.
+ */
+const MIN_FLAT_SHARE = 0.5;
 /** The flat-top level's bin must hold this many times the mean of the bins just below it [common practice]. */
 const HISTOGRAM_SPIKE_RATIO = 4;
+/**
+ * Plateaus: a flat top that a low-pass after the clip (the converter's anti-alias filter, a resampler)
+ * has rippled. A half-cycle whose samples stay within PLATEAU_DEPTH of its peak for at least
+ * PLATEAU_RATIO times as long as the signal took to rise from half the peak is a plateau: a rounded
+ * sine peak dwells there 0.47 times its rise, a sine clipped 1 dB below its peak 1.7 times, 3 dB below
+ * 3.8 times [computed from the sine]. [common practice]
+ */
+const PLATEAU_DEPTH = 0.03;
+const PLATEAU_RATIO = 1.5;
+/**
+ * Plateaus count as clipping when the half-cycle peaks at their level outnumber PLATEAU_PILE_UP times those
+ * in the band just under it (twice as wide), and at least MIN_PLATEAU_SHARE of them are plateaus [common practice].
+ */
+const PLATEAU_PILE_UP = 1;
+const MIN_PLATEAU_SHARE = 0.25;
+/** Plateaus whose lengths spread less than this (relative) and that rise within this many samples come from a synthesiser [common practice]. */
+const SQUARE_LENGTH_SPREAD = 0.05;
+const SQUARE_RISE_FRAMES = 3;
+/** Longest half-cycle examined for a plateau, samples (about 85 ms at 96 kHz: lower than any voice). */
+const MAX_HALF_CYCLE = 8192;
 /** Merged groups kept per channel and kind; clean audio has a handful. */
 const MAX_GROUPS = 100_000;
 
@@ -38,6 +69,9 @@ interface ClipGroup {
   level: number;
   samples: number;
   runs: number;
+  /** Plateaus only: sum of squared run lengths, and of the frames each took to rise from half its level. */
+  squaredLengths: number;
+  riseFrames: number;
 }
 
 /** Run state, merged groups and histograms of one channel. */
@@ -61,23 +95,39 @@ class ChannelClipState {
   readonly flatTopGroups: [ClipGroup[], ClipGroup[]] = [[], []];
   readonly positiveHistogram = new Uint32Array(HISTOGRAM_BINS_PER_UNIT + 2);
   readonly negativeHistogram = new Uint32Array(HISTOGRAM_BINS_PER_UNIT + 2);
+  /** Peak magnitude of each half-cycle (between sign changes), binned like the sample histograms. */
+  readonly positivePeaks = new Uint32Array(HISTOGRAM_BINS_PER_UNIT + 2);
+  readonly negativePeaks = new Uint32Array(HISTOGRAM_BINS_PER_UNIT + 2);
+  halfCycleSign = 0;
+  halfCycleMax = 0;
+  /** Magnitudes of the current half-cycle (up to MAX_HALF_CYCLE), its first frame and whether it touched a top code. */
+  readonly halfCycle = new Float64Array(MAX_HALF_CYCLE);
+  halfCycleFill = 0;
+  halfCycleStart = 0;
+  halfCycleAtLimit = false;
+  /** Plateau candidates per polarity. */
+  readonly plateauGroups: [ClipGroup[], ClipGroup[]] = [[], []];
 }
 
 /**
  * Clipping, two kinds:
- * - `fullScale`: runs of >= 3 consecutive samples at the top codes (digital overload);
- * - `belowFullScale`: flat tops left by an analogue stage that clipped before the
- *   converter and a gain stage after it. A flat top is a run of >= 3 samples of one
- *   polarity within a small tolerance of each other (converter noise allowed), entered
- *   faster than any rounded peak could be; at least three of them at one level, where
- *   the sample-value histogram shows a spike. A clean take with high
- *   peaks (a -0.1 dBFS sine, loud noise) has no such flat tops.
+ * - `fullScale`: runs of >= 3 consecutive samples at the top codes (digital overload); a float
+ *   sample beyond full scale is not clipped (yet) and is counted by the levels analyzer instead;
+ * - `belowFullScale`: flat tops left by an analogue stage that clipped before the converter and a
+ *   gain stage after it. Either runs of >= 3 samples of one polarity within a small tolerance of
+ *   each other (converter noise allowed), entered faster than any rounded peak could be, at least
+ *   three at one level where the sample-value histogram spikes and where most half-cycle peaks are
+ *   flat; or plateaus that a low-pass after the clip (the converter's own filter, a resampler) has
+ *   rippled, at a level where half-cycle peaks pile up. A clean take with high or rounded peaks
+ *   (a -0.1 dBFS sine, loud noise, a low voice at 96 kHz) has neither.
  */
 export class ClippingAnalyzer implements Analyzer<ClippingResult> {
   private readonly sampleRate: number;
   private readonly channelCount: number;
   private readonly positiveLimit: number;
   private readonly negativeLimit: number;
+  /** Float only: beyond this a sample is over full scale, not clipped at it. */
+  private readonly positiveCeiling: number;
   private readonly toleranceFloor: number;
   private readonly states: ChannelClipState[];
   private readonly mergeGapFrames: number;
@@ -91,12 +141,14 @@ export class ClippingAnalyzer implements Analyzer<ClippingResult> {
       // Float: at or beyond the 16-bit top code, so float files carrying 16- or 24-bit data are covered.
       this.positiveLimit = 1 - 2 ** -15;
       this.negativeLimit = -(1 - 2 ** -15);
+      this.positiveCeiling = 1 + 2 ** -15;
       this.toleranceFloor = FLAT_TOP_LSB_TOLERANCE * 2 ** -23;
     } else {
       const validBits = Math.min(format.validBitsPerSample || format.bitsPerSample, format.bitsPerSample);
       // Top codes: +(2^(n-1) - 1) and -2^(n-1) of the valid bits, left-justified (WAVEFORMATEXTENSIBLE).
       this.positiveLimit = 1 - 2 ** (1 - validBits);
       this.negativeLimit = -1;
+      this.positiveCeiling = Number.POSITIVE_INFINITY;
       this.toleranceFloor = FLAT_TOP_LSB_TOLERANCE * 2 ** (1 - validBits);
     }
     this.mergeGapFrames = Math.round(MERGE_GAP_SEC * format.sampleRate);
@@ -110,6 +162,15 @@ export class ClippingAnalyzer implements Analyzer<ClippingResult> {
   private pushChannel(state: ChannelClipState, samples: Float64Array, frames: number, startFrame: number): void {
     const positiveLimit = this.positiveLimit;
     const negativeLimit = this.negativeLimit;
+    const positiveCeiling = this.positiveCeiling;
+    const positivePeaks = state.positivePeaks;
+    const negativePeaks = state.negativePeaks;
+    let halfCycleSign = state.halfCycleSign;
+    let halfCycleMax = state.halfCycleMax;
+    const halfCycle = state.halfCycle;
+    let halfCycleFill = state.halfCycleFill;
+    let halfCycleStart = state.halfCycleStart;
+    let halfCycleAtLimit = state.halfCycleAtLimit;
     const toleranceFloor = this.toleranceFloor;
     const positiveHistogram = state.positiveHistogram;
     const negativeHistogram = state.negativeHistogram;
@@ -133,7 +194,8 @@ export class ClippingAnalyzer implements Analyzer<ClippingResult> {
       const magnitude = x < 0 ? -x : x;
 
       // Full-scale runs.
-      const atLimit = x >= positiveLimit ? 1 : x <= negativeLimit ? -1 : 0;
+      // A float sample beyond full scale is not clipped (yet): the levels analyzer counts it.
+      const atLimit = x >= positiveLimit ? (x <= positiveCeiling ? 1 : 0) : x <= negativeLimit ? (x >= -positiveCeiling ? -1 : 0) : 0;
       if (atLimit !== 0 || fullScaleRunLength !== 0) {
         if (atLimit !== 0 && atLimit === fullScaleRunSign) {
           fullScaleRunLength++;
@@ -145,12 +207,32 @@ export class ClippingAnalyzer implements Analyzer<ClippingResult> {
         }
       }
 
-      if (magnitude >= MIN_FLAT_TOP_LEVEL) {
+      if (magnitude >= HISTOGRAM_FLOOR) {
         let bin = (magnitude * HISTOGRAM_BINS_PER_UNIT) | 0;
         if (bin > topBin) bin = topBin;
         if (x > 0) positiveHistogram[bin]++;
         else negativeHistogram[bin]++;
       }
+      // Half-cycles: from one sign change to the next.
+      if (x > 0 ? halfCycleSign <= 0 : x < 0 && halfCycleSign >= 0) {
+        if (halfCycleMax >= HISTOGRAM_FLOOR) {
+          let bin = (halfCycleMax * HISTOGRAM_BINS_PER_UNIT) | 0;
+          if (bin > topBin) bin = topBin;
+          if (halfCycleSign > 0) positivePeaks[bin]++;
+          else negativePeaks[bin]++;
+          if (halfCycleMax >= MIN_FLAT_TOP_LEVEL && halfCycleFill < MAX_HALF_CYCLE && !halfCycleAtLimit) {
+            this.closeHalfCycle(state, halfCycleSign, halfCycleMax, halfCycleFill, halfCycleStart);
+          }
+        }
+        halfCycleSign = x > 0 ? 1 : -1;
+        halfCycleMax = 0;
+        halfCycleFill = 0;
+        halfCycleStart = startFrame + i;
+        halfCycleAtLimit = false;
+      }
+      if (magnitude > halfCycleMax) halfCycleMax = magnitude;
+      if (halfCycleFill < MAX_HALF_CYCLE) halfCycle[halfCycleFill++] = magnitude;
+      if (atLimit !== 0) halfCycleAtLimit = true;
 
       // Flat-top runs below full scale: same polarity, within tolerance of the run's first sample.
       if (flatRunLength > 0) {
@@ -196,19 +278,65 @@ export class ClippingAnalyzer implements Analyzer<ClippingResult> {
     state.previous2 = previous2;
     state.previous3 = previous3;
     state.previousAtLimit = previousAtLimit;
+    state.halfCycleSign = halfCycleSign;
+    state.halfCycleMax = halfCycleMax;
+    state.halfCycleFill = halfCycleFill;
+    state.halfCycleStart = halfCycleStart;
+    state.halfCycleAtLimit = halfCycleAtLimit;
+  }
+
+  /** Keeps a finished half-cycle as a plateau candidate when it dwells at its peak far longer than it took to rise. */
+  private closeHalfCycle(state: ChannelClipState, sign: number, peak: number, length: number, startFrame: number): void {
+    const magnitudes = state.halfCycle;
+    const top = (1 - PLATEAU_DEPTH) * peak;
+    let first = 0;
+    while (magnitudes[first] < top) first++;
+    let last = length - 1;
+    while (magnitudes[last] < top) last--;
+    const dwell = last - first + 1;
+    if (dwell < MIN_CLIP_RUN) return;
+    // One plateau, not two peaks with a valley between them.
+    let sum = 0;
+    const floor = (1 - 2 * PLATEAU_DEPTH) * peak;
+    for (let i = first; i <= last; i++) {
+      if (magnitudes[i] < floor) return;
+      sum += magnitudes[i];
+    }
+    const half = peak / 2;
+    let rise = first;
+    while (rise > 0 && magnitudes[rise - 1] >= half) rise--;
+    let fall = last;
+    while (fall < length - 1 && magnitudes[fall + 1] >= half) fall++;
+    const slowest = Math.max(first - rise + 1, fall - last + 1);
+    if (dwell < PLATEAU_RATIO * slowest) return;
+    this.addRun(state.plateauGroups[sign > 0 ? 0 : 1], startFrame + first, dwell, sum / dwell, PLATEAU_DEPTH * peak, first - rise + 1);
   }
 
   /** Adds a run to the groups, merging it into the last group when close in time and (for flat tops) in level. */
-  private addRun(groups: ClipGroup[], start: number, length: number, level: number, levelTolerance: number): void {
+  private addRun(groups: ClipGroup[], start: number, length: number, level: number, levelTolerance: number, riseFrames = 0): void {
     const last = groups[groups.length - 1];
     if (last && start - last.end <= this.mergeGapFrames && Math.abs(last.level - level) <= levelTolerance) {
       last.end = start + length;
       last.samples += length;
       last.runs++;
+      last.squaredLengths += length * length;
+      last.riseFrames += riseFrames;
       if (level > last.level) last.level = level;
       return;
     }
-    if (groups.length < MAX_GROUPS) groups.push({ start, end: start + length, level, samples: length, runs: 1 });
+    if (groups.length < MAX_GROUPS) groups.push({ start, end: start + length, level, samples: length, runs: 1, squaredLengths: length * length, riseFrames });
+  }
+
+  /**
+   * A synthesiser's square or trapezium wave: plateaus of one length, reached in a sample or two. A
+   * clipped voice or instrument makes plateaus of many lengths, entered along its own waveform.
+   */
+  private static isSynthesisedSquare(cluster: ClipGroup[]): boolean {
+    const count = cluster.reduce((sum, group) => sum + group.runs, 0);
+    const mean = cluster.reduce((sum, group) => sum + group.samples, 0) / count;
+    const variance = cluster.reduce((sum, group) => sum + group.squaredLengths, 0) / count - mean * mean;
+    const meanRise = cluster.reduce((sum, group) => sum + group.riseFrames, 0) / count;
+    return Math.sqrt(Math.max(0, variance)) <= SQUARE_LENGTH_SPREAD * mean && meanRise <= SQUARE_RISE_FRAMES;
   }
 
   /** Keeps a flat run as a candidate when the signal ran into it faster than a rounded peak can. */
@@ -250,6 +378,15 @@ export class ClippingAnalyzer implements Analyzer<ClippingResult> {
     return spike >= HISTOGRAM_SPIKE_RATIO * Math.max(1, below / width);
   }
 
+  /** Half-cycles whose peak lies within [low, high] (linear magnitudes). */
+  private static peaksBetween(peaks: Uint32Array, low: number, high: number): number {
+    const first = Math.max(0, Math.floor(low * HISTOGRAM_BINS_PER_UNIT));
+    const last = Math.min(HISTOGRAM_BINS_PER_UNIT + 1, Math.floor(high * HISTOGRAM_BINS_PER_UNIT));
+    let count = 0;
+    for (let bin = first; bin <= last; bin++) count += peaks[bin];
+    return count;
+  }
+
   finish(): ClippingResult {
     const events: ClipEvent[] = [];
     const channelClippedSamples: number[] = [];
@@ -266,6 +403,25 @@ export class ClippingAnalyzer implements Analyzer<ClippingResult> {
           const meanLevel = cluster.reduce((sum, group) => sum + group.level * group.runs, 0) / flatTops;
           const tolerance = Math.max(this.toleranceFloor, meanLevel * FLAT_TOP_RELATIVE_TOLERANCE);
           if (!ClippingAnalyzer.isHistogramSpike(histogram, meanLevel, tolerance)) continue;
+          const lowest = Math.min(...cluster.map((group) => group.level));
+          const highest = Math.max(...cluster.map((group) => group.level));
+          const peaks = ClippingAnalyzer.peaksBetween(polarity === 0 ? state.positivePeaks : state.negativePeaks, lowest - 2 * tolerance, highest + 2 * tolerance);
+          if (flatTops < MIN_FLAT_SHARE * peaks) continue;
+          for (const group of cluster) kept.push({ ...group, kind: 'belowFullScale' });
+        }
+      }
+      for (const polarity of [0, 1] as const) {
+        const peaksHistogram = polarity === 0 ? state.positivePeaks : state.negativePeaks;
+        for (const cluster of ClippingAnalyzer.levelClusters(state.plateauGroups[polarity])) {
+          const plateaus = cluster.reduce((sum, group) => sum + group.runs, 0);
+          if (plateaus < MIN_FLAT_TOPS) continue;
+          const lowest = Math.min(...cluster.map((group) => group.level));
+          const highest = Math.max(...cluster.map((group) => group.level));
+          // Half-cycle peaks pile up at a clipping level: more of them end there than in a band twice as wide just under it.
+          const peaksAtLevel = ClippingAnalyzer.peaksBetween(peaksHistogram, lowest, highest * (1 + 2 * PLATEAU_DEPTH));
+          const peaksUnder = ClippingAnalyzer.peaksBetween(peaksHistogram, lowest * (1 - 5 * PLATEAU_DEPTH), lowest * (1 - PLATEAU_DEPTH));
+          if (peaksAtLevel < PLATEAU_PILE_UP * peaksUnder || plateaus < MIN_PLATEAU_SHARE * peaksAtLevel) continue;
+          if (ClippingAnalyzer.isSynthesisedSquare(cluster)) continue;
           for (const group of cluster) kept.push({ ...group, kind: 'belowFullScale' });
         }
       }

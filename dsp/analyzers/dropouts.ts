@@ -2,6 +2,14 @@ import type { Analyzer, AudioFormat, SampleBlock } from '../types';
 
 /** Shortest digital-silence gap reported as a dropout, seconds [common practice: 1-10 ms]. */
 export const DEFAULT_MIN_DROPOUT_SEC = 0.005;
+/**
+ * Material that falls to digital silence in its own pauses (gated, edited or synthesised speech) has
+ * gaps a dropout cannot be told from: at least this many gaps, making up this share of the take, one
+ * of them at least this long (a pause, not a glitch) [common practice].
+ */
+const SILENT_PAUSES_MIN_GAPS = 5;
+const SILENT_PAUSES_MIN_SHARE = 0.02;
+const SILENT_PAUSES_MIN_LONGEST_SEC = 0.15;
 /** Dropouts kept in the report; more are counted but not listed. */
 const MAX_LISTED_DROPOUTS = 10_000;
 
@@ -9,6 +17,8 @@ export interface DropoutResult {
   dropouts: { startSec: number; endSec: number }[];
   /** All dropouts found, including those beyond the listed ones. */
   dropoutCount: number;
+  /** The take falls to digital silence in its own pauses, so its gaps cannot be judged as dropouts. */
+  silentPauses: boolean;
 }
 
 /**
@@ -25,6 +35,9 @@ export class DropoutAnalyzer implements Analyzer<DropoutResult> {
   private signalSeen = false;
   private readonly found: { startSec: number; endSec: number }[] = [];
   private count = 0;
+  private gapFrames = 0;
+  private longestGapFrames = 0;
+  private frames = 0;
 
   /**
    * @param format sample rate and channel count
@@ -57,16 +70,23 @@ export class DropoutAnalyzer implements Analyzer<DropoutResult> {
       }
       this.signalSeen = true;
     }
+    this.frames += frames;
   }
 
   private record(startFrame: number, endFrame: number): void {
     this.count++;
+    this.gapFrames += endFrame - startFrame;
+    this.longestGapFrames = Math.max(this.longestGapFrames, endFrame - startFrame);
     if (this.found.length < MAX_LISTED_DROPOUTS) {
       this.found.push({ startSec: startFrame / this.sampleRate, endSec: endFrame / this.sampleRate });
     }
   }
 
   finish(): DropoutResult {
-    return { dropouts: this.found, dropoutCount: this.count };
+    const silentPauses =
+      this.count >= SILENT_PAUSES_MIN_GAPS &&
+      this.gapFrames >= SILENT_PAUSES_MIN_SHARE * this.frames &&
+      this.longestGapFrames >= SILENT_PAUSES_MIN_LONGEST_SEC * this.sampleRate;
+    return { dropouts: this.found, dropoutCount: this.count, silentPauses };
   }
 }

@@ -51,9 +51,10 @@ export class WorkerAnalyzers {
 
   /**
    * Starts the worker for a format.
+   * @param perTrack also measure each channel's own loudness (iso tracks)
    * @returns the running worker, or null when worker threads are not available here (the caller then analyses on one thread)
    */
-  static async start(format: AudioFormat): Promise<WorkerAnalyzers | null> {
+  static async start(format: AudioFormat, perTrack = false): Promise<WorkerAnalyzers | null> {
     let worker: Worker;
     try {
       worker = new Worker(new URL('./analysisWorkerEntry.mjs', import.meta.url));
@@ -70,7 +71,7 @@ export class WorkerAnalyzers {
         clearTimeout(timer);
         resolve(false);
       });
-      worker.postMessage({ kind: 'start', format } satisfies ToWorker);
+      worker.postMessage({ kind: 'start', format, perTrack } satisfies ToWorker);
     });
     if (!ready) {
       await worker.terminate();

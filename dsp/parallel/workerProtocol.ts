@@ -5,7 +5,7 @@ import type { AudioFormat } from '../types';
 
 /** Messages from the pipeline to the analysis worker. */
 export type ToWorker =
-  | { kind: 'start'; format: AudioFormat }
+  | { kind: 'start'; format: AudioFormat; perTrack: boolean }
   | { kind: 'block'; channels: Float64Array[]; frames: number; startFrame: number }
   | { kind: 'finish' };
 
@@ -14,5 +14,5 @@ export type FromWorker =
   | { kind: 'ready' }
   /** A block is done; its buffers come back for reuse. */
   | { kind: 'done'; channels: Float64Array[] }
-  | { kind: 'results'; truePeak: TruePeakResult; loudness: LoudnessResult; clipping: ClippingResult }
+  | { kind: 'results'; truePeak: TruePeakResult; loudness: LoudnessResult; trackLoudness: LoudnessResult[] | null; clipping: ClippingResult }
   | { kind: 'failed'; message: string };

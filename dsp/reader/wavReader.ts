@@ -37,6 +37,13 @@ export interface OpenedWav {
   framesRead(): number;
   /** Bytes of the file consumed so far (header included). */
   bytesRead(): number;
+  /** Float samples that were NaN or ±Inf (decoded as 0), per channel, and the first frame holding one. */
+  nonFiniteSamples(): NonFiniteSamples;
+}
+
+export interface NonFiniteSamples {
+  perChannel: number[];
+  firstFrame: number | null;
 }
 
 export interface OpenWavOptions {
@@ -199,6 +206,7 @@ export async function openWav(readable: Readable, options: OpenWavOptions = {}):
   const blockFrames = Math.max(1, Math.min(options.blockFrames ?? DEFAULT_BLOCK_FRAMES, Math.floor(MAX_BLOCK_BYTES / format.blockAlign)));
   const decoder = new SampleDecoder(format.encoding, format.bitsPerSample, format.channels);
   let framesDecoded = 0;
+  let firstNonFiniteFrame: number | null = null;
   let audioCutShort = false;
   const audioSource = source;
   const fromStream = !dataBeforeFmt;
@@ -223,7 +231,8 @@ export async function openWav(readable: Readable, options: OpenWavOptions = {}):
           issues.push(`The audio ends with a partial frame (${got % format.blockAlign} bytes), which was ignored.`);
         }
         if (frames === 0) continue;
-        decoder.decode(interleaved, frames, channelData);
+        const nonFiniteAt = decoder.decode(interleaved, frames, channelData);
+        if (nonFiniteAt >= 0 && firstNonFiniteFrame === null) firstNonFiniteFrame = framesDecoded + nonFiniteAt;
         block.frames = frames;
         block.startFrame = framesDecoded;
         framesDecoded += frames;
@@ -290,5 +299,12 @@ export async function openWav(readable: Readable, options: OpenWavOptions = {}):
     }
   }
 
-  return { format, metadata, blocks, framesRead: () => framesDecoded, bytesRead: () => source.position };
+  return {
+    format,
+    metadata,
+    blocks,
+    framesRead: () => framesDecoded,
+    bytesRead: () => source.position,
+    nonFiniteSamples: () => ({ perChannel: [...decoder.nonFiniteSamples], firstFrame: firstNonFiniteFrame }),
+  };
 }

@@ -127,6 +127,8 @@ export const CHECK_LABEL: Record<Finding['check'], string> = {
   stereo: 'Stereo',
   tone: 'Line-up tone',
   'sample-rate': 'Sample rate',
+  'non-finite': 'Invalid samples',
+  'over-full-scale': 'Over full scale',
 };
 
 /** The index of the marker to move to from `time` (arrow keys): the next one after it, or the one before. */

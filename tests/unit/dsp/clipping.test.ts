@@ -4,10 +4,12 @@ import { formatOf, runAnalyzer } from '../../support/analyzerHarness';
 import { ProgrammeGenerator, concat, seededRandom, sine } from '../../support/testSignals';
 import { analyzeWavBuffer } from '../../support/wavStreams';
 import { encodeSamples, wavFile, type SampleCoding } from '../../support/wavWriter';
+import { LINES, VOICES } from '../../../scripts/eval/material';
+import { converterBand, resample, speak, synthesise } from '../../../scripts/eval/tools';
 
 const RATE = 48000;
-const clipsOfWav = (coding: SampleCoding, channels: Float64Array[]) =>
-  analyzeWavBuffer(wavFile({ sampleRate: RATE, channels: channels.length, coding }, encodeSamples(channels, coding)), (format) => new ClippingAnalyzer(format));
+const clipsOfWav = (coding: SampleCoding, channels: Float64Array[], sampleRate = RATE) =>
+  analyzeWavBuffer(wavFile({ sampleRate, channels: channels.length, coding }, encodeSamples(channels, coding)), (format) => new ClippingAnalyzer(format));
 const clamp = (signal: Float64Array, limit: number) => signal.map((x) => Math.max(-limit, Math.min(limit, x)));
 
 describe('full-scale clipping (runs of >= 3 samples at the top codes) [common practice]', () => {
@@ -32,17 +34,20 @@ describe('full-scale clipping (runs of >= 3 samples at the top codes) [common pr
     expect((await clipsOfWav('pcm24', [signal])).events).toHaveLength(0);
   });
 
-  it('counts float samples at or beyond full scale, on the right channel', () => {
+  it('counts float samples held at full scale, on the right channel; float samples beyond full scale are not clipped', () => {
     const quiet = sine(997, 0.3, 1, RATE);
-    const hot = concat(sine(997, 0.3, 0.5, RATE), clamp(sine(997, 1.5, 0.1, RATE), 1.2), sine(997, 0.3, 0.4, RATE));
+    const hot = concat(sine(997, 0.3, 0.5, RATE), clamp(sine(997, 1.5, 0.1, RATE), 1), sine(997, 0.3, 0.4, RATE));
     const result = runAnalyzer(new ClippingAnalyzer(formatOf(RATE, 2)), [quiet, hot]);
     expect(result.events).toHaveLength(1);
     expect(result.events[0].channel).toBe(1);
     expect(result.channelClippedSamples[0]).toBe(0);
+    // A float stage gained past 1.0 has not clipped (yet): the samples carry the whole waveform.
+    const over = concat(sine(997, 0.3, 0.5, RATE), sine(997, 1.5, 0.1, RATE), sine(997, 0.3, 0.4, RATE));
+    expect(runAnalyzer(new ClippingAnalyzer(formatOf(RATE, 1)), [over]).events).toEqual([]);
   });
 });
 
-describe('flat tops below full scale (analogue clip, then gain lowered)', () => {
+describe('flat tops below full scale (analogue clip, then gain lowered): >= 3 flat tops at one level, most peaks there flat [common practice]', () => {
   /** A sine clipped at `clipLevel`, scaled by `gain`, with converter noise (rms `noiseRms`) added after the clip. */
   function analogueClip(frequency: number, seconds: number, clipLevel: number, gain: number, noiseRms: number, seed = 1): Float64Array {
     const random = seededRandom(seed);
@@ -83,6 +88,52 @@ describe('flat tops below full scale (analogue clip, then gain lowered)', () => 
     expect(kinds).toEqual(['belowFullScale', 'fullScale']);
     expect(Math.abs(result.events[0].levelDbfs - -12)).toBeLessThan(0.05);
     expect(result.events[1].startSec).toBeCloseTo(2, 2);
+  });
+
+  it('finds flat tops at -20 dBFS, the lowest level examined, with converter noise on them', async () => {
+    const gain = 10 ** (-20 / 20) / 0.5;
+    const signal = concat(sine(150, 0.05, 1, RATE), analogueClip(150, 1, 0.5, gain, 10 ** (-105 / 20), 8), sine(150, 0.05, 1, RATE));
+    const result = await clipsOfWav('pcm24', [signal]);
+    expect(result.events).toHaveLength(1);
+    expect(Math.abs(result.events[0].levelDbfs - -20)).toBeLessThan(0.05);
+    expect(result.events[0].startSec).toBeGreaterThan(0.99);
+  });
+
+  it('finds flat tops rippled by the converter\'s anti-alias filter after an analogue clip (sox sinc low-pass at 0.45 fs)', async () => {
+    const random = seededRandom(12);
+    const voice = speak(LINES[4], VOICES[1], RATE, -10, 0);
+    const clipped = clamp(voice.map((x) => x * 10 ** (14 / 20)), 10 ** (-6 / 20)).map((x) => x * 10 ** (-3 / 20));
+    const filtered = converterBand(clipped, RATE).map((x) => x + 10 ** (-105 / 20) * (random() - random()));
+    const result = await clipsOfWav('pcm24', [filtered]);
+    expect(result.events.length).toBeGreaterThan(0);
+    expect(result.events.every((event) => event.level === 'belowFullScale' && Math.abs(event.levelDbfs - -9) < 0.5)).toBe(true);
+  });
+
+  it('a synthesiser\'s square wave (sox synth square, its plateaus all one length) is not clipping', async () => {
+    const square = synthesise(3, ['square', '220'], RATE, 1, ['gain', '-6'])[0];
+    expect((await clipsOfWav('pcm24', [square])).events).toEqual([]);
+  });
+
+  describe('rounded peaks of voiced speech are not flat tops (espeak-ng speech, levelled and resampled with sox)', () => {
+    // Low voices at high rates put several nearly equal samples on every rounded peak; a narrowband
+    // voice converted up is smoother still. Peak levels include -20 dBFS, where flat tops start to be examined.
+    const line = 'Now the long road winds along the river, and all around the meadow lies a morning calm.';
+    it.each([
+      [{ name: 'en-us+m7', rate: 140, pitch: 20 }, 96000, -1],
+      [{ name: 'en-us+m1', rate: 140, pitch: 20 }, 96000, -3],
+      [{ name: 'en-gb+m3', rate: 140, pitch: 20 }, 96000, -3],
+      [{ name: 'en-us+m7', rate: 140, pitch: 20 }, 48000, -3],
+      [VOICES[2], 96000, -20],
+      [VOICES[1], 44100, -1],
+    ])('%j at %i Hz, peak %s dBFS, dry', async (voice, sampleRate, peakDbfs) => {
+      const speech = speak(line, voice, sampleRate, peakDbfs, 0);
+      expect((await clipsOfWav('pcm24', [speech], sampleRate)).events).toEqual([]);
+    });
+
+    it('speech made at 8 kHz and converted up to 48 kHz, peak -16.5 dBFS', async () => {
+      const speech = resample(speak(LINES[2], VOICES[0], 8000, -16.5), 8000, 48000);
+      expect((await clipsOfWav('pcm24', [speech], 48000)).events).toEqual([]);
+    });
   });
 
   describe('clean takes with high peaks report none', () => {

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { judgeReport, verdictOf } from '../../../dsp/findings';
+import { REASON_MAX_LENGTH, judgeReport, reasonOf, verdictOf } from '../../../dsp/findings';
 import { formatClock } from '../../../dsp/format';
 import { DEFAULT_SPEC, type DeliverySpec } from '../../../dsp/spec';
 import type { AnalysisReport, Finding } from '../../../dsp/types';
@@ -121,6 +121,11 @@ describe('judgeReport', () => {
     expect(only(judge((r) => (r.channels[1].dcOffset = -0.02)), 'dc-offset')[0]).toMatchObject({ severity: 'fail', channel: 1 });
   });
 
+  it('dc-offset: judged on the steady offset of the quiet passages when it was measured, not on the mean of an asymmetric waveform', () => {
+    expect(only(judge((r) => Object.assign(r.channels[0], { dcOffset: 0.004, steadyDcOffset: 0 })), 'dc-offset')).toEqual([]);
+    expect(only(judge((r) => Object.assign(r.channels[0], { dcOffset: 0.004, steadyDcOffset: 0.003 })), 'dc-offset')[0].message).toMatch(/0.30% of full scale/);
+  });
+
   it('dropout: counts, times and severity', () => {
     const finding = only(judge((r) => (r.dropouts = [{ startSec: 3.2, endSec: 3.225 }])), 'dropout')[0];
     expect(finding).toMatchObject({ severity: 'fail', startSec: 3.2, endSec: 3.225, message: '1 dropout (digital silence inside the take) at 0:03.2 (25 ms).' });
@@ -142,10 +147,14 @@ describe('judgeReport', () => {
     expect(only(findings, 'silent-channel')).toEqual([]);
   });
 
-  it('stereo: identical channels, inverted polarity, sustained anti-phase', () => {
+  it('stereo: identical channels, inverted polarity (whole take or a stretch); anti-phase windows alone are no fault', () => {
     expect(only(judge((r) => (r.stereo!.identicalChannels = true)), 'stereo')[0].message).toMatch(/mono take in a stereo file/);
-    expect(only(judge((r) => Object.assign(r.stereo!, { polarityInverted: true, correlation: -0.93 })), 'stereo')[0]).toMatchObject({ severity: 'warn', message: expect.stringMatching(/opposite polarity \(correlation -0.93\)/) });
-    expect(only(judge((r) => (r.stereo!.antiPhaseShare = 0.2)), 'stereo')[0].message).toMatch(/20% of the take/);
+    const inverted = only(judge((r) => Object.assign(r.stereo!, { polarityInverted: true, correlation: -0.93, invertedSegments: 2, invertedFromSec: 0, invertedToSec: 10 })), 'stereo')[0];
+    expect(inverted).toMatchObject({ severity: 'warn', message: expect.stringMatching(/opposite polarity: one of them is probably wired inverted/) });
+    const stretch = only(judge((r) => Object.assign(r.stereo!, { polarityInverted: true, invertedSegments: 1, inPolaritySegments: 1, invertedFromSec: 0, invertedToSec: 5 })), 'stereo')[0];
+    expect(stretch).toMatchObject({ startSec: 0, endSec: 5, message: expect.stringMatching(/from 0:00.0 to 0:05.0/) });
+    // Two voices on two microphones are unrelated, so some windows read negative: no warning on that alone.
+    expect(only(judge((r) => (r.stereo!.antiPhaseShare = 0.2)), 'stereo')).toEqual([]);
   });
 
   it('tone: reported as information, and a tone shifted by a wrong rate flags the rate', () => {
@@ -160,6 +169,98 @@ describe('judgeReport', () => {
     expect(verdictOf(judgeReport(report, DEFAULT_SPEC))).toBe('warn');
     expect(verdictOf(judgeReport(report, { ...DEFAULT_SPEC, loudnessTargetLufs: -16 }))).toBe('pass');
     expect(verdictOf(judgeReport(report, { ...DEFAULT_SPEC, loudnessIsStrict: true }))).toBe('fail');
+  });
+});
+
+describe('non-finite and over-full-scale float samples', () => {
+  it('fails a take with samples that are not numbers, saying how many and when the first one is', () => {
+    const finding = only(judge((r) => {
+      r.samples = { nonFinite: 3, firstNonFiniteSec: 2.5, overFullScale: 0, firstOverFullScaleSec: null };
+      r.channels[1].nonFiniteSamples = 3;
+    }), 'non-finite')[0];
+    expect(finding).toMatchObject({ severity: 'fail', channel: 1, startSec: 2.5 });
+    expect(finding.message).toMatch(/^3 samples are not a number \(NaN or infinity\), the first at 0:02.5 on right channel/);
+  });
+
+  it('warns of float samples beyond full scale as a finding of their own, not as clipping', () => {
+    const findings = judge((r) => {
+      r.file.encoding = 'float';
+      r.file.bitsPerSample = 32;
+      r.peak.samplePeakDbfs = 3;
+      r.samples = { nonFinite: 0, firstNonFiniteSec: null, overFullScale: 1200, firstOverFullScaleSec: 3.1 };
+    });
+    expect(only(findings, 'clipping')).toEqual([]);
+    expect(only(findings, 'over-full-scale')[0]).toMatchObject({ severity: 'warn', startSec: 3.1, message: expect.stringMatching(/not clipped yet, but they will clip when converted to fixed point/) });
+  });
+});
+
+describe('poly takes (iso tracks)', () => {
+  const poly = (r: AnalysisReport) => {
+    r.file.layout = 'poly';
+    r.file.channels = 3;
+    r.stereo = null;
+    r.loudness.integratedLufs = null;
+    const channel = r.channels[0];
+    r.channels = [
+      { ...channel, name: 'Boom', integratedLufs: -30 },
+      { ...channel, name: 'Lav Anna', integratedLufs: -27 },
+      { ...channel, name: 'Lav 3', silent: true, silentKind: 'noise-only', integratedLufs: null },
+    ];
+  };
+
+  it('an unused track is a note, not a failure; no whole-take loudness is judged', () => {
+    const findings = judge(poly);
+    expect(findings.filter((finding) => finding.severity !== 'info')).toEqual([]);
+    expect(only(findings, 'silent-channel')[0]).toMatchObject({ severity: 'info', channel: 2, message: 'Track 3 (Lav 3) carries only a steady noise, no programme: an unused track.' });
+    expect(only(findings, 'loudness')).toEqual([]);
+  });
+
+  it('names tracks by their iXML names in findings', () => {
+    const findings = judge((r) => {
+      poly(r);
+      r.clipping.events = [{ channel: 1, startSec: 5, endSec: 5.2, level: 'belowFullScale', levelDbfs: -10 }];
+    });
+    expect(only(findings, 'clipping')[0].message).toMatch(/on track 2 \(Lav Anna\), flat-topped at -10.0 dBFS/);
+  });
+});
+
+describe('what cannot be judged is said, not alarmed', () => {
+  it('an empty LFE channel in a surround take is a note', () => {
+    const findings = judge((r) => {
+      r.file.layout = 'surround';
+      r.file.channels = 6;
+      r.stereo = null;
+      r.channels = ['L', 'R', 'C', 'LFE', 'Ls', 'Rs'].map((name) => ({ ...r.channels[0], name, silent: name === 'LFE', silentKind: name === 'LFE' ? ('no-signal' as const) : null }));
+    });
+    expect(only(findings, 'silent-channel')).toEqual([{ check: 'silent-channel', severity: 'info', channel: 3, message: 'The LFE channel carries no signal: normal when the programme has no low-frequency effects.' }]);
+  });
+
+  it('two channels with nothing in common: polarity cannot be checked, said as a note', () => {
+    const findings = only(judge((r) => Object.assign(r.stereo!, { inPolaritySegments: 0, invertedSegments: 0 })), 'stereo');
+    expect(findings).toHaveLength(1);
+    expect(findings[0]).toMatchObject({ severity: 'info', message: expect.stringMatching(/relative polarity cannot be checked/) });
+    // Reports made before the comparison existed say nothing.
+    expect(only(judgeReport(cleanReport(), DEFAULT_SPEC), 'stereo')).toEqual([]);
+  });
+});
+
+describe('reasonOf: one line for the verdict', () => {
+  it('is null for a take that passes, and the worst finding in at most 90 characters otherwise', () => {
+    expect(reasonOf(judgeReport(cleanReport(), DEFAULT_SPEC))).toBeNull();
+    const findings = judge((r) => {
+      r.loudness.integratedLufs = -16;
+      r.clipping.events = [1, 2, 3].map((t) => ({ channel: 0, startSec: t, endSec: t + 0.1, level: 'belowFullScale' as const, levelDbfs: -3 }));
+    });
+    expect(reasonOf(findings)).toBe('Clipped before the converter: 3 flat tops at -3.0 dBFS on left channel');
+  });
+
+  it('prefers a failure over a warning, and shortens a long message at a clause', () => {
+    const long: Finding = { check: 'container', severity: 'warn', message: `The header declares 1.2 GiB of audio but the file holds only 0.8 GiB: it was probably cut short. ${'x'.repeat(80)}` };
+    expect(reasonOf([long])).toBe('The header declares 1.2 GiB of audio but the file holds only 0.8 GiB');
+    expect(reasonOf([long, { check: 'dropout', severity: 'fail', message: 'x', summary: '1 dropout (digital silence), first at 0:03.2' }])).toBe('1 dropout (digital silence), first at 0:03.2');
+    expect(reasonOf([{ check: 'tone', severity: 'info', message: 'Line-up tone' }])).toBeNull();
+    const unbroken = only(judge((r) => (r.file.headerIssues = ['y '.repeat(100)])), 'container');
+    expect(reasonOf(unbroken)!.length).toBeLessThanOrEqual(REASON_MAX_LENGTH);
   });
 });
 

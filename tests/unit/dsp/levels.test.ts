@@ -34,6 +34,61 @@ describe('levels', () => {
   });
 });
 
+describe('steady DC offset: the mean of the quietest 100 ms windows, net of their scatter [common practice]', () => {
+  /** Speech-like bursts of an asymmetric waveform (a mean while it sounds) with pauses of room noise. */
+  function asymmetricBursts(offset: number, seed: number): Float64Array {
+    const random = seededRandom(seed);
+    return new Float64Array(RATE * 8).map((_, i) => {
+      const voiced = Math.floor(i / (0.6 * RATE)) % 2 === 0;
+      const wave = 0.3 * Math.max(0, Math.sin((2 * Math.PI * 120 * i) / RATE)) ** 3;
+      return (voiced ? wave : 0) + 3e-4 * (random() - random()) + offset;
+    });
+  }
+
+  it('reads no steady offset in an asymmetric waveform whose mean comes and goes with the sound', () => {
+    const [channel] = runAnalyzer(new LevelsAnalyzer(formatOf(RATE, 1)), [asymmetricBursts(0, 1)]).channels;
+    expect(channel.dcOffset).toBeGreaterThan(0.01);
+    expect(channel.steadyDcOffset).toBe(0);
+  });
+
+  it('reads a converter offset that is there all the time, within 5 %', () => {
+    const [channel] = runAnalyzer(new LevelsAnalyzer(formatOf(RATE, 1)), [asymmetricBursts(-0.003, 2)]).channels;
+    expect(Math.abs(channel.steadyDcOffset - -0.003)).toBeLessThan(0.00015);
+  });
+});
+
+describe('dead channels: no signal, or only a steady noise [common practice]', () => {
+  const hiss = (dbfs: number, seed: number, seconds = 4) => {
+    const random = seededRandom(seed);
+    return new Float64Array(RATE * seconds).map(() => 10 ** (dbfs / 20) * Math.sqrt(6) * (random() - random()));
+  };
+  const programme = (seed: number) => {
+    const random = seededRandom(seed);
+    return new Float64Array(RATE * 4).map((_, i) => (0.2 + 0.2 * Math.sin(i / 9000)) * Math.sin(i / 7) * (Math.floor(i / 20000) % 3 === 0 ? 0.01 : 1) + 1e-4 * random());
+  };
+
+  it('marks open inputs dead: hiss at -90 dBFS (no signal), at -84 dBFS, and 30 dB under a live channel (noise only)', () => {
+    const { channels } = runAnalyzer(new LevelsAnalyzer(formatOf(RATE, 4)), [programme(1), hiss(-90.5, 2), hiss(-84, 3), hiss(-60, 4)]);
+    expect(channels.map((channel) => channel.silentKind)).toEqual([null, 'no-signal', 'noise-only', 'noise-only']);
+    expect(channels.map((channel) => channel.silent)).toEqual([false, true, true, true]);
+  });
+
+  it('leaves steady material that is the programme alone: room tone on its own, ambience on every channel', () => {
+    expect(runAnalyzer(new LevelsAnalyzer(formatOf(RATE, 1)), [hiss(-63, 4)]).channels[0].silent).toBe(false);
+    expect(runAnalyzer(new LevelsAnalyzer(formatOf(RATE, 2)), [hiss(-30, 5), hiss(-31, 6)]).channels.map((channel) => channel.silent)).toEqual([false, false]);
+  });
+});
+
+describe('float samples beyond full scale', () => {
+  it('counts them per channel with the first frame', () => {
+    const signal = sine(997, 0.5, 1, RATE);
+    signal.fill(1.5, 1000, 1010);
+    const { channels } = runAnalyzer(new LevelsAnalyzer(formatOf(RATE, 2)), [sine(997, 0.5, 1, RATE), signal]);
+    expect(channels.map((channel) => channel.overFullScaleSamples)).toEqual([0, 10]);
+    expect(channels[1].firstOverFullScaleFrame).toBe(1000);
+  });
+});
+
 describe('effective bits (OR of integer codes, trailing zeros)', () => {
   const tone = sine(997, 0.5, 0.5, RATE, 0.1);
   const quantise = (signal: Float64Array, bits: number) => signal.map((x) => Math.round(x * 2 ** (bits - 1)) / 2 ** (bits - 1));

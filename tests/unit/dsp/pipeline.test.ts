@@ -1,3 +1,4 @@
+import { spawnSync } from 'node:child_process';
 import { existsSync } from 'node:fs';
 import { Readable } from 'node:stream';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
@@ -11,7 +12,7 @@ import type { AnalysisReport } from '../../../dsp/types';
 import { formatOf } from '../../support/analyzerHarness';
 import { ffmpegEbur128, soxStats } from '../../support/referenceTools';
 import { tempDirectory } from '../../support/tempFiles';
-import { ProgrammeGenerator, sine } from '../../support/testSignals';
+import { ProgrammeGenerator, concat, seededRandom, sine } from '../../support/testSignals';
 import { bufferStream } from '../../support/wavStreams';
 import { encodeSamples, wavFile } from '../../support/wavWriter';
 
@@ -58,7 +59,12 @@ describe('cross-checks on 40 s of programme-like material against ffmpeg and sox
     for (const key of contractKeys) expect(report).toHaveProperty(key);
     expect(Object.keys(report.file)).toEqual(expect.arrayContaining(['container', 'encoding', 'sampleRate', 'bitsPerSample', 'channels', 'frames', 'durationSec']));
     expect(report.file).toMatchObject({ container: 'RIFF', encoding: 'pcm', sampleRate: RATE, bitsPerSample: 24, channels: 2, frames: 40 * RATE, durationSec: 40 });
-    expect(Object.keys(report.channels[0]).sort()).toEqual(['clippedSamples', 'dcOffset', 'effectiveBits', 'rmsDbfs', 'samplePeakDbfs', 'silent', 'truePeakAtSec', 'truePeakDbtp']);
+    expect(Object.keys(report.channels[0]).sort()).toEqual([
+      'clippedSamples', 'dcOffset', 'effectiveBits', 'integratedLufs', 'name', 'nonFiniteSamples', 'overFullScaleSamples', 'rmsDbfs',
+      'samplePeakDbfs', 'silent', 'silentKind', 'steadyDcOffset', 'truePeakAtSec', 'truePeakDbtp',
+    ]);
+    expect(report.file.layout).toBe('stereo');
+    expect(report.channels.map((channel) => channel.name)).toEqual(['L', 'R']);
     expect(Object.keys(report.loudness)).toEqual(expect.arrayContaining(['integratedLufs', 'rangeLu', 'momentaryMaxLufs', 'shortTermMaxLufs']));
     expect(Object.keys(report.bandwidth)).toEqual(expect.arrayContaining(['effectiveHz', 'impliedSourceRate', 'nearNyquistDb', 'aliasingRisk']));
     expect(Object.keys(report.noise).sort()).toEqual(['floorDbfs', 'humHz']);
@@ -91,12 +97,15 @@ describe('effective bits against sox', () => {
 
 describe('report details', () => {
   it('a mono take has no stereo section; noise-limited bits follow the floor', async () => {
-    const report = await analyzeStream(bufferStream(wavFile({ sampleRate: RATE, channels: 1, coding: 'pcm16' }, encodeSamples([sine(997, 0.25, 3, RATE)], 'pcm16'))));
+    // A tone over noise at -80 dBFS RMS, so the quiet stretches have a floor to measure.
+    const random = seededRandom(4);
+    const tone = concat(sine(997, 0.25, 3, RATE), new Float64Array(RATE)).map((x) => x + 1e-4 * Math.sqrt(6) * (random() - random()));
+    const report = await analyzeStream(bufferStream(wavFile({ sampleRate: RATE, channels: 1, coding: 'pcm24' }, encodeSamples([tone], 'pcm24'))));
     expect(report.stereo).toBeNull();
-    if (report.noise.floorDbfs !== null) {
-      // Ideal quantiser noise: -6.02·N - 4.77 dBFS (square-wave reference) -> N = (-floor - 4.77)/6.02.
-      expect(report.resolution.noiseLimitedBits).toBeCloseTo((-report.noise.floorDbfs - 4.77) / 6.02, 1);
-    }
+    expect(report.file.layout).toBe('mono');
+    expect(report.noise.floorDbfs).not.toBeNull();
+    // Ideal quantiser noise: -6.02·N - 4.77 dBFS (square-wave reference) -> N = (-floor - 4.77)/6.02.
+    expect(report.resolution.noiseLimitedBits).toBeCloseTo((-report.noise.floorDbfs! - 4.77) / 6.02, 1);
   });
 
   it('a truncated take is analysed and the findings carry a container problem', async () => {
@@ -176,4 +185,80 @@ describe('second thread', () => {
     const single = await analyzeFile(path, { parallel: false });
     expect(parallel).toEqual(single);
   }, 120_000);
+});
+
+describe('float samples that are not numbers', () => {
+  const clean = () => programme(12, 8);
+  const path = (name: string, channels: Float64Array[]) => temp.write(name, wavFile({ sampleRate: RATE, channels: 2, coding: 'float32' }, encodeSamples(channels, 'float32')));
+
+  it('one NaN moves no measure and invents no clipping; the take fails, naming the count and the time', async () => {
+    const reference = await analyzeFile(path('finite.wav', clean()));
+    const poisoned = clean();
+    poisoned[1][Math.round(4.25 * RATE)] = Number.NaN;
+    const report = await analyzeFile(path('nan.wav', poisoned));
+    expect(Math.abs(report.loudness.integratedLufs! - reference.loudness.integratedLufs!)).toBeLessThan(0.01);
+    expect(report.clipping.events).toEqual(reference.clipping.events);
+    expect(report.samples).toMatchObject({ nonFinite: 1, firstNonFiniteSec: 4.25 });
+    expect(report.channels[1].nonFiniteSamples).toBe(1);
+    expect(report.findings.find((finding) => finding.check === 'non-finite')).toMatchObject({ severity: 'fail', channel: 1, startSec: 4.25 });
+  });
+
+  it('±Inf samples give a report that survives JSON (as stored), and a take of nothing but NaN does not read as 32-bit audio', async () => {
+    const infinite = clean();
+    infinite[0][RATE] = Number.POSITIVE_INFINITY;
+    infinite[0][RATE + 1] = Number.NEGATIVE_INFINITY;
+    const report = await analyzeFile(path('inf.wav', infinite));
+    expect(JSON.parse(JSON.stringify(report))).toEqual(report);
+    expect(report.samples!.nonFinite).toBe(2);
+    const nothing = await analyzeFile(path('all-nan.wav', [new Float64Array(RATE * 3).fill(Number.NaN), new Float64Array(RATE * 3).fill(Number.NaN)]));
+    expect(nothing.samples!.nonFinite).toBe(RATE * 6);
+    expect(nothing.resolution.effectiveBits).toBe(0);
+    expect(nothing.findings.find((finding) => finding.check === 'non-finite')?.severity).toBe('fail');
+  });
+
+  it('float samples over full scale are counted, not reported as clipping', async () => {
+    // A float stage gained so the loudest sample of 3-4 s reaches +3.5 dBFS.
+    const hot = clean().map((channel) => {
+      const peak = channel.subarray(3 * RATE, 4 * RATE).reduce((p, x) => Math.max(p, Math.abs(x)), 0);
+      return channel.map((x, i) => (i >= 3 * RATE && i < 4 * RATE ? (1.5 / peak) * x : x));
+    });
+    const report = await analyzeFile(path('hot.wav', hot));
+    expect(report.samples!.overFullScale).toBeGreaterThan(0);
+    expect(report.clipping.events).toEqual([]);
+    expect(report.findings.some((finding) => finding.check === 'over-full-scale' && finding.severity === 'warn')).toBe(true);
+  });
+});
+
+describe('poly takes: iso tracks named in iXML', () => {
+  const names = ['Boom', 'Lav Anna', 'Lav Ben', 'Lav 4'];
+  const ixml = `<BWFXML><TRACK_LIST><TRACK_COUNT>4</TRACK_COUNT>${names.map((name, index) => `<TRACK><CHANNEL_INDEX>${index + 1}</CHANNEL_INDEX><INTERLEAVE_INDEX>${index + 1}</INTERLEAVE_INDEX><NAME>${name}</NAME></TRACK>`).join('')}</TRACK_LIST></BWFXML>`;
+  let path: string;
+  let report: AnalysisReport;
+  beforeAll(async () => {
+    const [a, b] = programme(12, 9);
+    const boom = a.map((x, i) => 0.5 * x + 0.5 * b[i]);
+    // iXML after the audio, as many recorders write it: the layout is known only at the end of the read.
+    path = temp.write('poly.wav', wavFile({ sampleRate: RATE, channels: 4, coding: 'pcm24' }, encodeSamples([boom, a, b.map((x) => 0.3 * x), new Float64Array(a.length)], 'pcm24'), { chunksAfterData: [{ id: 'iXML', body: Buffer.from(ixml) }] }));
+    report = await analyzeFile(path);
+  });
+
+  it('is measured track by track: names, each track\'s own loudness (within 0.15 LU of ffmpeg on that track alone), no whole-take loudness', () => {
+    expect(report.file.layout).toBe('poly');
+    expect(report.channels.map((channel) => channel.name)).toEqual(names);
+    expect(report.loudness.integratedLufs).toBeNull();
+    expect(report.stereo).toBeNull();
+    for (const track of [0, 1, 2]) {
+      const single = temp.path(`track-${track}.wav`);
+      expect(spawnSync('sox', [path, single, 'remix', String(track + 1)]).status).toBe(0);
+      // ffmpeg's ebur128 is an independent BS.1770 implementation; it prints one decimal.
+      expect(Math.abs(report.channels[track].integratedLufs! - ffmpegEbur128(single).integratedLufs)).toBeLessThanOrEqual(0.15);
+    }
+    expect(report.channels[3].integratedLufs).toBeNull();
+  });
+
+  it('an unused track is a note, not a failure; findings name tracks', () => {
+    const unused = report.findings.find((finding) => finding.check === 'silent-channel');
+    expect(unused).toMatchObject({ severity: 'info', channel: 3, message: 'Track 4 (Lav 4) carries no signal: an unused track.' });
+    expect(report.findings.filter((finding) => finding.check === 'silent-channel' || finding.check === 'loudness').every((finding) => finding.severity === 'info')).toBe(true);
+  });
 });

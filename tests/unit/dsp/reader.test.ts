@@ -99,6 +99,20 @@ describe('chunk handling (RIFF: any order after fmt, unknown chunks skipped, odd
     expect(decoded.metadata.headerIssues).toEqual([]);
   });
 
+  it('decodes NaN and ±Inf float samples (IEEE 754) as 0, counting them per channel with the first frame', async () => {
+    const channels = testChannels(2, 3000, 4);
+    channels[1][1500] = Number.NaN;
+    channels[1][2999] = Number.POSITIVE_INFINITY;
+    channels[0][2500] = Number.NEGATIVE_INFINITY;
+    for (const coding of ['float32', 'float64'] as const) {
+      const wav = await openWav(bufferStream(wavFile({ sampleRate: RATE, channels: 2, coding }, encodeSamples(channels, coding))), { blockFrames: 1000 });
+      let finite = true;
+      for await (const block of wav.blocks()) for (const channel of block.channels) for (let i = 0; i < block.frames; i++) finite &&= Number.isFinite(channel[i]);
+      expect(finite).toBe(true);
+      expect(wav.nonFiniteSamples()).toEqual({ perChannel: [1, 2], firstFrame: 1500 });
+    }
+  });
+
   it('takes valid bits and the channel mask from WAVE_FORMAT_EXTENSIBLE', async () => {
     const decoded = await decodeWav(wavFile({ sampleRate: RATE, channels: 2, coding: 'pcm24', extensibleMask: 0x3, validBits: 20 }, encodeSamples(testChannels(2, 10), 'pcm24')));
     expect(decoded.format.validBitsPerSample).toBe(20);

@@ -26,7 +26,7 @@ function bruteForce(x: Float64Array, fpb: number): { min: number[]; max: number[
   return { min, max };
 }
 
-describe('WaveformPeaksAnalyzer and the peaks file', () => {
+describe('WaveformPeaksAnalyzer and the peaks file: min/max per bucket, checked against a brute-force computation [common practice]', () => {
   const frames = 48000 * 3 + 1234; // not a multiple of any bucket size
   const left = speechLike(frames, 48000, 0.8, 1);
   const right = whiteNoise(frames, 0.2, 2);
