@@ -42,7 +42,7 @@ export interface EvalTake {
   make(): TakeAudio;
 }
 
-const [m3, f3, scot, rp, caribbean, deep, f4] = VOICES;
+const [m3, f3, scot, rp, caribbean, , f4] = VOICES;
 const CONVERSATION_LINES: [string, string][] = [
   [LINES[0], LINES[2]],
   [LINES[3], LINES[4]],
