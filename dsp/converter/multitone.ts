@@ -4,7 +4,7 @@ import { fftOfSize } from './fftCache';
  * The frequency-response stimulus: a periodic multitone (a sum of steady sines that all
  * repeat every `periodFrames` samples, so one period is built by an inverse FFT and tiled).
  * Tones are 1/12 octave apart below 2 kHz (at least 5 Hz apart) and 1/48 octave apart from
- * 2 kHz up to 0.49 × the sample rate, so the upper −3 dB point is bracketed by tones less than
+ * 2 kHz up to 0.495 × the sample rate, so the upper −3 dB point is bracketed by tones less than
  * 1.5 % apart. A tone on the bin nearest 997 Hz is the reference the response is read against.
  */
 
@@ -23,7 +23,7 @@ export interface MultitoneDesign {
 /** Lowest tone, Hz (bottom of the AES17 audio band). */
 const LOWEST_HZ = 20;
 /** Highest tone as a fraction of the sample rate (just under Nyquist, above any usable band edge). */
-const HIGHEST_FRACTION = 0.49;
+export const HIGHEST_TONE_FRACTION = 0.495;
 /** Tone spacing below SPLIT_HZ: 1/12 octave; above it: 1/48 octave. [common practice: fractional-octave grids] */
 const LOW_STEP = 2 ** (1 / 12);
 const HIGH_STEP = 2 ** (1 / 48);
@@ -39,7 +39,7 @@ export const MULTITONE_PEAK_DBFS = -3;
 export function designMultitone(sampleRate: number): MultitoneDesign {
   const periodFrames = 2 ** Math.ceil(Math.log2(sampleRate));
   const binHz = sampleRate / periodFrames;
-  const top = HIGHEST_FRACTION * sampleRate;
+  const top = HIGHEST_TONE_FRACTION * sampleRate;
   const bins = new Set<number>();
   for (let f = LOWEST_HZ; f <= top; f = Math.max(f * (f < SPLIT_HZ ? LOW_STEP : HIGH_STEP), f + MIN_SPACING_HZ)) {
     bins.add(Math.round(f / binHz));
