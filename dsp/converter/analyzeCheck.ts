@@ -1,14 +1,16 @@
 import { createReadStream } from 'node:fs';
 import type { Readable } from 'node:stream';
 import { openWav } from '../reader/wavReader';
-import { roundOrNull, roundTo } from '../util/decibels';
+import { roundTo } from '../util/decibels';
 import { fitSine } from '../util/sineFit';
 import { BandPowerMeter } from './bandPower';
-import { captureSpan } from './capture';
-import { CHECK_TONE_HZ, checkSignalLayout, CROSSTALK_HIGH_HZ, MAX_CHECK_CHANNELS, MAX_CHECK_RATE_HZ, MIN_CHECK_RATE_HZ, sectionNamed, sectionsNamed, type CheckSection } from './checkSignal';
+import { ClipCounter, readPass, WindowCapture } from './capture';
+import { CROSSTALK_TONES_HZ, MEASURED_SECTIONS, measureChannel, steadyPart, steadyRange, type ChannelSpan, type MeasureContext, type SignalClock } from './channelMeasure';
+import { CHECK_TONE_HZ, checkSignalLayout, MAX_CHECK_CHANNELS, MAX_CHECK_RATE_HZ, MIN_CHECK_RATE_HZ, sectionNamed, sectionsNamed, type CheckSignalLayout } from './checkSignal';
 import { ConverterCheckError } from './ConverterCheckError';
+import { CrosstalkMeter } from './crosstalkMeter';
 import { channelDelay } from './delay';
-import { identifyWrittenFormat } from './formatId';
+import { identifyWrittenFormat, type WrittenFormat } from './formatId';
 import { judgeConverterCheck } from './judge';
 import { locateSignal, markerDistanceSec } from './locate';
 import { markerFrames } from './markers';
@@ -16,16 +18,16 @@ import { MarkerSearch } from './markerSearch';
 import { refineMarker } from './markerRefine';
 import { designMultitone, HIGHEST_TONE_FRACTION } from './multitone';
 import type { ConverterChannelReport, ConverterReport, CrosstalkPath } from './report';
-import { measureResponse, passbandDeviation, upperBandEdge } from './response';
 import { DEFAULT_CONVERTER_THRESHOLDS, type ConverterThresholds } from './thresholds';
-import { measureTone, toneAmplitude } from './toneMeasure';
 
 /**
- * Converter check analysis. Two reads of the recording: the first finds the start and end
- * markers anywhere in it (any lead-in, gain, polarity, delay or clock error up to ±0.1 %); the
- * second keeps just the check signal. The markers give each channel's position and a first clock
- * estimate; a four-parameter sine fit of the −1 dB FS tone gives the clock to a fraction of a ppm;
- * every section is then read from its steady middle (SECTION_MARGIN_SEC from each edge).
+ * Converter check analysis in three reads of the recording, none holding more than the parts it
+ * measures. The first finds the start and end markers anywhere in it (any lead-in, gain, polarity,
+ * delay or clock error up to ±0.1 %). The second keeps, for every channel, the markers and the
+ * steady middles of the sections measured on their own (about 12 s per channel) and counts samples
+ * at full scale; the markers place each channel, a four-parameter sine fit of the clearest channel's
+ * −1 dB FS tone gives the clock to a fraction of a ppm, and each channel is measured. The third
+ * measures the crosstalk tones as they stream past.
  */
 
 export interface ConverterCheckOptions {
@@ -36,32 +38,17 @@ export interface ConverterCheckOptions {
 
 export const SIGNAL_VERSION = 1;
 const LEVEL_REFERENCE = 'dB FS: a full-scale sine reads 0 dB FS (AES17). Take reports differ: their RMS levels are referred to a full-scale square wave.';
-/** Skipped at each edge of a section before measuring, seconds (a fifth of a short section): fades, filter settling and channel delays. */
-const SECTION_MARGIN_SEC = 0.25;
-/** Kept around the signal in the second read, seconds. */
-const CAPTURE_MARGIN_SEC = 0.5;
 /** Largest delay between channels looked for, seconds. */
 const MAX_CHANNEL_DELAY_SEC = 0.01;
+/** Extra room around each captured window for the first position estimate's error, seconds. */
+const WINDOW_SLACK_SEC = 0.005;
 /** A channel whose markers match less than this carries no usable signal. [common practice] */
 const MIN_MARKER_MATCH = 0.3;
-/** A channel whose −1 dB FS tone records below this is dead, dB FS. [common practice] */
-const DEAD_CHANNEL_DBFS = -60;
-/** Samples this close to full scale count as clipped (the top code of 16-bit PCM and above). */
-const CLIP_LEVEL = 1 - 2 ** -15;
-/**
- * Longest stretch of a tone or of idle noise measured, seconds: the sine fit's frequency is then
- * good to far better than 0.01 ppm and band powers to a few hundredths of a dB, at half the work.
- */
-const TONE_SPAN_SEC = 2;
-/** Length of multitone compared between channels for their delay, seconds. */
+/** Length of multitone compared between channels for their delay, seconds, from a second into it. */
 const DELAY_SPAN_SEC = 0.5;
+const DELAY_OFFSET_SEC = 1;
 /** Crosstalk below this is reported as this (an undriven channel of digital zero has none at all), dB. */
 const CROSSTALK_FLOOR_DB = -200;
-/** IEEE 1241 ENOB constants: ENOB = (SINAD − 1.76) / 6.02. */
-const ENOB_OFFSET_DB = 1.76;
-const DB_PER_BIT = 6.02;
-/** Mean square of a full-scale sine: the 0 dB FS reference of AES17. */
-const FULL_SCALE_SINE_POWER = 0.5;
 
 /** Analyses a check recording on disk. */
 export function analyzeConverterCheckFile(path: string, options: ConverterCheckOptions = {}): Promise<ConverterReport> {
@@ -69,8 +56,8 @@ export function analyzeConverterCheckFile(path: string, options: ConverterCheckO
 }
 
 /**
- * Analyses a check recording read twice through `open` (each call must return a fresh stream of
- * the whole file).
+ * Analyses a check recording read several times through `open` (each call must return a fresh
+ * stream of the whole file).
  * @throws UnreadableWavError for a file that is not a readable WAV
  * @throws ConverterCheckError when the recording holds no complete check signal of its channel count
  */
@@ -79,131 +66,101 @@ export async function analyzeConverterCheck(open: () => Readable, options: Conve
   const { format } = opened;
   const rate = format.sampleRate;
   const channelCount = format.channels;
-  if (rate < MIN_CHECK_RATE_HZ || rate > MAX_CHECK_RATE_HZ) {
-    await drain(opened.blocks());
-    throw new ConverterCheckError('unsupported-format', `The recording is at ${rate} Hz; a converter check needs ${MIN_CHECK_RATE_HZ / 1000}–${MAX_CHECK_RATE_HZ / 1000} kHz.`);
-  }
-  if (channelCount > MAX_CHECK_CHANNELS) {
-    await drain(opened.blocks());
-    throw new ConverterCheckError('unsupported-format', `The recording has ${channelCount} channels; a converter check measures at most ${MAX_CHECK_CHANNELS}.`);
+  if (rate < MIN_CHECK_RATE_HZ || rate > MAX_CHECK_RATE_HZ || channelCount > MAX_CHECK_CHANNELS) {
+    const blocks = opened.blocks();
+    await blocks.next();
+    await blocks.return(undefined);
+    throw new ConverterCheckError(
+      'unsupported-format',
+      channelCount > MAX_CHECK_CHANNELS
+        ? `The recording has ${channelCount} channels; a converter check measures at most ${MAX_CHECK_CHANNELS}.`
+        : `The recording is at ${rate} Hz; a converter check needs ${MIN_CHECK_RATE_HZ / 1000}–${MAX_CHECK_RATE_HZ / 1000} kHz.`,
+    );
   }
   const search = new MarkerSearch(rate, channelCount);
   for await (const block of opened.blocks()) search.push(block.channels, block.frames);
   const totalFrames = opened.framesRead();
   const candidates = search.finish();
   const located = locateSignal(candidates.start, candidates.end, rate, channelCount);
-
+  const layout = checkSignalLayout(channelCount);
+  const startMarkerSec = sectionNamed(layout, 'startMarker').startSec;
   const markerLength = markerFrames(rate);
-  const margin = Math.round(CAPTURE_MARGIN_SEC * rate);
-  const captureFrom = Math.max(0, located.startFrame - margin);
-  const captureTo = Math.min(totalFrames, located.endFrame + markerLength + margin);
-  const capture = await captureSpan(open(), captureFrom, captureTo);
 
+  // Second read: the markers and the measured sections of every channel, placed by the first estimate.
   const radius = search.positionUncertainty + Math.round(MAX_CHANNEL_DELAY_SEC * rate);
-  const starts = capture.map((x) => refineMarker(x, located.startFrame - captureFrom, radius, rate, 'up'));
-  const ends = capture.map((x) => refineMarker(x, located.endFrame - captureFrom, radius, rate, 'down'));
-  const responding = starts.map((start, c) => start.match >= MIN_MARKER_MATCH && ends[c].match >= MIN_MARKER_MATCH);
-  const respondingIndices = responding.flatMap((ok, c) => (ok ? [c] : []));
-  if (respondingIndices.length === 0) {
+  const slack = radius + Math.round(WINDOW_SLACK_SEC * rate);
+  const firstClock: SignalClock = { rate, ratio: (markerDistanceSec(channelCount) * rate) / (located.endFrame - located.startFrame), startMarkerSec };
+  const around = (frame: number): [number, number] => [frame - radius, frame + markerLength + radius + 1];
+  const widened = ([from, to]: [number, number]): [number, number] => [from - slack, Math.min(totalFrames, to + slack)];
+  const sectionWindows = MEASURED_SECTIONS.map(([name, limit]) => widened(steadyRange(located.startFrame, firstClock, sectionNamed(layout, name), limit)));
+  const capture = new WindowCapture([around(located.startFrame), around(located.endFrame), ...sectionWindows], channelCount);
+  const tone = sectionNamed(layout, 'toneMinus1');
+  const clips = new ClipCounter([
+    widened([located.startFrame, located.endFrame + markerLength]),
+    widened(steadyRange(located.startFrame, firstClock, tone, null)),
+  ], channelCount);
+  await readPass(open(), [capture, clips]);
+
+  const channelIndices = [...Array(channelCount).keys()];
+  const markers = capture.windows.map(([startAudio, endAudio]) => {
+    const start = refineMarker(startAudio.samples, located.startFrame - startAudio.firstFrame, radius, rate, 'up');
+    const end = refineMarker(endAudio.samples, located.endFrame - endAudio.firstFrame, radius, rate, 'down');
+    return { start: { ...start, position: start.position + startAudio.firstFrame }, end: { ...end, position: end.position + endAudio.firstFrame } };
+  });
+  const responding = markers.map(({ start, end }) => start.match >= MIN_MARKER_MATCH && end.match >= MIN_MARKER_MATCH);
+  const live = channelIndices.filter((c) => responding[c]);
+  if (live.length === 0) {
     throw new ConverterCheckError('no-signal', 'The check signal\'s markers were found but no channel carries them clearly enough to measure.');
   }
   const mean = (values: number[]) => values.reduce((sum, v) => sum + v, 0) / values.length;
-  const meanStart = mean(respondingIndices.map((c) => starts[c].position));
-  const startPositions = starts.map((start, c) => (responding[c] ? start.position : meanStart));
-  const recordedDistance = mean(respondingIndices.map((c) => ends[c].position - starts[c].position));
-  const markerRatio = (markerDistanceSec(channelCount) * rate) / recordedDistance;
+  const meanStart = mean(live.map((c) => markers[c].start.position));
+  const meanEnd = mean(live.map((c) => markers[c].end.position));
+  const startFrames = channelIndices.map((c) => (responding[c] ? markers[c].start.position : meanStart));
+  const endFrames = channelIndices.map((c) => (responding[c] ? markers[c].end.position : meanEnd));
+  const markerRatio = (markerDistanceSec(channelCount) * rate) / mean(live.map((c) => markers[c].end.position - markers[c].start.position));
+  const lead = live.reduce((best, c) => (markers[c].start.match > markers[best].start.match ? c : best), live[0]);
+  const spanOf = (c: number): ChannelSpan => ({ windows: capture.windows[c].slice(2), markerFrame: startFrames[c] });
 
-  const layout = checkSignalLayout(channelCount);
-  const startMarkerSec = sectionNamed(layout, 'startMarker').startSec;
-  const lead = respondingIndices.reduce((best, c) => (starts[c].match > starts[best].match ? c : best), respondingIndices[0]);
+  const { context, written } = sharedMeasures(spanOf(lead), rate, markerRatio, startMarkerSec, layout);
+  const channels: ConverterChannelReport[] = channelIndices.map((c) =>
+    measureChannel(spanOf(c), context, responding[c], markers[c].start.polarity + markers[c].end.polarity, { signal: clips.counts[0][c], fullTone: clips.counts[1][c] }));
 
-  /** The steady middle of a section in one channel, as float64 (capture indices follow the channel's own marker). */
-  const steady = (section: CheckSection, c: number, ratio: number, maxSec = Number.POSITIVE_INFINITY): Float64Array => {
-    const at = (sec: number) => startPositions[c] + ((sec - startMarkerSec) * rate) / ratio;
-    const edge = Math.min(SECTION_MARGIN_SEC, section.durationSec / 5);
-    const from = Math.round(at(section.startSec + edge));
-    const to = Math.min(Math.round(at(section.startSec + section.durationSec - edge)), from + Math.round(maxSec * rate));
-    return Float64Array.from(capture[c].subarray(Math.max(0, from), Math.min(capture[c].length, to)));
-  };
-
-  // Clock: the −1 dB FS tone's frequency from a four-parameter fit on the clearest channel.
-  const fullTone = sectionNamed(layout, 'toneMinus1');
-  const leadTone = steady(fullTone, lead, markerRatio, TONE_SPAN_SEC);
-  const fitted = fitSine(leadTone, 0, leadTone.length, (2 * Math.PI * CHECK_TONE_HZ * markerRatio) / rate, rate);
-  const ratio = fitted && fitted.omega > 0 ? (fitted.omega * rate) / (2 * Math.PI * CHECK_TONE_HZ) : markerRatio;
-  const omegaOf = (hz: number) => (2 * Math.PI * hz * ratio) / rate;
-
-  const written = identifyWrittenFormat(steady(sectionNamed(layout, 'format'), lead, ratio), rate, ratio);
-  const writtenRate = written.sampleRate ?? rate;
-  const design = designMultitone(writtenRate);
-  const topHz = HIGHEST_TONE_FRACTION * Math.min(rate, writtenRate);
-
-  const meter = new BandPowerMeter(rate);
-  const bandHigh = Math.min(20_000, rate / 2);
-  const passbandHigh = Math.min(20_000, 0.45 * rate, 0.45 * writtenRate);
-  const referenceHz = design.frequenciesHz[design.referenceIndex];
-  const signalStart = (c: number) => Math.max(0, Math.floor(startPositions[c]));
-  const signalEnd = (c: number) => Math.min(capture[c].length, Math.ceil((responding[c] ? ends[c].position : mean(respondingIndices.map((r) => ends[r].position))) + markerLength));
-
-  const channels: ConverterChannelReport[] = capture.map((x, c) => {
-    let clippedSamples = 0;
-    for (let n = signalStart(c); n < signalEnd(c); n++) if (Math.abs(x[n]) >= CLIP_LEVEL) clippedSamples++;
-    const idle = idleNoise(steady(sectionNamed(layout, 'idle'), c, ratio, TONE_SPAN_SEC), meter, bandHigh);
-    const full = measureTone(steady(fullTone, c, ratio, TONE_SPAN_SEC), omegaOf(CHECK_TONE_HZ), meter, 20, bandHigh);
-    const dead = !responding[c] || !full || full.amplitude < 10 ** (DEAD_CHANNEL_DBFS / 20);
-    const base: ConverterChannelReport = {
-      dead, clippedSamples, gainDb: null, polarityInverted: null, thdnDb: { minus1: null, minus20: null }, sinadDb: null, enobBits: null,
-      dynamicRangeDb: null, dynamicRangeDbA: null, ...idle, frequencyResponse: null, passbandDeviationDb: null, bandEdgeHz: null, delaySamples: null, crosstalkIntoDb: null,
-    };
-    if (dead || !full) return base;
-    const fundamentalPower = (amplitude: number) => (amplitude * amplitude) / 2;
-    const twenty = measureTone(steady(sectionNamed(layout, 'toneMinus20'), c, ratio, TONE_SPAN_SEC), omegaOf(CHECK_TONE_HZ), meter, 20, bandHigh);
-    const sixty = measureTone(steady(sectionNamed(layout, 'toneMinus60'), c, ratio, TONE_SPAN_SEC), omegaOf(CHECK_TONE_HZ), meter, 20, bandHigh);
-    const sinad = 10 * Math.log10(FULL_SCALE_SINE_POWER / full.residualMs);
-    const response = measureResponse(steady(sectionNamed(layout, 'multitone'), c, ratio), rate, design, ratio, topHz);
-    const polarity = starts[c].polarity + ends[c].polarity;
-    return {
-      ...base,
-      gainDb: roundTo(20 * Math.log10(full.amplitude / 10 ** (-1 / 20)), 3),
-      polarityInverted: polarity === 0 ? null : polarity < 0,
-      thdnDb: {
-        minus1: roundTo(10 * Math.log10(full.bandPower / fundamentalPower(full.amplitude)), 2),
-        minus20: twenty ? roundTo(10 * Math.log10(twenty.bandPower / fundamentalPower(twenty.amplitude)), 2) : null,
-      },
-      sinadDb: roundTo(sinad, 2),
-      enobBits: roundTo((sinad - ENOB_OFFSET_DB) / DB_PER_BIT, 2),
-      // AES17 dynamic range: the noise and distortion with the −60 dB FS tone present, referred to full scale.
-      dynamicRangeDb: sixty ? roundTo(10 * Math.log10(FULL_SCALE_SINE_POWER / sixty.bandPower), 2) : null,
-      dynamicRangeDbA: sixty ? roundTo(10 * Math.log10(FULL_SCALE_SINE_POWER / sixty.bandPowerA), 2) : null,
-      frequencyResponse: { hz: response.hz.map((v) => roundTo(v, 2)), db: response.db.map((v) => roundTo(Math.max(v, -200), 3)) },
-      passbandDeviationDb: roundOrNull(passbandDeviation(response, 20, passbandHigh), 3),
-      bandEdgeHz: roundOrNull(upperBandEdge(response, referenceHz), 1),
-    };
-  });
-
-  // Delay against channel 1, from the multitone where every channel carries the same signal.
+  // Delay against channel 1, from the multitone where every channel carries the same signal (the
+  // capture windows are the same frames in every channel).
   const multitone = sectionNamed(layout, 'multitone');
-  const delayFrom = Math.round(startPositions[0] + ((multitone.startSec + SECTION_MARGIN_SEC - startMarkerSec) * rate) / ratio);
+  const multitoneWindow = 2 + MEASURED_SECTIONS.findIndex(([name]) => name === 'multitone');
+  const [delayFrom] = steadyRange(startFrames[0], context.clock, { ...multitone, startSec: multitone.startSec + DELAY_OFFSET_SEC }, null);
   channels.forEach((channel, c) => {
     if (channel.dead || channels[0].dead) return;
+    const reference = capture.windows[0][multitoneWindow];
+    const delay = channelDelay(reference.samples, capture.windows[c][multitoneWindow].samples, delayFrom - reference.firstFrame, Math.round(DELAY_SPAN_SEC * rate), startFrames[c] - startFrames[0]);
     // `+ 0` turns the −0 of Math.round(−0.3) into 0.
-    channel.delaySamples = c === 0 ? 0 : Math.round(channelDelay(capture[0], capture[c], delayFrom, Math.round(DELAY_SPAN_SEC * rate), startPositions[c] - startPositions[0])) + 0;
+    channel.delaySamples = c === 0 ? 0 : Math.round(delay) + 0;
   });
 
-  const crosstalkTonesHz = [CHECK_TONE_HZ, CROSSTALK_HIGH_HZ];
+  // Third read: the crosstalk tones, one driven channel at a time.
   const crosstalkPaths: CrosstalkPath[] = [];
-  for (const section of sectionsNamed(layout, 'crosstalk')) {
-    const driven = section.drivenChannel!;
-    if (channels[driven].dead) continue;
-    const amplitudes = capture.map((_, c) => {
-      const x = steady(section, c, ratio, TONE_SPAN_SEC);
-      return crosstalkTonesHz.map((hz) => toneAmplitude(x, omegaOf(hz)));
-    });
-    channels.forEach((channel, into) => {
-      if (into === driven || channel.dead) return;
-      const db = crosstalkTonesHz.map((_, t) => roundTo(Math.max(CROSSTALK_FLOOR_DB, 20 * Math.log10(amplitudes[into][t] / amplitudes[driven][t])), 2));
-      crosstalkPaths.push({ driven, into, db });
-      channel.crosstalkIntoDb = Math.max(channel.crosstalkIntoDb ?? Number.NEGATIVE_INFINITY, ...db);
+  const crosstalkSections = sectionsNamed(layout, 'crosstalk');
+  if (crosstalkSections.length > 0) {
+    const meter = new CrosstalkMeter(
+      crosstalkSections.map((section) => {
+        const [from, to] = steadyRange(startFrames[lead], context.clock, section, null);
+        return { from, to };
+      }),
+      CROSSTALK_TONES_HZ.map((hz) => (2 * Math.PI * hz * context.clock.ratio) / rate),
+      channelCount,
+    );
+    await readPass(open(), [meter]);
+    const amplitudes = meter.amplitudes();
+    crosstalkSections.forEach((section, s) => {
+      const driven = section.drivenChannel!;
+      if (channels[driven].dead) return;
+      channels.forEach((channel, into) => {
+        if (into === driven || channel.dead) return;
+        const db = CROSSTALK_TONES_HZ.map((_, t) => roundTo(Math.max(CROSSTALK_FLOOR_DB, 20 * Math.log10(amplitudes[s][t][into] / amplitudes[s][t][driven])), 2));
+        crosstalkPaths.push({ driven, into, db });
+        channel.crosstalkIntoDb = Math.max(channel.crosstalkIntoDb ?? Number.NEGATIVE_INFINITY, ...db);
+      });
     });
   }
 
@@ -223,45 +180,54 @@ export async function analyzeConverterCheck(open: () => Readable, options: Conve
       durationSec: roundTo(totalFrames / rate, 3),
     },
     signal: {
-      startSec: roundTo((captureFrom + starts[lead].position) / rate, 4),
-      endSec: roundTo((captureFrom + ends[lead].position + markerLength) / rate, 4),
-      markerMatch: roundTo(mean(respondingIndices.map((c) => (starts[c].match + ends[c].match) / 2)), 3),
+      startSec: roundTo(startFrames[lead] / rate, 4),
+      endSec: roundTo((endFrames[lead] + markerLength) / rate, 4),
+      markerMatch: roundTo(mean(live.map((c) => (markers[c].start.match + markers[c].end.match) / 2)), 3),
       writtenSampleRate: written.sampleRate,
       writtenBits: written.bitsPerSample,
     },
-    clockErrorPpm: roundTo((ratio - 1) * 1e6, 2),
+    clockErrorPpm: roundTo((context.clock.ratio - 1) * 1e6, 2),
     channels,
     crosstalkDb: crosstalkPaths.length ? Math.max(...crosstalkPaths.flatMap((path) => path.db)) : null,
-    crosstalkTonesHz,
+    crosstalkTonesHz: CROSSTALK_TONES_HZ,
     crosstalkPaths,
     channelGainMismatchDb: liveGains.length > 1 ? roundTo(Math.max(...liveGains) - Math.min(...liveGains), 3) : null,
     interChannelDelaySamples: delays.length ? delays.reduce((worst, delay) => (Math.abs(delay) > Math.abs(worst) ? delay : worst), delays[0]) : null,
-    bands: { thdnHz: [20, bandHigh], noiseHz: [20, bandHigh], passbandHz: [20, roundTo(passbandHigh, 1)], responseHz: [roundTo(design.frequenciesHz[0], 2), roundTo(topHz, 1)], sinad: 'DC excluded, up to Nyquist (IEEE 1241)' },
+    bands: {
+      thdnHz: [20, context.bandHigh],
+      noiseHz: [20, context.bandHigh],
+      passbandHz: [20, roundTo(context.passbandHigh, 1)],
+      responseHz: [roundTo(context.design.frequenciesHz[0], 2), roundTo(context.topHz, 1)],
+      sinad: 'DC excluded, up to Nyquist (IEEE 1241)',
+    },
     findings: [],
   };
   report.findings = judgeConverterCheck(report, options.baseline ?? null, options.thresholds ?? DEFAULT_CONVERTER_THRESHOLDS);
   return report;
 }
 
-/** Idle noise in dB FS: 20 Hz–20 kHz unweighted and A-weighted, and the whole band; null for digital zero. */
-function idleNoise(x: Float64Array, meter: BandPowerMeter, bandHigh: number): Pick<ConverterChannelReport, 'noiseFloorDbfs' | 'noiseFloorDbfsA' | 'noiseFloorFullBandDbfs'> {
-  if (x.every((v) => v === 0) || x.length < meter.segmentFrames) return { noiseFloorDbfs: null, noiseFloorDbfsA: null, noiseFloorFullBandDbfs: null };
-  const spectrum = meter.spectrum(x, 0, x.length);
-  const toDbfs = (power: number) => (power > 0 ? roundTo(10 * Math.log10(power / FULL_SCALE_SINE_POWER), 2) : null);
-  let mean = 0;
-  for (const v of x) mean += v;
-  mean /= x.length;
-  let meanSquare = 0;
-  for (const v of x) meanSquare += (v - mean) ** 2;
+/**
+ * What every channel is measured with: the clock from a four-parameter IEEE 1241 fit of the
+ * clearest channel's −1 dB FS tone, the written format from its format tones, and the multitone
+ * grid of the written rate.
+ */
+function sharedMeasures(lead: ChannelSpan, rate: number, markerRatio: number, startMarkerSec: number, layout: CheckSignalLayout): { context: MeasureContext; written: WrittenFormat } {
+  const tone = steadyPart(lead, { rate, ratio: markerRatio, startMarkerSec }, sectionNamed(layout, 'toneMinus1'));
+  const fitted = fitSine(tone, 0, tone.length, (2 * Math.PI * CHECK_TONE_HZ * markerRatio) / rate, rate);
+  const ratio = fitted && fitted.omega > 0 ? (fitted.omega * rate) / (2 * Math.PI * CHECK_TONE_HZ) : markerRatio;
+  const clock: SignalClock = { rate, ratio, startMarkerSec };
+  const written = identifyWrittenFormat(steadyPart(lead, clock, sectionNamed(layout, 'format')), rate, ratio);
+  const writtenRate = written.sampleRate ?? rate;
   return {
-    noiseFloorDbfs: toDbfs(meter.bandPower(spectrum, 20, bandHigh)),
-    noiseFloorDbfsA: toDbfs(meter.bandPower(spectrum, 20, bandHigh, true)),
-    noiseFloorFullBandDbfs: toDbfs(meanSquare / x.length),
+    written,
+    context: {
+      layout,
+      clock,
+      meter: new BandPowerMeter(rate),
+      design: designMultitone(writtenRate),
+      topHz: HIGHEST_TONE_FRACTION * Math.min(rate, writtenRate),
+      bandHigh: Math.min(20_000, rate / 2),
+      passbandHigh: Math.min(20_000, 0.45 * rate, 0.45 * writtenRate),
+    },
   };
-}
-
-/** Starts and stops a block generator, so the reader closes its stream. */
-async function drain(blocks: AsyncGenerator<unknown>): Promise<void> {
-  await blocks.next();
-  await blocks.return(undefined);
 }

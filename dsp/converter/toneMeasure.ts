@@ -35,9 +35,3 @@ export function measureTone(x: Float64Array, omega: number, meter: BandPowerMete
     bandPowerA: meter.bandPower(spectrum, lowHz, highHz, true),
   };
 }
-
-/** Peak amplitude of the sine at `omega` rad/sample in x (three-parameter least squares); 0 when the fit fails. */
-export function toneAmplitude(x: Float64Array, omega: number): number {
-  const fit = solveThree(x, 0, x.length, (x.length - 1) / 2, omega);
-  return fit ? Math.hypot(fit.a, fit.b) : 0;
-}
