@@ -10,6 +10,26 @@ export interface RefinedMarker {
   polarity: number;
 }
 
+/** Spectra of the complex templates, by rate, sweep and transform size (every channel reuses them). */
+const templateSpectra = new Map<string, Float64Array>();
+
+function templateSpectrumOf(sampleRate: number, sweep: MarkerSweep, size: number): Float64Array {
+  const key = `${sampleRate}:${sweep}:${size}`;
+  let spectrum = templateSpectra.get(key);
+  if (!spectrum) {
+    const { re, im } = markerTemplate(sampleRate, sweep);
+    const template = new Float64Array(2 * size);
+    for (let k = 0; k < re.length; k++) {
+      template[2 * k] = re[k];
+      template[2 * k + 1] = im[k];
+    }
+    spectrum = new Float64Array(2 * size);
+    fftOfSize(size).transform(spectrum, template);
+    templateSpectra.set(key, spectrum);
+  }
+  return spectrum;
+}
+
 /**
  * Places one marker precisely in one channel: the complex correlation with the template
  * w·e^{iφ} (conjugated) at every whole-sample lag within `radius` of `around`, computed with one
@@ -24,19 +44,16 @@ export function refineMarker(x: Float32Array, around: number, radius: number, sa
   const size = 2 ** Math.ceil(Math.log2(lags + 2 * length));
   const fft = fftOfSize(size);
   const signal = new Float64Array(2 * size);
-  const template = new Float64Array(2 * size);
   for (let n = 0; n < lags - 1 + length; n++) signal[2 * n] = x[first + n];
-  for (let k = 0; k < length; k++) {
-    template[2 * k] = re[k];
-    template[2 * k + 1] = im[k];
-  }
   const signalSpectrum = new Float64Array(2 * size);
-  const templateSpectrum = new Float64Array(2 * size);
   fft.transform(signalSpectrum, signal);
-  fft.transform(templateSpectrum, template);
+  const templateSpectrum = templateSpectrumOf(sampleRate, sweep, size);
   // Circular correlation Σk x[m + k]·conj(t[k]) = IFFT(X · conj(T)); lags 0..lags−1 do not wrap.
   for (let k = 0; k < size; k++) {
-    const [xr, xi, tr, ti] = [signalSpectrum[2 * k], signalSpectrum[2 * k + 1], templateSpectrum[2 * k], templateSpectrum[2 * k + 1]];
+    const xr = signalSpectrum[2 * k];
+    const xi = signalSpectrum[2 * k + 1];
+    const tr = templateSpectrum[2 * k];
+    const ti = templateSpectrum[2 * k + 1];
     signal[2 * k] = xr * tr + xi * ti;
     signal[2 * k + 1] = xi * tr - xr * ti;
   }

@@ -11,8 +11,9 @@ import { markerTemplate, MARKER_TOP_HZ, type MarkerSweep } from './markers';
  * |r| / (‖t‖·‖x‖) — 1 for a perfect copy at any gain or polarity — where ‖x‖ is the larger of the
  * window's energy and half that of a window twice as long around it (a quiet window beside loud
  * sound cannot match by chance; a real marker between pauses is not penalised). Taking the best
- * channel keeps channels with different delays or a dead channel from diluting the match. The
- * best match in every 2 ms is kept when it could be a marker, so long recordings cost little memory.
+ * channel keeps channels with different delays or a dead channel from diluting the match; the four
+ * loudest channels of each stretch are the ones correlated. The best match in every 2 ms is kept
+ * when it could be a marker, so long recordings cost little memory.
  */
 export interface MarkerCandidate {
   /** First frame of the marker in the recording (within `positionUncertainty`). */
@@ -52,6 +53,8 @@ export class MarkerSearch {
   private readonly templateNorm: number;
   private readonly buffers: Float64Array[];
   private readonly sums: Float64Array;
+  /** One block's reduced samples per channel, before they join the buffers. */
+  private readonly reduced: Float64Array[];
   private summed = 0;
   private filled = 0;
   /** Reduced-rate index of buffers[c][0]. */
@@ -92,6 +95,7 @@ export class MarkerSearch {
     this.templateNorm = Math.sqrt(templates[0].re.reduce((sum, v) => sum + v * v, 0));
     this.buffers = Array.from({ length: channels }, () => new Float64Array(this.fftSize));
     this.sums = new Float64Array(channels);
+    this.reduced = Array.from({ length: channels }, () => new Float64Array(0));
     this.poolLength = Math.max(1, Math.round((POOL_SEC * sampleRate) / this.decimation));
     this.pools = sweeps.map(() => ({ frames: [], matches: [], current: 0, best: 0, bestFrame: 0 }));
     this.spectrum = new Float64Array(2 * this.fftSize);
@@ -104,15 +108,49 @@ export class MarkerSearch {
   /** Pushes frames [0, frames) of each channel. */
   push(channels: Float64Array[], frames: number): void {
     const d = this.decimation;
-    for (let i = 0; i < frames; i++) {
-      for (let c = 0; c < this.channels; c++) this.sums[c] += channels[c][i];
-      if (++this.summed < d) continue;
+    let offset = 0;
+    if (this.summed > 0) {
+      // Finish the group of D samples the last block left open.
+      const take = Math.min(d - this.summed, frames);
+      for (let c = 0; c < this.channels; c++) for (let k = 0; k < take; k++) this.sums[c] += channels[c][k];
+      this.summed += take;
+      offset = take;
+      if (this.summed < d) return;
+      if (this.reduced[0].length === 0) for (let c = 0; c < this.channels; c++) this.reduced[c] = new Float64Array(1);
       for (let c = 0; c < this.channels; c++) {
-        this.buffers[c][this.filled] = this.sums[c] / d;
+        this.reduced[c][0] = this.sums[c] / d;
         this.sums[c] = 0;
       }
       this.summed = 0;
-      if (++this.filled === this.fftSize) {
+      this.append(1);
+    }
+    const groups = Math.floor((frames - offset) / d);
+    if (this.reduced[0].length < Math.max(1, groups)) {
+      for (let c = 0; c < this.channels; c++) this.reduced[c] = new Float64Array(Math.max(1, groups));
+    }
+    for (let c = 0; c < this.channels; c++) {
+      const x = channels[c];
+      const out = this.reduced[c];
+      for (let g = 0, n = offset; g < groups; g++) {
+        let sum = 0;
+        for (let k = 0; k < d; k++, n++) sum += x[n];
+        out[g] = sum / d;
+      }
+      for (let n = offset + groups * d; n < frames; n++) this.sums[c] += x[n];
+    }
+    this.summed = frames - offset - groups * d;
+    this.append(groups);
+  }
+
+  /** Appends the first `count` reduced samples of every channel, correlating each full buffer. */
+  private append(count: number): void {
+    let written = 0;
+    while (written < count) {
+      const take = Math.min(count - written, this.fftSize - this.filled);
+      for (let c = 0; c < this.channels; c++) this.buffers[c].set(this.reduced[c].subarray(written, written + take), this.filled);
+      this.filled += take;
+      written += take;
+      if (this.filled === this.fftSize) {
         this.process(this.fftSize - this.templateLength);
         for (const buffer of this.buffers) buffer.copyWithin(0, this.hop, this.fftSize);
         this.filled = this.templateLength - 1;
@@ -134,6 +172,12 @@ export class MarkerSearch {
     return { start, end };
   }
 
+  /** The MAX_SEARCHED_CHANNELS channels with the most energy in the buffer (a dead channel is never among them while a live one is left out). */
+  private loudestChannels(): number[] {
+    const energies = this.buffers.map((x) => x.reduce((sum, v) => sum + v * v, 0));
+    return energies.map((_, c) => c).sort((a, b) => energies[b] - energies[a]).slice(0, MAX_SEARCHED_CHANNELS);
+  }
+
   /** Averages groups of D samples (the same reduction the recording gets). */
   private reduce(x: Float64Array): Float64Array {
     const d = this.decimation;
@@ -152,7 +196,7 @@ export class MarkerSearch {
     const length = this.templateLength;
     const floor = new Float64Array(last + 1);
     for (const matches of this.matches) matches.fill(0, 0, last + 1);
-    for (let c = 0; c < this.channels; c++) {
+    for (const c of this.loudestChannels()) {
       const x = this.buffers[c];
       this.fft.realTransform(this.spectrum, x);
       this.fft.completeSpectrum(this.spectrum);
@@ -200,6 +244,9 @@ export class MarkerSearch {
     });
   }
 }
+
+/** Channels correlated per buffer, the loudest first: the markers drive every channel alike. */
+const MAX_SEARCHED_CHANNELS = 4;
 
 /** Keeps the pool's best match when it could be a marker, and empties the pool. */
 function closePool(pool: Pool): void {

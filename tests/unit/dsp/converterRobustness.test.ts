@@ -108,6 +108,8 @@ describe('converter check: finding the signal, and refusing what is not one', ()
   it('tells the engineer to play the signal quieter when it clipped', async () => {
     const report = await analyzeConverterCheckFile(await record('too-loud', { gainsDb: [2, 2] }));
     expect(report.channels[0].clippedSamples).toBeGreaterThan(0);
+    // The −20 dB FS tone still tells the gain the clipped −1 dB FS tone cannot.
+    for (const channel of report.channels) expect(Math.abs(channel.gainDb! - 2)).toBeLessThanOrEqual(0.1);
     expect(report.findings).toContainEqual(expect.objectContaining({ check: 'overload', severity: 'fail', message: expect.stringMatching(/lower the playback level/) }));
   });
 
