@@ -56,7 +56,7 @@ const DEAD_CHANNEL_DBFS = -60;
 const ENOB_OFFSET_DB = 1.76;
 const DB_PER_BIT = 6.02;
 /** Mean square of a full-scale sine: the 0 dB FS reference of AES17. */
-export const FULL_SCALE_SINE_POWER = 0.5;
+const FULL_SCALE_SINE_POWER = 0.5;
 
 /**
  * Frame range of the steady middle of a section (SECTION_MARGIN_SEC in from each edge, or a fifth

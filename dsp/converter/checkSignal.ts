@@ -57,9 +57,15 @@ const CROSSTALK_LEVEL_DBFS = -7;
 const MARKER_PEAK_DBFS = -6;
 const FORMAT_LEVEL_DBFS = -20;
 
-/** Frequencies of the format section's two tones, Hz: rate / 64 (500–3000 Hz) and 4000 + 100 × bits. */
-export function formatTonesHz(sampleRate: number, bitsPerSample: number): [number, number] {
-  return [sampleRate / 64, 4000 + 100 * bitsPerSample];
+/** The format section names the written rate by a tone at rate / 64 Hz (500–3000 Hz)… */
+export const FORMAT_RATE_DIVISOR = 64;
+/** …and the bit depth by a tone at 4000 + 100 × bits Hz (5600, 6400, 7200 Hz). */
+export const FORMAT_BITS_BASE_HZ = 4000;
+export const FORMAT_BITS_STEP_HZ = 100;
+
+/** Frequencies of the format section's two tones, Hz. */
+function formatTonesHz(sampleRate: number, bitsPerSample: number): [number, number] {
+  return [sampleRate / FORMAT_RATE_DIVISOR, FORMAT_BITS_BASE_HZ + FORMAT_BITS_STEP_HZ * bitsPerSample];
 }
 
 /** @throws RangeError when the rate is outside 32–192 kHz */
@@ -121,8 +127,8 @@ export function sectionNamed(layout: CheckSignalLayout, name: SectionName): Chec
   return found[0];
 }
 
-export const sectionStartFrame = (section: CheckSection, sampleRate: number) => Math.round(section.startSec * sampleRate);
-export const sectionEndFrame = (section: CheckSection, sampleRate: number) => Math.round((section.startSec + section.durationSec) * sampleRate);
+const sectionStartFrame = (section: CheckSection, sampleRate: number) => Math.round(section.startSec * sampleRate);
+const sectionEndFrame = (section: CheckSection, sampleRate: number) => Math.round((section.startSec + section.durationSec) * sampleRate);
 
 /** Renders the check signal block by block (float, full scale 1.0) without holding all of it. */
 export class CheckSignalRenderer {

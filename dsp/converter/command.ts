@@ -84,7 +84,7 @@ const show = (value: number | null, unit: string, decimals = 1) => (value === nu
 function summary(report: ConverterReport, file: string): string {
   const lines = [
     file,
-    `  Check signal found at ${report.signal.startSec.toFixed(2)}–${report.signal.endSec.toFixed(2)} s (${formatKhz(report.file.sampleRate)}, ${report.file.bitsPerSample}-bit, ${report.file.channels} ch); levels in dB FS, full-scale sine = 0 dB FS (AES17)`,
+    `  Check signal found at ${report.signal.startSec.toFixed(2)}–${report.signal.endSec.toFixed(2)} s (${formatKhz(report.file.sampleRate)}, ${report.file.bitsPerSample}-bit${report.file.encoding === 'float' ? ' float' : ''}, ${report.file.channels} ch); levels in dB FS, full-scale sine = 0 dB FS (AES17)`,
     `  Clock error ${show(report.clockErrorPpm, 'ppm', 2)}   crosstalk ${show(report.crosstalkDb, 'dB')}   gain mismatch ${show(report.channelGainMismatchDb, 'dB', 2)}   delay ch 2 vs ch 1 ${show(report.interChannelDelaySamples, 'samples', 0)}`,
     ...report.channels.map((channel, c) =>
       channel.dead

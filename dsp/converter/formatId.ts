@@ -1,7 +1,8 @@
+import { FORMAT_BITS_BASE_HZ, FORMAT_BITS_STEP_HZ, FORMAT_RATE_DIVISOR } from './checkSignal';
 import { fftOfSize } from './fftCache';
 
 /**
- * Reads the format section: the written sample rate from a tone at rate/64 Hz and the written
+ * Reads the format section: the written sample rate from a tone at rate / 64 Hz and the written
  * bit depth from a tone at 4000 + 100 × bits Hz. A signal written at one rate and recorded at
  * another is then still measured against the right multitone grid.
  */
@@ -53,10 +54,10 @@ export function identifyWrittenFormat(x: Float64Array, sampleRate: number, ratio
   const rateTone = peakHz(400, 3200);
   let writtenRate: number | null = null;
   if (rateTone !== null) {
-    const reading = 64 * rateTone;
+    const reading = FORMAT_RATE_DIVISOR * rateTone;
     writtenRate = STANDARD_RATES_HZ.find((rate) => Math.abs(reading / rate - 1) <= SNAP_TOLERANCE) ?? Math.round(reading);
   }
   const bitsTone = peakHz(5000, 7600);
-  const bits = bitsTone === null ? null : Math.round((bitsTone - 4000) / 100);
+  const bits = bitsTone === null ? null : Math.round((bitsTone - FORMAT_BITS_BASE_HZ) / FORMAT_BITS_STEP_HZ);
   return { sampleRate: writtenRate, bitsPerSample: bits === 16 || bits === 24 || bits === 32 ? bits : null };
 }

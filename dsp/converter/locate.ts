@@ -4,7 +4,7 @@ import { ConverterCheckError } from './ConverterCheckError';
 import type { MarkerCandidate } from './markerSearch';
 
 /** Largest clock error between player and recorder searched for, relative (±1000 ppm). */
-export const MAX_CLOCK_ERROR = 1e-3;
+const MAX_CLOCK_ERROR = 1e-3;
 
 export interface LocatedSignal {
   /** Frame of the start marker (within a few samples). */

@@ -33,7 +33,7 @@ const MIN_SPACING_HZ = 5;
 /** Reference tone, Hz (AES17 test frequency). */
 const REFERENCE_HZ = 997;
 /** Peak of the multitone, dB FS (a full-scale sine peaks at 0 dB FS). */
-export const MULTITONE_PEAK_DBFS = -3;
+const MULTITONE_PEAK_DBFS = -3;
 
 /** The tone grid for a sample rate. Deterministic: the generator and the analysis derive the same design. */
 export function designMultitone(sampleRate: number): MultitoneDesign {
