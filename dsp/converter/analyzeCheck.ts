@@ -8,14 +8,14 @@ import { ClipCounter, readPass, WindowCapture } from './capture';
 import { CROSSTALK_TONES_HZ, MEASURED_SECTIONS, measureChannel, steadyPart, steadyRange, type ChannelSpan, type MeasureContext, type SignalClock } from './channelMeasure';
 import { CHECK_TONE_HZ, checkSignalLayout, MAX_CHECK_CHANNELS, MAX_CHECK_RATE_HZ, MIN_CHECK_RATE_HZ, sectionNamed, sectionsNamed, type CheckSignalLayout } from './checkSignal';
 import { ConverterCheckError } from './ConverterCheckError';
-import { CrosstalkMeter } from './crosstalkMeter';
+import { CrosstalkMeter, leakagePaths } from './crosstalkMeter';
 import { channelDelay } from './delay';
 import { identifyWrittenFormat, type WrittenFormat } from './formatId';
 import { judgeConverterCheck } from './judge';
 import { locateSignal, markerDistanceSec } from './locate';
+import { placeChannels } from './channelPlacement';
 import { markerFrames } from './markers';
 import { MarkerSearch } from './markerSearch';
-import { refineMarker } from './markerRefine';
 import { designMultitone, HIGHEST_TONE_FRACTION } from './multitone';
 import type { ConverterChannelReport, ConverterReport, CrosstalkPath } from './report';
 import { DEFAULT_CONVERTER_THRESHOLDS, type ConverterThresholds } from './thresholds';
@@ -42,13 +42,9 @@ const LEVEL_REFERENCE = 'dB FS: a full-scale sine reads 0 dB FS (AES17). Take re
 const MAX_CHANNEL_DELAY_SEC = 0.01;
 /** Extra room around each captured window for the first position estimate's error, seconds. */
 const WINDOW_SLACK_SEC = 0.005;
-/** A channel whose markers match less than this carries no usable signal. [common practice] */
-const MIN_MARKER_MATCH = 0.3;
 /** Length of multitone compared between channels for their delay, seconds, from a second into it. */
 const DELAY_SPAN_SEC = 0.5;
 const DELAY_OFFSET_SEC = 1;
-/** Crosstalk below this is reported as this (an undriven channel of digital zero has none at all), dB. */
-const CROSSTALK_FLOOR_DB = -200;
 
 /** Analyses a check recording on disk. */
 export function analyzeConverterCheckFile(path: string, options: ConverterCheckOptions = {}): Promise<ConverterReport> {
@@ -102,28 +98,12 @@ export async function analyzeConverterCheck(open: () => Readable, options: Conve
   await readPass(open(), [capture, clips]);
 
   const channelIndices = [...Array(channelCount).keys()];
-  const markers = capture.windows.map(([startAudio, endAudio]) => {
-    const start = refineMarker(startAudio.samples, located.startFrame - startAudio.firstFrame, radius, rate, 'up');
-    const end = refineMarker(endAudio.samples, located.endFrame - endAudio.firstFrame, radius, rate, 'down');
-    return { start: { ...start, position: start.position + startAudio.firstFrame }, end: { ...end, position: end.position + endAudio.firstFrame } };
-  });
-  const responding = markers.map(({ start, end }) => start.match >= MIN_MARKER_MATCH && end.match >= MIN_MARKER_MATCH);
-  const live = channelIndices.filter((c) => responding[c]);
-  if (live.length === 0) {
-    throw new ConverterCheckError('no-signal', 'The check signal\'s markers were found but no channel carries them clearly enough to measure.');
-  }
-  const mean = (values: number[]) => values.reduce((sum, v) => sum + v, 0) / values.length;
-  const meanStart = mean(live.map((c) => markers[c].start.position));
-  const meanEnd = mean(live.map((c) => markers[c].end.position));
-  const startFrames = channelIndices.map((c) => (responding[c] ? markers[c].start.position : meanStart));
-  const endFrames = channelIndices.map((c) => (responding[c] ? markers[c].end.position : meanEnd));
-  const markerRatio = (markerDistanceSec(channelCount) * rate) / mean(live.map((c) => markers[c].end.position - markers[c].start.position));
-  const lead = live.reduce((best, c) => (markers[c].start.match > markers[best].start.match ? c : best), live[0]);
+  const { responding, startFrames, endFrames, polarity, markerMatch, markerRatio, lead } = placeChannels(capture.windows, located, radius, rate);
   const spanOf = (c: number): ChannelSpan => ({ windows: capture.windows[c].slice(2), markerFrame: startFrames[c] });
 
   const { context, written } = sharedMeasures(spanOf(lead), rate, markerRatio, startMarkerSec, layout);
   const channels: ConverterChannelReport[] = channelIndices.map((c) =>
-    measureChannel(spanOf(c), context, responding[c], markers[c].start.polarity + markers[c].end.polarity, { signal: clips.counts[0][c], fullTone: clips.counts[1][c] }));
+    measureChannel(spanOf(c), context, responding[c], polarity[c], { signal: clips.counts[0][c], fullTone: clips.counts[1][c] }));
 
   // Delay against channel 1, from the multitone where every channel carries the same signal (the
   // capture windows are the same frames in every channel).
@@ -151,17 +131,7 @@ export async function analyzeConverterCheck(open: () => Readable, options: Conve
       channelCount,
     );
     await readPass(open(), [meter]);
-    const amplitudes = meter.amplitudes();
-    crosstalkSections.forEach((section, s) => {
-      const driven = section.drivenChannel!;
-      if (channels[driven].dead) return;
-      channels.forEach((channel, into) => {
-        if (into === driven || channel.dead) return;
-        const db = CROSSTALK_TONES_HZ.map((_, t) => roundTo(Math.max(CROSSTALK_FLOOR_DB, 20 * Math.log10(amplitudes[s][t][into] / amplitudes[s][t][driven])), 2));
-        crosstalkPaths.push({ driven, into, db });
-        channel.crosstalkIntoDb = Math.max(channel.crosstalkIntoDb ?? Number.NEGATIVE_INFINITY, ...db);
-      });
-    });
+    crosstalkPaths.push(...leakagePaths(meter.amplitudes(), crosstalkSections, channels));
   }
 
   const liveGains = channels.filter((channel) => !channel.dead).map((channel) => channel.gainDb!);
@@ -182,7 +152,7 @@ export async function analyzeConverterCheck(open: () => Readable, options: Conve
     signal: {
       startSec: roundTo(startFrames[lead] / rate, 4),
       endSec: roundTo((endFrames[lead] + markerLength) / rate, 4),
-      markerMatch: roundTo(mean(live.map((c) => (markers[c].start.match + markers[c].end.match) / 2)), 3),
+      markerMatch: roundTo(markerMatch, 3),
       writtenSampleRate: written.sampleRate,
       writtenBits: written.bitsPerSample,
     },

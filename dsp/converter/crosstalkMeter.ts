@@ -1,5 +1,11 @@
+import { roundTo } from '../util/decibels';
 import type { SampleBlock } from '../types';
 import type { BlockVisitor } from './capture';
+import type { CheckSection } from './checkSignal';
+import type { ConverterChannelReport, CrosstalkPath } from './report';
+
+/** Crosstalk below this is reported as this (an undriven channel of digital zero has none at all), dB. */
+const CROSSTALK_FLOOR_DB = -200;
 
 /** Frames between exact recomputations of the rotating phasors (keeps rounding drift far below 1e-12). */
 const RESYNC_FRAMES = 4096;
@@ -75,4 +81,25 @@ export class CrosstalkMeter implements BlockVisitor {
       re = nextRe;
     }
   }
+}
+
+/**
+ * Leakage paths from the measured amplitudes: in each one-channel section, every other live
+ * channel's level at each tone relative to the driven channel's. Also sets each channel's worst
+ * `crosstalkIntoDb`.
+ * @param amplitudes [section][tone][channel], as CrosstalkMeter.amplitudes() gives them
+ */
+export function leakagePaths(amplitudes: number[][][], sections: CheckSection[], channels: ConverterChannelReport[]): CrosstalkPath[] {
+  const paths: CrosstalkPath[] = [];
+  sections.forEach((section, s) => {
+    const driven = section.drivenChannel!;
+    if (channels[driven].dead) return;
+    channels.forEach((channel, into) => {
+      if (into === driven || channel.dead) return;
+      const db = amplitudes[s].map((levels) => roundTo(Math.max(CROSSTALK_FLOOR_DB, 20 * Math.log10(levels[into] / levels[driven])), 2));
+      paths.push({ driven, into, db });
+      channel.crosstalkIntoDb = Math.max(channel.crosstalkIntoDb ?? Number.NEGATIVE_INFINITY, ...db);
+    });
+  });
+  return paths;
 }
