@@ -1,11 +1,12 @@
 import { readFile } from 'node:fs/promises';
+import { CONVERTER_USAGE, runConverterCommand } from './converter/command';
 import { reasonOf, verdictOf } from './findings';
 import { analyzeFile } from './pipeline';
 import { UnreadableWavError } from './reader/UnreadableWavError';
 import { DEFAULT_SPEC, deliverySpecSchema, type DeliverySpec } from './spec';
 import type { AnalysisReport } from './types';
 
-const USAGE = 'Usage: npm run -s analyze -- <file.wav> [--json] [--spec <spec.json>]';
+const USAGE = `Usage: npm run -s analyze -- <file.wav> [--json] [--spec <spec.json>]\n${CONVERTER_USAGE}`;
 /** Exit code for a file or spec the tool refuses (the user's input, not a crash). */
 const EXIT_REFUSED = 2;
 
@@ -76,6 +77,8 @@ function summary(report: AnalysisReport, file: string, spec: DeliverySpec): stri
 }
 
 async function main(): Promise<number> {
+  const converterExit = await runConverterCommand(process.argv.slice(2));
+  if (converterExit !== null) return converterExit;
   let args: CliArguments;
   let spec: DeliverySpec;
   try {
