@@ -10,7 +10,18 @@ const envSchema = z
     DB_USER: z.string().min(1).default('takeproof'),
     DB_PASSWORD: z.string().default(''),
     NEXTAUTH_SECRET: z.string().min(1, 'NEXTAUTH_SECRET must be set'),
+    /** `s3`: takes and waveform files in an S3-compatible bucket; `local`: files below STORAGE_DIR (one machine only). */
+    STORAGE_DRIVER: z.enum(['s3', 'local']).default('s3'),
+    /** Where earlier versions kept takes on local disk (read by `npm run storage:migrate`), and the `local` driver's folder. */
     STORAGE_DIR: z.string().default('var/storage'),
+    /** Empty: the provider's own endpoint for S3_REGION (AWS). */
+    S3_ENDPOINT: z.union([z.literal(''), z.string().url()]).default(''),
+    S3_REGION: z.string().min(1).default('us-east-1'),
+    S3_BUCKET: z.string().min(3).default('takeproof'),
+    S3_ACCESS_KEY_ID: z.string().default(''),
+    S3_SECRET_ACCESS_KEY: z.string().default(''),
+    /** `true` for most self-hosted services: bucket in the path (host/bucket/key) instead of the host name. */
+    S3_FORCE_PATH_STYLE: z.enum(['true', 'false']).default('true').transform((v) => v === 'true'),
     UPLOAD_MAX_BYTES: z.coerce.number().int().positive().default(8 * 1024 ** 3),
     SMTP_URL: z.string().default('smtp://127.0.0.1:2525'),
     MAIL_FROM: z.string().default('Takeproof <takeproof@demo.test>'),

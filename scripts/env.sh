@@ -37,6 +37,23 @@ wait_for_http() {
   return 1
 }
 
+wait_for_port() {
+  # $1 port on 127.0.0.1, $2 seconds
+  for _ in $(seq 1 $(( $2 * 4 ))); do
+    port_free "$1" || return 0
+    sleep 0.25
+  done
+  return 1
+}
+
+# The local S3 stand-in (scripts/s3-fake.ts) on S3_ENDPOINT's port, in the background; its pid is appended to PIDS.
+start_s3_fake() {
+  local port="${S3_ENDPOINT##*:}"; port="${port%%/*}"
+  port_free "$port" || { echo "Port $port (S3_ENDPOINT) is already in use; stop the other service or change S3_ENDPOINT." >&2; return 1; }
+  "${RUN_TS[@]}" scripts/s3-fake.ts "$@" & PIDS+=($!)
+  wait_for_port "$port" 30 || { echo "The local S3 service did not start" >&2; return 1; }
+}
+
 # node + tsx with the react-server condition, so modules marked `server-only` load outside Next.js.
 # An array rather than a function, so `"${RUN_TS[@]}" x.ts &` leaves $! as node's own pid.
 RUN_TS=(node --conditions=react-server --import tsx)

@@ -40,6 +40,7 @@ if [ ! -f .next/BUILD_ID ] || [ -n "$(find app components lib models dsp public 
 fi
 
 [ -f scripts/mail-catcher.ts ] && { "${RUN_TS[@]}" scripts/mail-catcher.ts & PIDS+=($!); }
+[ "${STORAGE_DRIVER:-s3}" = s3 ] && [ -n "${S3_FAKE_DIR:-}" ] && start_s3_fake
 [ -f scripts/worker.ts ] && { "${RUN_TS[@]}" scripts/worker.ts & PIDS+=($!); }
 node node_modules/next/dist/bin/next start -H "$HOST" -p "$PORT" & PIDS+=($!)
 

@@ -1,7 +1,7 @@
 #!/usr/bin/env bash
 # A throwaway Takeproof for tests and benchmarks: its own MariaDB, build, web server, worker and mail catcher.
 # Sourced by test.sh and bench-app.sh after env.sh and db.sh. TEST_SLOT=N (0-9) gives a run its own
-# ports (web 3100+N, MariaDB 3317+N, SMTP 2526+N), data (var/test-N) and build folder (.next-N),
+# ports (web 3100+N, MariaDB 3317+N, SMTP 2526+N, S3 9410+N), data (var/test-N) and build folder (.next-N),
 # so several runs can share a machine.
 
 test_env_configure() {
@@ -12,6 +12,8 @@ test_env_configure() {
   export DB_HOST=127.0.0.1 DB_PORT=$((3317 + SLOT)) DB_NAME=takeproof_test DB_USER=takeproof_test DB_PASSWORD=test-password-not-secret
   export DB_DATA_DIR="$TEST_DIR/mariadb" STORAGE_DIR="$TEST_DIR/storage" MAIL_OUTBOX_DIR="$TEST_DIR/mail" TAKEPROOF_TEST_DIR="$TEST_DIR"
   export SMTP_PORT=$((2526 + SLOT)); export SMTP_URL="smtp://127.0.0.1:$SMTP_PORT" MAIL_FROM="Takeproof test <takeproof@demo.test>"
+  export STORAGE_DRIVER=s3 S3_ENDPOINT="http://127.0.0.1:$((9410 + SLOT))" S3_REGION=us-east-1 S3_BUCKET=takeproof-test S3_FORCE_PATH_STYLE=true
+  export S3_ACCESS_KEY_ID=takeproof-test S3_SECRET_ACCESS_KEY=test-storage-secret-not-secret S3_FAKE_DIR="$TEST_DIR/s3"
   export NEXTAUTH_SECRET=test-secret-for-the-throwaway-test-server-only DEMO_PASSWORD=demo-takes-2026
   export UPLOAD_MAX_BYTES="${UPLOAD_MAX_BYTES:-134217728}" JOB_STALE_AFTER_SEC="${JOB_STALE_AFTER_SEC:-6}"
   export NEXTAUTH_URL="http://$HOST:$PORT" TAKEPROOF_TEST_URL="http://$HOST:$PORT" NEXT_TELEMETRY_DISABLED=1
@@ -51,6 +53,7 @@ test_env_up() {
   echo "Building the app for the browser and HTTP tests…"
   npx next build > "$TEST_DIR/build.log" 2>&1 || { tail -60 "$TEST_DIR/build.log"; echo "next build failed" >&2; return 1; }
   "${RUN_TS[@]}" scripts/mail-catcher.ts > "$TEST_DIR/mail.log" 2>&1 & PIDS+=($!)
+  start_s3_fake > "$TEST_DIR/s3.log" 2>&1 || { cat "$TEST_DIR/s3.log"; return 1; }
   "${RUN_TS[@]}" scripts/worker.ts > "$TEST_DIR/worker.log" 2>&1 & PIDS+=($!); export TAKEPROOF_WORKER_PID=$!
   node node_modules/next/dist/bin/next start -H "$HOST" -p "$PORT" > "$TEST_DIR/server.log" 2>&1 & PIDS+=($!); export TAKEPROOF_SERVER_PID=$!
   wait_for_http "$TAKEPROOF_TEST_URL/signin" 60 || { tail -40 "$TEST_DIR/server.log"; echo "The test server did not start" >&2; return 1; }

@@ -24,11 +24,9 @@ export async function checkStorage(): Promise<StorageReport> {
     if (t.peaksKey) referenced.add(t.peaksKey);
   }
   const present = new Set<string>();
+  for await (const key of storage().list()) present.add(key);
   const partialWrites: string[] = [];
-  for await (const key of storage().list()) {
-    if (key.endsWith('.partial')) partialWrites.push(key);
-    else present.add(key);
-  }
+  for await (const write of storage().unfinishedWrites()) partialWrites.push(write);
   return {
     filesWithoutRows: [...present].filter((k) => !referenced.has(k)).sort(),
     rowsWithoutFiles: takes.filter((t) => !present.has(t.storageKey)).map((t) => ({ takeId: t.id, key: t.storageKey })),

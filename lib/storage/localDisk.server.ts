@@ -55,6 +55,14 @@ export class LocalDiskStorage implements StorageDriver {
   }
 
   async *list(): AsyncIterable<string> {
+    for await (const key of this.walk()) if (!key.endsWith(PARTIAL_SUFFIX)) yield key;
+  }
+
+  async *unfinishedWrites(): AsyncIterable<string> {
+    for await (const key of this.walk()) if (key.endsWith(PARTIAL_SUFFIX)) yield key;
+  }
+
+  private async *walk(): AsyncIterable<string> {
     const root = this.root;
     async function* walk(dir: string): AsyncIterable<string> {
       let handle;

@@ -3,16 +3,28 @@ import { randomUUID } from 'node:crypto';
 import path from 'node:path';
 import { env } from '@/lib/env.server';
 import { LocalDiskStorage } from './localDisk.server';
+import { S3Storage, s3Client } from './s3.server';
 import type { StorageDriver } from './types';
 
 export type { ByteRange, StorageDriver } from './types';
 
 let driver: StorageDriver | undefined;
 
-/** The configured storage driver (local disk under STORAGE_DIR). */
+/** The configured storage driver: the S3 bucket (STORAGE_DRIVER=s3, the default) or local disk under STORAGE_DIR. */
 export function storage(): StorageDriver {
-  driver ??= new LocalDiskStorage(path.resolve(env().STORAGE_DIR));
+  driver ??= env().STORAGE_DRIVER === 's3' ? bucketStorage() : diskStorage();
   return driver;
+}
+
+/** The bucket named by the S3_* settings. */
+export function bucketStorage(): S3Storage {
+  const config = env();
+  return new S3Storage(s3Client(config), config.S3_BUCKET);
+}
+
+/** The folder STORAGE_DIR: the `local` driver, and where earlier versions kept every take. */
+export function diskStorage(): LocalDiskStorage {
+  return new LocalDiskStorage(path.resolve(env().STORAGE_DIR));
 }
 
 /** Replaces the driver, e.g. with one that fails, to exercise error paths. */

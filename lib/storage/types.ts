@@ -8,7 +8,7 @@ export interface ByteRange {
 
 /**
  * Where take files and their waveform files live. Callers only see keys;
- * a driver decides where the bytes go (local disk now, an object store later).
+ * a driver decides where the bytes go (an S3-compatible bucket, or local disk).
  */
 export interface StorageDriver {
   /** Writes the stream under `key`; the object appears only once every byte is written. */
@@ -18,6 +18,8 @@ export interface StorageDriver {
   /** Size of the object, or null when there is none. */
   stat(key: string): Promise<{ bytes: number } | null>;
   delete(key: string): Promise<void>;
-  /** Every stored key (for the consistency check). */
+  /** Every stored key (for the consistency check); unfinished writes are not listed. */
   list(): AsyncIterable<string>;
+  /** Writes begun and not finished (an upload in flight, or one that died), as readable descriptions. */
+  unfinishedWrites(): AsyncIterable<string>;
 }

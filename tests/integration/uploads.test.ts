@@ -1,66 +1,43 @@
-import { closeSync, openSync, readSync, readdirSync, statSync } from 'node:fs';
 import http from 'node:http';
-import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { db } from '@/lib/db/connection.server';
 import { BASE_URL, signedInAll, type Client, type DemoPerson } from '../support/http';
 import { Take } from '@/models';
+import { listObjects, objectHead } from '../support/bucket';
 import { makeWav, newSession, uploadTakes, waitForTake } from '../support/takes';
 
 let as: Record<DemoPerson | 'anonymous', Client>;
 let sessionId: number;
-const storageDir = path.join(process.env.TAKEPROOF_TEST_DIR ?? 'var/test', 'storage');
 
-function storedFiles(): string[] {
-  const out: string[] = [];
-  const walk = (dir: string) => {
-    let entries: string[] = [];
-    try {
-      entries = readdirSync(dir);
-    } catch {
-      return;
-    }
-    for (const name of entries) {
-      const full = path.join(dir, name);
-      if (statSync(full).isDirectory()) walk(full);
-      else out.push(full);
-    }
-  };
-  walk(storageDir);
-  return out;
+async function storedKeys(): Promise<Set<string>> {
+  return new Set((await listObjects()).keys());
 }
 
 /**
- * Files that appeared since `before` and begin with the first bytes of one of `sent`: what a refused or
- * cut-off upload left behind. The worker and other test files write into the same storage meanwhile,
+ * Objects that appeared since `before` and begin with the first bytes of one of `sent`: what a refused or
+ * cut-off upload left behind. The worker and other test files write into the same bucket meanwhile,
  * so only the content tells this test's leftovers apart.
  */
-function leftoversOf(before: Set<string>, sent: Buffer[]): string[] {
+async function leftoversOf(before: Set<string>, sent: Buffer[]): Promise<string[]> {
   const probes = sent.map((bytes) => bytes.subarray(0, Math.min(bytes.length, 4096)));
-  return storedFiles().filter((file) => {
-    if (before.has(file)) return false;
-    const head = Buffer.alloc(4096);
-    let length: number;
-    try {
-      const fd = openSync(file, 'r');
-      length = readSync(fd, head, 0, head.length, 0);
-      closeSync(fd);
-    } catch {
-      return false; // removed while we looked
-    }
-    return length > 0 && probes.some((probe) => probe.subarray(0, length).equals(head.subarray(0, length)));
-  });
+  const left: string[] = [];
+  for (const key of await storedKeys()) {
+    if (before.has(key)) continue;
+    const head = await objectHead(key, 4096);
+    if (head && head.length > 0 && probes.some((probe) => probe.subarray(0, head.length).equals(head.subarray(0, probe.length)))) left.push(key);
+  }
+  return left;
 }
 
-/** Waits (bounded) until nothing of `sent` is left in storage, finished or partial. */
+/** Waits (bounded) until nothing of `sent` is left in the bucket. */
 async function expectNothingKept(before: Set<string>, sent: Buffer[]) {
   const until = Date.now() + 15_000;
-  let left = leftoversOf(before, sent);
+  let left = await leftoversOf(before, sent);
   while (left.length > 0 && Date.now() < until) {
     await new Promise((r) => setTimeout(r, 100));
-    left = leftoversOf(before, sent);
+    left = await leftoversOf(before, sent);
   }
-  expect(left.map((f) => path.relative(storageDir, f))).toEqual([]);
+  expect(left).toEqual([]);
 }
 
 async function takeCount(): Promise<number> {
@@ -107,7 +84,7 @@ describe('POST /api/sessions/:id/takes', () => {
 
   it('refuses a file that is not a WAV with 415 and a plain message, keeping nothing', async () => {
     const before = await takeCount();
-    const filesBefore = new Set(storedFiles());
+    const filesBefore = await storedKeys();
     const notes = Buffer.from('Interview notes, not audio. '.repeat(100));
     const { status, body } = await uploadTakes(as.engineer, sessionId, [{ name: 'notes.txt', bytes: notes }]);
     expect(status).toBe(415);
@@ -118,7 +95,7 @@ describe('POST /api/sessions/:id/takes', () => {
 
   it('keeps nothing from a request whose second file is refused', async () => {
     const before = await takeCount();
-    const filesBefore = new Set(storedFiles());
+    const filesBefore = await storedKeys();
     const good = makeWav({ seconds: 1, seed: 21 });
     const bad = Buffer.from('RIFX0000WAVE-not-really');
     const { status } = await uploadTakes(as.engineer, sessionId, [
@@ -134,7 +111,7 @@ describe('POST /api/sessions/:id/takes', () => {
     const limit = Number(process.env.UPLOAD_MAX_BYTES ?? 134217728);
     const big = Buffer.alloc(limit + 1024);
     makeWav({ seconds: 0.01 }).copy(big);
-    const filesBefore = new Set(storedFiles());
+    const filesBefore = await storedKeys();
     const { status, body } = await uploadTakes(as.engineer, sessionId, [{ name: 'too-long-room-tone.wav', bytes: big }]);
     expect(status).toBe(413);
     expect(body.message).toMatch(/larger than/);
@@ -156,7 +133,7 @@ describe('POST /api/sessions/:id/takes', () => {
 
   it('leaves no take and no file behind when the upload is cut off', async () => {
     const before = await takeCount();
-    const filesBefore = new Set(storedFiles());
+    const filesBefore = await storedKeys();
     const cookie = as.engineer.cookieHeader();
     const boundary = 'takeproofcutoff';
     const head = Buffer.from(`--${boundary}\r\nContent-Disposition: form-data; name="file"; filename="cut.wav"\r\nContent-Type: audio/wav\r\n\r\n`);
@@ -165,7 +142,7 @@ describe('POST /api/sessions/:id/takes', () => {
       const url = new URL(`/api/sessions/${sessionId}/takes`, BASE_URL);
       const request = http.request(url, {
         method: 'POST',
-        headers: { cookie, 'content-type': `multipart/form-data; boundary=${boundary}`, 'content-length': head.length + wav.length + 100 },
+        headers: { cookie, origin: BASE_URL, 'content-type': `multipart/form-data; boundary=${boundary}`, 'content-length': head.length + wav.length + 100 },
       });
       request.on('error', () => resolve());
       request.on('response', () => resolve());
@@ -184,7 +161,7 @@ describe('POST /api/sessions/:id/takes', () => {
 
   it('stores a hostile file name harmlessly: shown without control characters, never used as a path', async () => {
     const hostile = `../../etc/passwd\t\r\n<script>alert(1)</script>${'x'.repeat(500)}.wav`;
-    const filesBefore = new Set(storedFiles());
+    const filesBefore = await storedKeys();
     const { status, body } = await uploadTakes(as.engineer, sessionId, [{ name: hostile, bytes: makeWav({ seconds: 0.5, seed: 91 }) }]);
     expect(status, JSON.stringify(body)).toBe(201);
     const name: string = body.takes[0].originalName;
@@ -193,11 +170,11 @@ describe('POST /api/sessions/:id/takes', () => {
     expect(name.length).toBeLessThanOrEqual(512);
     // (FormData sends CR LF as %0D%0A, as browsers do.)
     expect(name.slice(0, 50)).toBe('../../etc/passwd%0D%0A<script>alert(1)</script>xxx');
-    // The stored file got a generated key inside the storage folder, whatever the name said. The worker may be
-    // writing this take's waveform file (or another test's files) meanwhile, so look at this take's own keys.
+    // The stored object got a generated key, whatever the name said. The worker may be writing this take's
+    // waveform file (or another test's objects) meanwhile, so look at this take's own keys.
     const take = await Take.findByPk(body.takes[0].id, { rejectOnEmpty: true });
     expect(take.storageKey).toMatch(/^takes\/\d{4}\/\d{2}\/[0-9a-f-]{36}\.wav$/);
-    const appeared = storedFiles().filter((f) => !filesBefore.has(f)).map((f) => path.relative(storageDir, f).split(path.sep).join('/'));
+    const appeared = [...(await storedKeys())].filter((key) => !filesBefore.has(key));
     expect(appeared).toContain(take.storageKey);
     // Nothing named after the upload was written anywhere under storage.
     expect(appeared.filter((key) => key !== take.storageKey && !key.startsWith('takes/') && !key.startsWith('peaks/'))).toEqual([]);

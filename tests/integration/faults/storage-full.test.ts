@@ -6,14 +6,14 @@ import { Client, DEMO } from '../../support/http';
 import { makeWav } from '../../support/takes';
 import { startExtraServer } from '../../support/testServices';
 
-// A real full disk: a 2 MiB tmpfs as the storage folder of a second server from the same build.
+// A real full disk: a 2 MiB tmpfs as the storage folder of a second server from the same build, on local-disk storage.
 const smallDisk = path.resolve(process.env.TAKEPROOF_TEST_DIR ?? 'var/test', 'small-disk');
 let server: Awaited<ReturnType<typeof startExtraServer>> | null = null;
 
 beforeAll(async () => {
   mkdirSync(smallDisk, { recursive: true });
   execFileSync('mount', ['-t', 'tmpfs', '-o', 'size=2m', 'tmpfs', smallDisk]);
-  server = await startExtraServer(Number(process.env.PORT ?? 3100) + 40, { STORAGE_DIR: smallDisk });
+  server = await startExtraServer(Number(process.env.PORT ?? 3100) + 40, { STORAGE_DRIVER: 'local', STORAGE_DIR: smallDisk });
 });
 
 afterAll(() => {
