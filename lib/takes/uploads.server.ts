@@ -18,6 +18,16 @@ import { toTakeSummary } from './service.server';
 
 const WAV_MAGIC = new Set(['RIFF', 'RF64', 'BW64']);
 const MULTIPART_OVERHEAD = 1024 * 1024;
+/** What one upload request may hold: files, form fields besides them, and bytes per field. */
+const MAX_FILES = 50;
+const MAX_FIELDS = 20;
+const MAX_FIELD_BYTES = 1024;
+
+const cutOff = () => new AppError('invalid:upload_aborted', 'The upload was cut off before it finished. Nothing was kept.');
+const truncated = () =>
+  new AppError('invalid:upload_truncated', 'The upload ended before its last part was complete (the request body is shorter than its own multipart framing says). Nothing was kept; send it again.');
+const unreadablePart = () =>
+  new AppError('invalid:upload', 'The upload could not be read. A file name may hold characters that are not allowed (control characters); rename the file and try again.');
 
 /** Counts, hashes and checks the bytes of one uploaded file as they stream past. */
 class UploadCheck extends Transform {
@@ -101,57 +111,77 @@ export async function receiveTakes(actor: Actor, sessionId: number, request: Req
   }
   const maxBytes = env().UPLOAD_MAX_BYTES;
   const declaredLength = Number(request.headers.get('content-length') ?? NaN);
-  if (Number.isFinite(declaredLength) && declaredLength > maxBytes * 50 + MULTIPART_OVERHEAD) {
+  if (Number.isFinite(declaredLength) && declaredLength > maxBytes * MAX_FILES + MULTIPART_OVERHEAD) {
     throw new AppError('too_large:upload', `This upload is larger than the ${formatBytes(maxBytes)} per file this studio accepts.`);
   }
 
   const stored: StoredFile[] = [];
   let recorderId: number | null = null;
+  // Each file's write, in order; files still being written when the request fails are stopped.
+  let chain = Promise.resolve();
+  const writing = new Set<UploadCheck>();
   try {
     await new Promise<void>((resolve, reject) => {
       let settled = false;
+      // Refuses the whole request: stops reading it, stops the files being written (a cut-off source
+      // would otherwise leave them waiting for bytes forever) and answers with `error`.
       const fail = (error: unknown) => {
         if (settled) return;
         settled = true;
         source.unpipe(parser);
         drainThenDrop(source);
+        for (const check of writing) check.destroy(error as Error);
         reject(error);
       };
-      let chain = Promise.resolve();
       let parser: busboy.Busboy;
       try {
         // preservePath: keep the name as sent (it is only shown); busboy would otherwise cut it at the last slash.
         // defParamCharset: browsers send file names as UTF-8.
-        parser = busboy({ headers: { 'content-type': contentType }, preservePath: true, defParamCharset: 'utf8', limits: { files: 50, fields: 20, fieldSize: 1024 } });
+        parser = busboy({ headers: { 'content-type': contentType }, preservePath: true, defParamCharset: 'utf8', limits: { files: MAX_FILES, fields: MAX_FIELDS, fieldSize: MAX_FIELD_BYTES } });
       } catch {
         throw new AppError('invalid:upload', 'The multipart body could not be read.');
       }
       const source = Readable.fromWeb(request.body as WebReadableStream);
-      source.on('error', () => fail(new AppError('invalid:upload_aborted', 'The upload was cut off before it finished. Nothing was kept.')));
-      parser.on('field', (name, value) => {
-        if (name === 'recorderId' && value !== '') recorderId = Number(value);
+      source.on('error', () => fail(cutOff()));
+      parser.on('filesLimit', () => fail(new AppError('invalid:upload_files', `This upload holds more than ${MAX_FILES} files; Takeproof takes at most ${MAX_FILES} in one request. Nothing was kept: send the files in several uploads.`)));
+      parser.on('fieldsLimit', () => fail(new AppError('invalid:upload_fields', `This upload has more than ${MAX_FIELDS} form fields besides its files, so some (the recorder among them) would be lost. Nothing was kept: send only \`recorderId\` and the files.`)));
+      parser.on('field', (name, value, info) => {
+        if (info.nameTruncated || info.valueTruncated) {
+          fail(new AppError('invalid:upload_fields', `The form field “${cleanFileName(name)}” is longer than the ${MAX_FIELD_BYTES} bytes Takeproof reads. Nothing was kept.`));
+        } else if (name === 'recorderId' && value !== '') recorderId = Number(value);
       });
       parser.on('file', (field, file, info) => {
+        if (settled) return void file.resume();
+        const originalName = cleanFileName(info.filename ?? '');
         if (field !== 'file') {
           file.resume();
+          fail(new AppError('invalid:upload', `“${originalName}” was sent in the field \`${cleanFileName(field)}\`; send takes in fields named \`file\`. Nothing was kept.`));
           return;
         }
-        const originalName = cleanFileName(info.filename ?? '');
         const key = newTakeKey();
         const check = new UploadCheck(maxBytes, originalName);
-        const put = storage().put(key, file.pipe(check));
-        // A cut-off source must also end the file stream, or put() would wait forever.
-        source.once('error', (error) => check.destroy(error));
-        file.on('error', (error) => check.destroy(error));
+        // The first refusal is the one to report; listening here also keeps it from going unhandled.
+        let refusal: unknown;
+        check.on('error', (error) => (refusal ??= error));
+        // A body that ends inside this file: busboy ends the file stream with an error of its own.
+        file.on('error', () => check.destroy(truncated()));
+        file.pipe(check);
+        writing.add(check);
+        const put = storage()
+          .put(key, check)
+          .then(
+            () => null,
+            (error: unknown) => refusal ?? error,
+          )
+          .finally(() => writing.delete(check));
         chain = chain.then(async () => {
-          await put;
+          const error = await put;
+          if (error) throw error;
           stored.push({ key, originalName, bytes: check.bytes, sha256: check.hash.digest('hex') });
         });
         chain.catch(fail);
       });
-      parser.on('error', () =>
-        fail(new AppError('invalid:upload', 'The upload could not be read. A file name may hold characters that are not allowed (control characters); rename the file and try again.')),
-      );
+      parser.on('error', (error: Error) => fail(error.message === 'Unexpected end of form' ? truncated() : unreadablePart()));
       parser.on('close', () => {
         chain.then(() => {
           if (!settled) {
@@ -165,6 +195,7 @@ export async function receiveTakes(actor: Actor, sessionId: number, request: Req
     if (stored.length === 0) throw new AppError('invalid:upload', 'No WAV file was found in the upload (use the field name `file`).');
     return await recordTakes(actor, sessionId, stored, recorderId);
   } catch (error) {
+    await chain.catch(() => undefined); // a write that was stopped has settled, and a finished one is listed in `stored`
     await Promise.all(stored.map((f) => storage().delete(f.key)));
     throw error;
   }

@@ -3,42 +3,11 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { db } from '@/lib/db/connection.server';
 import { BASE_URL, signedInAll, type Client, type DemoPerson } from '../support/http';
 import { Take } from '@/models';
-import { listObjects, objectHead } from '../support/bucket';
+import { expectNothingKept, storedKeys } from '../support/bucket';
 import { makeWav, newSession, uploadTakes, waitForTake } from '../support/takes';
 
 let as: Record<DemoPerson | 'anonymous', Client>;
 let sessionId: number;
-
-async function storedKeys(): Promise<Set<string>> {
-  return new Set((await listObjects()).keys());
-}
-
-/**
- * Objects that appeared since `before` and begin with the first bytes of one of `sent`: what a refused or
- * cut-off upload left behind. The worker and other test files write into the same bucket meanwhile,
- * so only the content tells this test's leftovers apart.
- */
-async function leftoversOf(before: Set<string>, sent: Buffer[]): Promise<string[]> {
-  const probes = sent.map((bytes) => bytes.subarray(0, Math.min(bytes.length, 4096)));
-  const left: string[] = [];
-  for (const key of await storedKeys()) {
-    if (before.has(key)) continue;
-    const head = await objectHead(key, 4096);
-    if (head && head.length > 0 && probes.some((probe) => probe.subarray(0, head.length).equals(head.subarray(0, probe.length)))) left.push(key);
-  }
-  return left;
-}
-
-/** Waits (bounded) until nothing of `sent` is left in the bucket. */
-async function expectNothingKept(before: Set<string>, sent: Buffer[]) {
-  const until = Date.now() + 15_000;
-  let left = await leftoversOf(before, sent);
-  while (left.length > 0 && Date.now() < until) {
-    await new Promise((r) => setTimeout(r, 100));
-    left = await leftoversOf(before, sent);
-  }
-  expect(left).toEqual([]);
-}
 
 async function takeCount(): Promise<number> {
   return (await (await as.engineer.fetch(`/api/sessions/${sessionId}/takes`)).json()).takes.length;

@@ -1,6 +1,7 @@
 import { GetObjectCommand, HeadObjectCommand, S3Client, paginateListObjectsV2 } from '@aws-sdk/client-s3';
 import { createHash } from 'node:crypto';
 import type { Readable } from 'node:stream';
+import { expect } from 'vitest';
 
 /**
  * The test run's bucket, reached through the AWS SDK with the S3_* settings the app runs with:
@@ -50,4 +51,35 @@ export async function objectExists(key: string): Promise<boolean> {
   } catch {
     return false;
   }
+}
+
+export async function storedKeys(): Promise<Set<string>> {
+  return new Set((await listObjects()).keys());
+}
+
+/**
+ * Objects that appeared since `before` and begin with the first bytes of one of `sent`: what a refused or
+ * cut-off upload left behind. The worker and other test files write into the same bucket meanwhile,
+ * so only the content tells one test's leftovers apart.
+ */
+async function leftoversOf(before: Set<string>, sent: Buffer[]): Promise<string[]> {
+  const probes = sent.filter((bytes) => bytes.length > 0).map((bytes) => bytes.subarray(0, Math.min(bytes.length, 4096)));
+  const left: string[] = [];
+  for (const key of await storedKeys()) {
+    if (before.has(key)) continue;
+    const head = await objectHead(key, 4096);
+    if (head && head.length > 0 && probes.some((probe) => probe.subarray(0, head.length).equals(head.subarray(0, probe.length)))) left.push(key);
+  }
+  return left;
+}
+
+/** Waits (bounded) until nothing of `sent` is left in the bucket. */
+export async function expectNothingKept(before: Set<string>, sent: Buffer[]) {
+  const until = Date.now() + 15_000;
+  let left = await leftoversOf(before, sent);
+  while (left.length > 0 && Date.now() < until) {
+    await new Promise((r) => setTimeout(r, 100));
+    left = await leftoversOf(before, sent);
+  }
+  expect(left).toEqual([]);
 }
