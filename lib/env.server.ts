@@ -23,6 +23,10 @@ const envSchema = z
     /** `true` for most self-hosted services: bucket in the path (host/bucket/key) instead of the host name. */
     S3_FORCE_PATH_STYLE: z.enum(['true', 'false']).default('true').transform((v) => v === 'true'),
     UPLOAD_MAX_BYTES: z.coerce.number().int().positive().default(8 * 1024 ** 3),
+    /** Where the bytes of unfinished resumable (tus) uploads collect until their last byte is in. */
+    UPLOAD_RESUME_DIR: z.string().default('var/uploads'),
+    /** An unfinished resumable upload this old is removed (hours after it was started). */
+    UPLOAD_RESUME_EXPIRY_HOURS: z.coerce.number().positive().default(24),
     SMTP_URL: z.string().default('smtp://127.0.0.1:2525'),
     MAIL_FROM: z.string().default('Takeproof <takeproof@demo.test>'),
     MAIL_OUTBOX_DIR: z.string().default('var/mail'),

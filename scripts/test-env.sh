@@ -13,7 +13,7 @@ test_env_configure() {
   export DB_DATA_DIR="$TEST_DIR/mariadb" STORAGE_DIR="$TEST_DIR/storage" MAIL_OUTBOX_DIR="$TEST_DIR/mail" TAKEPROOF_TEST_DIR="$TEST_DIR"
   export SMTP_PORT=$((2526 + SLOT)); export SMTP_URL="smtp://127.0.0.1:$SMTP_PORT" MAIL_FROM="Takeproof test <takeproof@demo.test>"
   export STORAGE_DRIVER=s3 S3_ENDPOINT="http://127.0.0.1:$((9410 + SLOT))" S3_REGION=us-east-1 S3_BUCKET=takeproof-test S3_FORCE_PATH_STYLE=true
-  export S3_ACCESS_KEY_ID=takeproof-test S3_SECRET_ACCESS_KEY=test-storage-secret-not-secret S3_FAKE_DIR="$TEST_DIR/s3"
+  export S3_ACCESS_KEY_ID=takeproof-test S3_SECRET_ACCESS_KEY=test-storage-secret-not-secret S3_FAKE_DIR="$TEST_DIR/s3" UPLOAD_RESUME_DIR="$TEST_DIR/uploads"
   export NEXTAUTH_SECRET=test-secret-for-the-throwaway-test-server-only DEMO_PASSWORD=demo-takes-2026
   export UPLOAD_MAX_BYTES="${UPLOAD_MAX_BYTES:-134217728}" JOB_STALE_AFTER_SEC="${JOB_STALE_AFTER_SEC:-6}"
   export NEXTAUTH_URL="http://$HOST:$PORT" TAKEPROOF_TEST_URL="http://$HOST:$PORT" NEXT_TELEMETRY_DISABLED=1

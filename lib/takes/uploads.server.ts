@@ -30,7 +30,7 @@ const unreadablePart = () =>
   new AppError('invalid:upload', 'The upload could not be read. A file name may hold characters that are not allowed (control characters); rename the file and try again.');
 
 /** Counts, hashes and checks the bytes of one uploaded file as they stream past. */
-class UploadCheck extends Transform {
+export class UploadCheck extends Transform {
   readonly hash = createHash('sha256');
   bytes = 0;
   private head = Buffer.alloc(0);
@@ -89,7 +89,7 @@ function drainThenDrop(source: Readable): void {
   source.resume();
 }
 
-interface StoredFile {
+export interface StoredFile {
   key: string;
   originalName: string;
   bytes: number;
@@ -201,7 +201,7 @@ export async function receiveTakes(actor: Actor, sessionId: number, request: Req
   }
 }
 
-async function recordTakes(actor: Actor, sessionId: number, files: StoredFile[], recorderId: number | null): Promise<TakeSummary[]> {
+export async function recordTakes(actor: Actor, sessionId: number, files: StoredFile[], recorderId: number | null): Promise<TakeSummary[]> {
   if (recorderId !== null && !(Number.isInteger(recorderId) && (await Recorder.findOne({ where: { id: recorderId, studioId: actor.studioId } })))) {
     throw new AppError('invalid:recorder', 'That recorder does not belong to this studio.', { fields: { recorderId: ['Pick one of the studio’s recorders'] } });
   }
