@@ -2,6 +2,7 @@
 
 import { useRef, useState } from 'react';
 import { useSWRConfig } from 'swr';
+import * as tus from 'tus-js-client';
 import { cleanFileName, formatBytes } from '@/lib/format';
 import type { Option } from './SessionCreateForm';
 
@@ -12,10 +13,25 @@ interface Upload {
   startedAt: number;
   state: 'sending' | 'done' | 'failed' | 'cancelled';
   message?: string;
-  xhr?: XMLHttpRequest;
+  cancel?: () => void;
 }
 
 let nextUploadId = 1;
+
+/** Files from this size on go up as resumable (tus) uploads, in parts of RESUMABLE_PART_BYTES. */
+const RESUMABLE_FROM_BYTES = 64 * 1024 * 1024;
+const RESUMABLE_PART_BYTES = 64 * 1024 * 1024;
+/** How long a resumable upload waits before each new try after a dropped connection, ms. */
+const RETRY_DELAYS = [0, 1000, 3000, 5000, 10_000, 30_000, 60_000];
+
+function messageOf(error: Error): string {
+  const body = (error as tus.DetailedError).originalResponse?.getBody();
+  try {
+    return (JSON.parse(body ?? '') as { message?: string }).message ?? error.message;
+  } catch {
+    return 'The connection dropped and did not come back. Choose the same file again to continue where it stopped.';
+  }
+}
 
 function timeLeft(u: Upload): string {
   const elapsed = (Date.now() - u.startedAt) / 1000;
@@ -26,8 +42,9 @@ function timeLeft(u: Upload): string {
 }
 
 /**
- * Drop zone and file picker for many WAV takes at once. Each file goes up in its own request
- * (XMLHttpRequest, because fetch cannot report upload progress) with its own bar and cancel button.
+ * Drop zone and file picker for many WAV takes at once. Each file goes up on its own, with its own bar
+ * and cancel button: a small one in one request (XMLHttpRequest, because fetch cannot report upload
+ * progress), a large one as a resumable upload.
  */
 export function TakeUploader({ sessionId, recorders, takesKey }: { sessionId: number; recorders: Option[]; takesKey: string }) {
   const { mutate } = useSWRConfig();
@@ -38,11 +55,45 @@ export function TakeUploader({ sessionId, recorders, takesKey }: { sessionId: nu
 
   const patch = (id: number, change: Partial<Upload>) => setUploads((all) => all.map((u) => (u.id === id ? { ...u, ...change } : u)));
 
+  /**
+   * A large file goes up with the tus protocol: a dropped connection is retried from the last byte the
+   * server holds, and choosing the same file again after a reload continues the earlier upload.
+   */
+  function startResumable(upload: Upload) {
+    const { file } = upload;
+    const resumable = new tus.Upload(file, {
+      endpoint: `/api/sessions/${sessionId}/uploads`,
+      chunkSize: RESUMABLE_PART_BYTES,
+      retryDelays: RETRY_DELAYS,
+      removeFingerprintOnSuccess: true,
+      metadata: { filename: cleanFileName(file.name), ...(recorderId ? { recorderId } : {}) },
+      onProgress: (sent) => patch(upload.id, { sent }),
+      onSuccess: () => {
+        patch(upload.id, { state: 'done', sent: file.size });
+        void mutate(takesKey);
+      },
+      onError: (error) => patch(upload.id, { state: 'failed', message: messageOf(error) }),
+    });
+    upload.cancel = () => {
+      void resumable.abort(true);
+      patch(upload.id, { state: 'cancelled', message: 'Cancelled. Nothing was kept.' });
+    };
+    void resumable.findPreviousUploads().then((previous) => {
+      if (previous.length > 0) resumable.resumeFromPreviousUpload(previous[0]);
+      resumable.start();
+    });
+  }
+
   function start(files: FileList | File[]) {
     for (const file of Array.from(files)) {
       const upload: Upload = { id: nextUploadId++, file, sent: 0, startedAt: Date.now(), state: 'sending' };
+      setUploads((all) => [upload, ...all]);
+      if (file.size >= RESUMABLE_FROM_BYTES) {
+        startResumable(upload);
+        continue;
+      }
       const xhr = new XMLHttpRequest();
-      upload.xhr = xhr;
+      upload.cancel = () => xhr.abort();
       xhr.open('POST', `/api/sessions/${sessionId}/takes`);
       xhr.responseType = 'json';
       xhr.upload.onprogress = (e) => patch(upload.id, { sent: e.loaded });
@@ -62,7 +113,6 @@ export function TakeUploader({ sessionId, recorders, takesKey }: { sessionId: nu
       // Multipart headers may not carry control characters, which some file systems allow in names.
       form.append('file', file, cleanFileName(file.name));
       xhr.send(form);
-      setUploads((all) => [upload, ...all]);
     }
   }
 
@@ -130,7 +180,7 @@ export function TakeUploader({ sessionId, recorders, takesKey }: { sessionId: nu
                     {formatBytes(u.sent)} / {formatBytes(u.file.size)}
                   </span>
                   {u.state === 'sending' && (
-                    <button type="button" className="tp-button-quiet px-2 py-1" onClick={() => u.xhr?.abort()} aria-label={`Cancel upload of ${u.file.name}`}>
+                    <button type="button" className="tp-button-quiet px-2 py-1" onClick={() => u.cancel?.()} aria-label={`Cancel upload of ${u.file.name}`}>
                       Cancel
                     </button>
                   )}
