@@ -160,9 +160,12 @@ export async function receiveTakes(actor: Actor, sessionId: number, request: Req
         }
         const key = newTakeKey();
         const check = new UploadCheck(maxBytes, originalName);
-        // The first refusal is the one to report; listening here also keeps it from going unhandled.
-        let refusal: unknown;
-        check.on('error', (error) => (refusal ??= error));
+        // The check's own refusal (not WAV, too large, cut off) is the one to report, not what storage makes of
+        // the ended stream; a storage fault comes back from put(). Listening also keeps the error handled.
+        let refusal: AppError | undefined;
+        check.on('error', (error) => {
+          if (error instanceof AppError) refusal ??= error;
+        });
         // A body that ends inside this file: busboy ends the file stream with an error of its own.
         file.on('error', () => check.destroy(truncated()));
         file.pipe(check);

@@ -109,13 +109,16 @@ describe('resumable uploads (tus)', () => {
     expect(takes.filter((t: { originalName: string }) => t.originalName === 'wrong-sum.wav')).toEqual([]);
   });
 
-  it('refuses a PATCH that is not application/offset+octet-stream (tus 1.0.0)', async () => {
+  it('refuses a PATCH that is not application/offset+octet-stream (tus 1.0.0 §PATCH) and appends nothing', async () => {
     const started = await run(engineer, { chunkSize: half, metadata: { filename: 'typed.wav' } }, half);
-    const response = await engineer.fetch(new URL(started.url!).pathname, {
+    const pathname = new URL(started.url!).pathname;
+    const response = await engineer.fetch(pathname, {
       method: 'PATCH',
       headers: { 'tus-resumable': '1.0.0', 'upload-offset': String(half), 'content-type': 'application/json', origin: BASE_URL },
-      body: '{}',
+      body: '{"not":"audio"}',
     });
-    expect(response.status).toBe(415);
+    expect([400, 415]).toContain(response.status);
+    const head = await engineer.fetch(pathname, { method: 'HEAD', headers: { 'tus-resumable': '1.0.0' } });
+    expect(head.headers.get('upload-offset')).toBe(String(half));
   });
 });
