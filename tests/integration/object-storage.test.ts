@@ -67,6 +67,20 @@ describe('takes in the S3 bucket', () => {
     expect(Buffer.from(await tail.arrayBuffer()).equals(bytes.subarray(bytes.length - 100))).toBe(true);
   });
 
+  it('still serves ranges after many HEADs and abandoned reads: each read gives its connection to the bucket back', async () => {
+    // The SDK keeps a bounded pool of connections to the bucket; a read that is never finished must not hold one.
+    for (let i = 0; i < 120; i++) expect((await engineer.fetch(`/api/takes/${take.id}/audio`, { method: 'HEAD' })).status).toBe(200);
+    for (let i = 0; i < 60; i++) {
+      const stop = new AbortController();
+      await engineer.fetch(`/api/takes/${take.id}/audio`, { signal: stop.signal });
+      stop.abort();
+    }
+    // The signal only keeps a hang from stalling the suite; the answer itself is what is checked.
+    const response = await engineer.fetch(`/api/takes/${take.id}/audio`, { headers: { range: 'bytes=0-99' }, signal: AbortSignal.timeout(30_000) });
+    expect(response.status).toBe(206);
+    expect(Buffer.from(await response.arrayBuffer()).equals(bytes.subarray(0, 100))).toBe(true);
+  });
+
   it('measures the take again from the bucket with the same result', async () => {
     const first = await waitForTake(engineer, take.id);
     const again = await engineer.fetch(`/api/takes/${take.id}/remeasure`, { method: 'POST', headers: { origin: BASE_URL } });
