@@ -49,7 +49,9 @@ const resumableOk = await measure('resumable (tus) upload', () => {
       chunkSize: TUS_CHUNK_BYTES,
       headers: { cookie: client.cookieHeader(), origin: base },
       metadata: { filename: 'two-gigabyte-take-resumable.wav' },
-      retryDelays: [],
+      // A part can take a while to read on a busy machine, and the server closes idle keep-alive
+      // connections meanwhile: a retry opens a fresh one and continues from the server's offset.
+      retryDelays: [0, 1000, 3000],
       onSuccess: (payload) => {
         const stored = JSON.parse(payload.lastResponse.getBody() ?? '{}').takes?.[0]?.sha256;
         const ok = stored === source.sha256();

@@ -1,10 +1,9 @@
 import 'server-only';
-import { Readable } from 'node:stream';
 import type { Actor } from '@/lib/auth/views';
 import { AppError } from '@/lib/errors';
 import { contentDisposition, contentRange, parseRange } from '@/lib/http/range';
 import type { BodyAnswer } from '@/lib/http/route.server';
-import { storage } from '@/lib/storage/storage.server';
+import { storage, storedBody } from '@/lib/storage/storage.server';
 import { findTake } from '@/lib/takes/service.server';
 
 /** What the player (or a download) asked for: the request's Range and If-Range headers, and `?download=1`. */
@@ -41,7 +40,7 @@ export async function takeAudioStream(actor: Actor, id: number, request: AudioRe
   // Content-Range tells a media element the full size.
   if (range.kind === 'partial') {
     headers['Content-Range'] = contentRange(range.start, range.end, size);
-    return { status: 206, headers, body: Readable.toWeb(storage().getRange(take.storageKey, { start: range.start, end: range.end })) as ReadableStream<Uint8Array> };
+    return { status: 206, headers, body: storedBody(take.storageKey, { start: range.start, end: range.end }) };
   }
-  return { status: 200, headers, body: Readable.toWeb(storage().getRange(take.storageKey)) as ReadableStream<Uint8Array> };
+  return { status: 200, headers, body: storedBody(take.storageKey) };
 }

@@ -4,7 +4,8 @@ import path from 'node:path';
 import { env } from '@/lib/env.server';
 import { LocalDiskStorage } from './localDisk.server';
 import { S3Storage, s3Client } from './s3.server';
-import type { StorageDriver } from './types';
+import type { Readable } from 'node:stream';
+import type { ByteRange, StorageDriver } from './types';
 
 export type { ByteRange, StorageDriver } from './types';
 
@@ -25,6 +26,31 @@ export function bucketStorage(): S3Storage {
 /** The folder STORAGE_DIR: the `local` driver, and where earlier versions kept every take. */
 export function diskStorage(): LocalDiskStorage {
   return new LocalDiskStorage(path.resolve(env().STORAGE_DIR));
+}
+
+/**
+ * An object (or a range of it) as a response body that opens the stored object only when the body
+ * is really read, and closes it when the reader cancels. A HEAD answer, or a GET whose client is gone
+ * before the body starts, then holds no file handle or connection to the bucket.
+ */
+export function storedBody(key: string, range?: ByteRange): ReadableStream<Uint8Array> {
+  let source: Readable | undefined;
+  let chunks: AsyncIterator<Buffer> | undefined;
+  return new ReadableStream<Uint8Array>(
+    {
+      async pull(controller) {
+        source ??= storage().getRange(key, range);
+        chunks ??= source[Symbol.asyncIterator]();
+        const { value, done } = await chunks.next();
+        if (done) controller.close();
+        else controller.enqueue(value);
+      },
+      cancel() {
+        source?.destroy();
+      },
+    },
+    { highWaterMark: 0 }, // no read ahead: nothing is opened until the first read
+  );
 }
 
 /** Replaces the driver, e.g. with one that fails, to exercise error paths. */
