@@ -161,6 +161,9 @@ export function judgeReport(report: AnalysisReport, spec: DeliverySpec): Finding
   if (floor !== null && floor > spec.maxNoiseFloorDbfs) {
     add({ check: 'noise-floor', severity: 'warn', message: `The noise floor in the quiet passages is ${db(floor)} dBFS, above the ${db(spec.maxNoiseFloorDbfs)} dBFS limit.` });
   }
+  if (report.noise.basis === 'none' && anySignal) {
+    add({ check: 'noise-floor', severity: 'info', message: 'The take has no quiet passage (it never falls well below its programme), so its noise floor and hum cannot be measured.' });
+  }
   if (report.noise.humHz !== null) {
     add({ check: 'hum', severity: 'warn', message: `Mains hum at ${report.noise.humHz} Hz and its harmonics stands out of the noise floor.` });
   }

@@ -177,7 +177,6 @@ function assembleReport(format: AudioFormat, metadata: WavMetadata, frames: numb
     nonFiniteSamples: m.nonFinite.perChannel[index],
     overFullScaleSamples: channel.overFullScaleSamples,
   }));
-  const floorDbfs = m.noise.floorDbfs;
   return {
     file: {
       container: format.container,
@@ -203,8 +202,7 @@ function assembleReport(format: AudioFormat, metadata: WavMetadata, frames: numb
     channels,
     resolution: {
       effectiveBits: Math.max(0, ...m.levels.channels.map((channel) => channel.effectiveBits)),
-      // Bits of an ideal quantiser whose noise (Q^2/12, full band) equals the floor: N = (-floor - 4.77)/6.02.
-      noiseLimitedBits: floorDbfs === null ? null : roundTo((-floorDbfs - 4.77) / 6.02, 1),
+      noiseLimitedBits: m.noise.noiseLimitedBits,
     },
     peak: {
       samplePeakDbfs: dbOrNull(Math.max(...m.levels.channels.map((channel) => channel.samplePeak))),
@@ -219,7 +217,7 @@ function assembleReport(format: AudioFormat, metadata: WavMetadata, frames: numb
       shortTermMaxLufs: roundOrNull(wholeLoudness.shortTermMaxLufs, 3),
       shortTermSeries: wholeLoudness.shortTermSeries,
     },
-    noise: { floorDbfs, humHz: m.noise.humHz },
+    noise: { floorDbfs: m.noise.floorDbfs, humHz: m.noise.humHz, basis: m.noise.basis },
     bandwidth: {
       effectiveHz: m.bandwidth.effectiveHz,
       impliedSourceRate: m.bandwidth.impliedSourceRate,

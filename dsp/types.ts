@@ -157,7 +157,16 @@ export interface AnalysisReport {
      */
     shortTermSeries?: { stepSec: number; values: (number | null)[] };
   };
-  noise: { floorDbfs: number | null; humHz: 50 | 60 | null };
+  noise: {
+    floorDbfs: number | null;
+    humHz: 50 | 60 | null;
+    /**
+     * What the floor stands on: 'quiet-passages' under the programme, 'steady-noise' (a take of room tone or hiss),
+     * or 'none': no quiet passage (dense material, a steady loud sound, digital silence), so neither floor nor hum
+     * was measured (absent in older reports).
+     */
+    basis?: 'quiet-passages' | 'steady-noise' | 'none';
+  };
   bandwidth: {
     effectiveHz: number | null;
     impliedSourceRate: number | null;
