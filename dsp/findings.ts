@@ -269,7 +269,11 @@ export function judgeReport(report: AnalysisReport, spec: DeliverySpec): Finding
     add({
       check: 'tone',
       severity: 'info',
-      message: `Line-up tone of ${db(tone.frequencyHz, 1)} Hz at ${db(tone.levelDbfs)} dBFS from ${formatClock(tone.startSec)} to ${formatClock(tone.endSec)} (SINAD ${db(tone.sinadDb)} dB, about ${db(tone.enobBits)} effective bits).`,
+      message: `Line-up tone of ${db(tone.frequencyHz, 1)} Hz at ${db(tone.levelDbfs)} dBFS from ${formatClock(tone.startSec)} to ${formatClock(tone.endSec)} (${
+        tone.limitedByContainer
+          ? `SINAD at least ${db(tone.sinadDb)} dB and ${db(tone.enobBits)} effective bits: the most the file's ${formatName} samples can show, as the tone lands on too few codes to measure its noise`
+          : `SINAD ${db(tone.sinadDb)} dB, about ${db(tone.enobBits)} effective bits`
+      }).`,
       startSec: tone.startSec,
       endSec: tone.endSec,
     });

@@ -203,6 +203,8 @@ export interface AnalysisReport {
     sinadDb: number;
     thdnDb: number;
     enobBits: number;
+    /** SINAD and ENOB are the limit of the container's quantisation, not a measurement: the real values are at least these (absent in older reports). */
+    limitedByContainer?: boolean;
     likelyRecordedRate: number | null;
     /** Channel the tone was measured on (the strongest), 0-based. */
     channel?: number;
