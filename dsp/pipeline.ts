@@ -223,6 +223,7 @@ function assembleReport(format: AudioFormat, metadata: WavMetadata, frames: numb
       impliedSourceRate: m.bandwidth.impliedSourceRate,
       nearNyquistDb: m.bandwidth.nearNyquistDb,
       aliasingRisk: m.bandwidth.aliasingRisk,
+      peakHz: m.bandwidth.peakHz,
       spectrum: m.bandwidth.spectrum,
     },
     dropouts: m.dropouts.dropouts,

@@ -2,6 +2,7 @@ import { loudnessChannelWeights } from '../channelWeights';
 import { KWeightingFilter } from '../filters/kWeighting';
 import type { Analyzer, AudioFormat, SampleBlock } from '../types';
 import { GrowableFloat64Array } from '../util/GrowableFloat64Array';
+import { roundTo } from '../util/decibels';
 
 /** Loudness of a weighted mean square (BS.1770 eq. 2): -0.691 cancels the K gain at 997 Hz. */
 const LOUDNESS_OFFSET_DB = -0.691;
@@ -172,7 +173,7 @@ export class LoudnessAnalyzer implements Analyzer<LoudnessResult> {
     if (steps % SERIES_HOP_STEPS === 0) {
       const windowMeanSquare = this.meanSquareOfLast(Math.min(steps, SHORT_TERM_STEPS));
       const level = windowMeanSquare > 0 ? loudnessOf(windowMeanSquare) : Number.NEGATIVE_INFINITY;
-      this.seriesValues.push(level > ABSOLUTE_GATE_LUFS ? Math.round(level * 100) / 100 : null);
+      this.seriesValues.push(level > ABSOLUTE_GATE_LUFS ? roundTo(level, 2) : null);
     }
   }
 

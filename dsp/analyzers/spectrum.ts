@@ -1,5 +1,6 @@
 import FFT from 'fft.js';
 import type { Analyzer, AudioFormat, SampleBlock } from '../types';
+import { powerToDbFloored, roundTo } from '../util/decibels';
 import { assertAnalysableFormat, declaredFrames, hannWindow, isPowerOfTwo } from './formatGuard';
 
 /**
@@ -26,9 +27,12 @@ export interface SpectrumOptions {
 }
 
 export interface BandwidthResult {
-  /** Highest frequency the content reaches before a steep cut-off, Hz; null for digital silence. */
+  /** Highest frequency the content reaches before a steep cut-off, Hz; null for digital silence and for content that is not broadband (tones only). */
   effectiveHz: number | null;
-  /** Lowest standard rate whose Nyquist frequency lies above `effectiveHz`, when the take looks up-sampled; else null. */
+  /**
+   * The standard rate the take was probably made at and converted up from: the lowest whose Nyquist frequency lies
+   * above `effectiveHz`, claimed only where the cut-off sits where a resampler's low-pass puts it; else null.
+   */
   impliedSourceRate: number | null;
   /** Mean power density in the top 5 % below Nyquist relative to the passband mean density, dB. */
   nearNyquistDb: number | null;
@@ -43,8 +47,26 @@ export interface BandwidthResult {
 /** Standard sample rates an up-sampled take may come from, Hz (AES5 and common consumer/telephony rates). */
 export const STANDARD_RATES_HZ = [8000, 11025, 16000, 22050, 24000, 32000, 44100, 48000, 88200, 96000] as const;
 
-/** A cut-off is reported as up-sampling only below this fraction of the declared rate (report contract). */
-const UPSAMPLED_MAX_FRACTION = 0.42;
+/**
+ * Where a resampler's low-pass ends its pass band (−3 dB), as fractions of the old Nyquist frequency:
+ * from 80 % (speech codecs, telephone channels) to a little past it (ffmpeg's default soft filter is
+ * −3 dB at about 100.5 %). [common practice]
+ */
+const SOURCE_EDGE_MIN_FRACTION = 0.8;
+const SOURCE_EDGE_MAX_FRACTION = 1.02;
+/**
+ * A take's own converter passes up to about 0.45 fs (delta-sigma decimation filters end their pass band
+ * at 0.45–0.4535 fs), so a cut-off above this fraction of the declared rate is the take's own and no sign
+ * of a lower source rate: native 48 kHz music that holds on to 21.5 kHz is not "made at 44.1 kHz",
+ * while sox's 44.1 → 48 kHz conversion stops at 20.95 kHz (95 % of 22.05 kHz). [common practice]
+ */
+const NATIVE_EDGE_FRACTION = 0.44;
+/**
+ * Broadband content: at least this share of the bands from 200 Hz to the cut-off stand CLIFF_DROP_DB over
+ * what lies above it, and at least BROADBAND_MIN_BANDS of them (a tone and its window leakage fill a few). [common practice]
+ */
+const BROADBAND_MIN_SHARE = 0.5;
+const BROADBAND_MIN_BANDS = 16;
 /** Bands the half spectrum is split into for the cut-off search. */
 const BAND_COUNT = 256;
 /** Drop across a cut-off, dB: the content must stand this far above everything above it. [common practice] */
@@ -64,21 +86,24 @@ const CLIFF_TRANSITION_FRACTION = 0.15;
  * one is −6 dB only at or just above the original Nyquist frequency, so −6 dB would misread it.)
  */
 const EDGE_DROP_DB = 3;
+/** A band this much under the one below it is still on a filter's slope, dB. [common practice] */
+const SLOPE_STEP_DB = 1.5;
 /** Near-Nyquist region, as fractions of Nyquist. */
 const NEAR_NYQUIST_FROM = 0.94;
 const NEAR_NYQUIST_TO = 0.99;
 /** Region compared with it to see a roll-off, fractions of Nyquist. */
 const UPPER_PASSBAND_FROM = 0.7;
 const UPPER_PASSBAND_TO = 0.85;
-/** Aliasing-risk thresholds, dB. [common practice] */
-const ALIAS_NEAR_NYQUIST_MIN_DB = -30;
+/**
+ * Aliasing-risk thresholds, dB: the top 5 % below Nyquist nearly as dense as the passband (a converter without
+ * an anti-alias filter), not merely present (a bright full-band master keeps its top octave 20-40 dB down). [common practice]
+ */
+const ALIAS_NEAR_NYQUIST_MIN_DB = -12;
 const ALIAS_ROLL_OFF_MAX_DB = 6;
 const PLOT_FLOOR_DB = -200;
 const TINY_POWER = 1e-30;
 
-function dbPower(p: number): number {
-  return 10 * Math.log10(p > TINY_POWER ? p : TINY_POWER);
-}
+const dbPower = (power: number) => powerToDbFloored(power, TINY_POWER);
 
 export class SpectrumAnalyzer implements Analyzer<BandwidthResult> {
   private readonly sampleRate: number;
@@ -233,7 +258,7 @@ export class SpectrumAnalyzer implements Analyzer<BandwidthResult> {
     }
     if (!(total > 0)) return empty;
 
-    const effectiveHz = this.effectiveBandwidth(psd, binHz, nyquist);
+    const { edgeHz: effectiveHz, broadband } = this.effectiveBandwidth(psd, binHz, nyquist);
     const meanDensity = (loHz: number, hiHz: number): number => {
       const k0 = Math.max(1, Math.ceil(loHz / binHz));
       const k1 = Math.min(half, Math.floor(hiHz / binHz));
@@ -245,20 +270,23 @@ export class SpectrumAnalyzer implements Analyzer<BandwidthResult> {
     const passband = meanDensity(Math.min(20, effectiveHz / 2), effectiveHz);
     const nearNyquist = meanDensity(NEAR_NYQUIST_FROM * nyquist, NEAR_NYQUIST_TO * nyquist);
     const upperPassband = meanDensity(UPPER_PASSBAND_FROM * nyquist, UPPER_PASSBAND_TO * nyquist);
-    const nearNyquistDb = round(dbPower(nearNyquist) - dbPower(passband), 1);
+    const nearNyquistDb = roundTo(dbPower(nearNyquist) - dbPower(passband), 1);
     const rollOffDb = dbPower(nearNyquist) - dbPower(upperPassband);
     // No anti-alias filter: the spectrum runs on to Nyquist at a level comparable to the passband.
     const aliasingRisk =
       effectiveHz >= 0.9 * nyquist && nearNyquistDb > ALIAS_NEAR_NYQUIST_MIN_DB && rollOffDb > -ALIAS_ROLL_OFF_MAX_DB;
 
-    let impliedSourceRate: number | null = null;
-    if (effectiveHz < UPSAMPLED_MAX_FRACTION * fs) {
-      const rate = STANDARD_RATES_HZ.find((r) => r / 2 > effectiveHz);
-      if (rate !== undefined && rate < fs) impliedSourceRate = rate;
-    }
+    // Up-sampled: broadband content that stops where a resampler's low-pass for a lower standard rate
+    // puts the cut-off, below where the take's own converter would.
+    const sourceRate = STANDARD_RATES_HZ.find((rate) => SOURCE_EDGE_MAX_FRACTION * (rate / 2) >= effectiveHz);
+    const impliedSourceRate =
+      broadband && sourceRate !== undefined && sourceRate < fs && effectiveHz < NATIVE_EDGE_FRACTION * fs &&
+      effectiveHz >= SOURCE_EDGE_MIN_FRACTION * (sourceRate / 2)
+        ? sourceRate
+        : null;
 
     return {
-      effectiveHz: Math.round(effectiveHz),
+      effectiveHz: broadband ? Math.round(effectiveHz) : null,
       impliedSourceRate,
       nearNyquistDb,
       aliasingRisk,
@@ -270,10 +298,11 @@ export class SpectrumAnalyzer implements Analyzer<BandwidthResult> {
   /**
    * Highest frequency before a steep cut-off: the top band that stands at least
    * CLIFF_DROP_DB above everything above its transition band, refined to the
-   * −EDGE_DROP_DB point. A gradual natural roll-off never
-   * qualifies, so content that fades out towards Nyquist reads Nyquist.
+   * −EDGE_DROP_DB point. A gradual natural roll-off never qualifies, so content
+   * that fades out towards Nyquist reads Nyquist. `broadband` says whether the
+   * content under a cut-off fills the band (not a tone and its leakage).
    */
-  private effectiveBandwidth(psd: Float64Array, binHz: number, nyquist: number): number {
+  private effectiveBandwidth(psd: Float64Array, binHz: number, nyquist: number): { edgeHz: number; broadband: boolean } {
     const half = psd.length - 1;
     const binsPerBand = Math.max(1, Math.floor(half / BAND_COUNT));
     const bands = Math.floor(half / binsPerBand);
@@ -300,27 +329,33 @@ export class SpectrumAnalyzer implements Analyzer<BandwidthResult> {
       const gap = Math.max(2, Math.ceil(CLIFF_TRANSITION_FRACTION * b));
       if (b + gap >= bands) continue;
       if (smooth[b] < contentDb - CLIFF_MAX_BELOW_CONTENT_DB) continue;
-      if (smooth[b] - suffixMax[b + gap] < CLIFF_DROP_DB) continue;
-      // Edge: the passband level is taken one transition width below the cut-off band (band b
-      // may already lie inside a steep filter's slope); walking up the median-smoothed bands
-      // (a median keeps a monotone edge where it is, and ignores the dips between harmonics),
-      // the edge is where the level crosses EDGE_DROP_DB below it, interpolated between band centres.
-      const refEnd = Math.max(1, b - gap);
-      let under = 0;
-      let count = 0;
-      for (let j = Math.max(1, refEnd - 4); j <= refEnd; j++) {
-        under += Math.pow(10, smooth[j] / 10);
-        count++;
-      }
-      const edgeDb = dbPower(under / count) - EDGE_DROP_DB;
-      let j = refEnd + 1;
+      const stopDb = suffixMax[b + gap];
+      if (smooth[b] - stopDb < CLIFF_DROP_DB) continue;
+      // Band b may lie deep inside a steep filter's slope: walk down the slope (levels still rising
+      // by more than SLOPE_STEP_DB a band) to where the pass band flattens, and take the level there
+      // as the reference. Then walk up the median-smoothed bands (a median keeps a monotone edge
+      // where it is, and ignores the dips between harmonics): the edge is where the level crosses
+      // EDGE_DROP_DB below the reference, interpolated between band centres.
+      let top = b;
+      while (top > lowestBand && smooth[top - 1] > smooth[top] + SLOPE_STEP_DB) top--;
+      // A soft filter's knee falls slowly, so the reference spans a transition width (its median).
+      const reference = median(smooth.subarray(Math.max(1, top - gap), top + 1));
+      const edgeDb = reference - EDGE_DROP_DB;
+      let j = top;
+      // A soft knee may already be under the edge level at `top`: step back to the crossing nearest the cliff.
+      while (j > 1 && smooth[j - 1] < edgeDb) j--;
       while (j < Math.min(bands, b + gap + 1) && smooth[j] >= edgeDb) j++;
+      j = Math.max(j, 1);
       const bandHz = binsPerBand * binHz;
       const centre = (i: number) => (i + 0.5) * bandHz;
       const fraction = smooth[j - 1] > smooth[j] ? (smooth[j - 1] - edgeDb) / (smooth[j - 1] - smooth[j]) : 0;
-      return Math.min(nyquist, centre(j - 1) + Math.max(0, Math.min(1, fraction)) * bandHz);
+      const edgeHz = Math.min(nyquist, centre(j - 1) + Math.max(0, Math.min(1, fraction)) * bandHz);
+      let filled = 0;
+      for (let k = lowestBand; k < j; k++) if (smooth[k] >= stopDb + CLIFF_DROP_DB) filled++;
+      const broadband = filled >= BROADBAND_MIN_BANDS && filled >= BROADBAND_MIN_SHARE * (j - lowestBand);
+      return { edgeHz, broadband };
     }
-    return nyquist;
+    return { edgeHz: nyquist, broadband: true };
   }
 
   private peakFrequency(psd: Float64Array, binHz: number): number | null {
@@ -337,7 +372,7 @@ export class SpectrumAnalyzer implements Analyzer<BandwidthResult> {
       const denom = a - 2 * b + c;
       if (denom < 0) offset = (0.5 * (a - c)) / denom;
     }
-    return round((best + offset) * binHz, 2);
+    return roundTo((best + offset) * binHz, 2);
   }
 
   /** Log-spaced points from 20 Hz to Nyquist; each the mean density of the bins it covers (or the nearest bin). */
@@ -361,16 +396,11 @@ export class SpectrumAnalyzer implements Analyzer<BandwidthResult> {
       } else {
         p = psd[Math.min(half, Math.round(Math.sqrt(f0 * f1) / binHz))];
       }
-      hz.push(round(Math.sqrt(f0 * f1), 1));
-      db.push(round(Math.max(PLOT_FLOOR_DB, dbPower(p) - ref), 2));
+      hz.push(roundTo(Math.sqrt(f0 * f1), 1));
+      db.push(roundTo(Math.max(PLOT_FLOOR_DB, dbPower(p) - ref), 2));
     }
     return { hz, db };
   }
-}
-
-function round(x: number, digits: number): number {
-  const f = Math.pow(10, digits);
-  return Math.round(x * f) / f;
 }
 
 function median(values: Float64Array): number {

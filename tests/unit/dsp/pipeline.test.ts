@@ -66,8 +66,8 @@ describe('cross-checks on 40 s of programme-like material against ffmpeg and sox
     expect(report.file.layout).toBe('stereo');
     expect(report.channels.map((channel) => channel.name)).toEqual(['L', 'R']);
     expect(Object.keys(report.loudness)).toEqual(expect.arrayContaining(['integratedLufs', 'rangeLu', 'momentaryMaxLufs', 'shortTermMaxLufs']));
-    expect(Object.keys(report.bandwidth)).toEqual(expect.arrayContaining(['effectiveHz', 'impliedSourceRate', 'nearNyquistDb', 'aliasingRisk']));
-    expect(Object.keys(report.noise).sort()).toEqual(['floorDbfs', 'humHz']);
+    expect(Object.keys(report.bandwidth)).toEqual(expect.arrayContaining(['effectiveHz', 'impliedSourceRate', 'nearNyquistDb', 'aliasingRisk', 'peakHz']));
+    expect(Object.keys(report.noise).sort()).toEqual(['basis', 'floorDbfs', 'humHz']);
     expect(report.resolution.effectiveBits).toBe(24);
     expect(report.bext).toBeNull();
     expect(report.stereo).not.toBeNull();
@@ -106,6 +106,8 @@ describe('report details', () => {
     expect(report.noise.floorDbfs).not.toBeNull();
     // Ideal quantiser noise: -6.02·N - 4.77 dBFS (square-wave reference) -> N = (-floor - 4.77)/6.02.
     expect(report.resolution.noiseLimitedBits).toBeCloseTo((-report.noise.floorDbfs! - 4.77) / 6.02, 1);
+    // The long-term spectrum's strongest line is carried into the report: the 997 Hz tone.
+    expect(Math.abs(report.bandwidth.peakHz! - 997)).toBeLessThan(1);
   });
 
   it('a truncated take is analysed and the findings carry a container problem', async () => {
