@@ -156,6 +156,8 @@ export interface AnalysisReport {
      * values[i] is the window ending at (i+1)·stepSec (the first two windows are shorter than 3 s).
      */
     shortTermSeries?: { stepSec: number; values: (number | null)[] };
+    /** The stretch left out of every loudness figure (the line-up tone: `tone.startSec`/`endSec`), or null (absent in older reports). */
+    leftOut?: { startSec: number; endSec: number } | null;
   };
   noise: {
     floorDbfs: number | null;

@@ -56,11 +56,13 @@ const SOURCE_EDGE_MIN_FRACTION = 0.8;
 const SOURCE_EDGE_MAX_FRACTION = 1.02;
 /**
  * A take's own converter passes up to about 0.45 fs (delta-sigma decimation filters end their pass band
- * at 0.45–0.4535 fs), so a cut-off above this fraction of the declared rate is the take's own and no sign
- * of a lower source rate: native 48 kHz music that holds on to 21.5 kHz is not "made at 44.1 kHz",
- * while sox's 44.1 → 48 kHz conversion stops at 20.95 kHz (95 % of 22.05 kHz). [common practice]
+ * at 0.45–0.4535 fs) and its content is gone a little above that; a resampler from a lower standard rate
+ * has removed everything by that rate's Nyquist. So content that is still there at 0.45 fs was cut by the
+ * take's own converter: native 48 kHz music that holds on to 21.5 kHz (gone by about 21.9 kHz) is not
+ * "made at 44.1 kHz", while sox's 44.1 → 48 kHz conversion is −3 dB at 20.95 kHz and gone by 21.4 kHz.
+ * [common practice]
  */
-const NATIVE_EDGE_FRACTION = 0.44;
+const NATIVE_STOP_FRACTION = 0.45;
 /**
  * Broadband content: at least this share of the bands from 200 Hz to the cut-off stand CLIFF_DROP_DB over
  * what lies above it, and at least BROADBAND_MIN_BANDS of them (a tone and its window leakage fill a few). [common practice]
@@ -258,7 +260,7 @@ export class SpectrumAnalyzer implements Analyzer<BandwidthResult> {
     }
     if (!(total > 0)) return empty;
 
-    const { edgeHz: effectiveHz, broadband } = this.effectiveBandwidth(psd, binHz, nyquist);
+    const { edgeHz: effectiveHz, stopHz, broadband } = this.effectiveBandwidth(psd, binHz, nyquist);
     const meanDensity = (loHz: number, hiHz: number): number => {
       const k0 = Math.max(1, Math.ceil(loHz / binHz));
       const k1 = Math.min(half, Math.floor(hiHz / binHz));
@@ -277,10 +279,10 @@ export class SpectrumAnalyzer implements Analyzer<BandwidthResult> {
       effectiveHz >= 0.9 * nyquist && nearNyquistDb > ALIAS_NEAR_NYQUIST_MIN_DB && rollOffDb > -ALIAS_ROLL_OFF_MAX_DB;
 
     // Up-sampled: broadband content that stops where a resampler's low-pass for a lower standard rate
-    // puts the cut-off, below where the take's own converter would.
+    // puts the cut-off, and is gone below where the take's own converter would remove it.
     const sourceRate = STANDARD_RATES_HZ.find((rate) => SOURCE_EDGE_MAX_FRACTION * (rate / 2) >= effectiveHz);
     const impliedSourceRate =
-      broadband && sourceRate !== undefined && sourceRate < fs && effectiveHz < NATIVE_EDGE_FRACTION * fs &&
+      broadband && sourceRate !== undefined && sourceRate < fs && stopHz < NATIVE_STOP_FRACTION * fs &&
       effectiveHz >= SOURCE_EDGE_MIN_FRACTION * (sourceRate / 2)
         ? sourceRate
         : null;
@@ -302,7 +304,7 @@ export class SpectrumAnalyzer implements Analyzer<BandwidthResult> {
    * that fades out towards Nyquist reads Nyquist. `broadband` says whether the
    * content under a cut-off fills the band (not a tone and its leakage).
    */
-  private effectiveBandwidth(psd: Float64Array, binHz: number, nyquist: number): { edgeHz: number; broadband: boolean } {
+  private effectiveBandwidth(psd: Float64Array, binHz: number, nyquist: number): { edgeHz: number; stopHz: number; broadband: boolean } {
     const half = psd.length - 1;
     const binsPerBand = Math.max(1, Math.floor(half / BAND_COUNT));
     const bands = Math.floor(half / binsPerBand);
@@ -312,14 +314,11 @@ export class SpectrumAnalyzer implements Analyzer<BandwidthResult> {
       for (let k = b * binsPerBand; k < (b + 1) * binsPerBand; k++) s += psd[k];
       bandDb[b] = dbPower(s / binsPerBand);
     }
-    // A 5-band running median ignores isolated tones (hum lines, alias products, whistles).
-    const smooth = new Float64Array(bands);
-    const scratch = new Float64Array(5);
-    for (let b = 0; b < bands; b++) {
-      let m = 0;
-      for (let j = b - 2; j <= b + 2; j++) if (j >= 1 && j < bands) scratch[m++] = bandDb[j];
-      smooth[b] = median(scratch.subarray(0, m));
-    }
+    // A 5-band running median ignores isolated tones (hum lines, alias products, whistles); an
+    // 11-band one (about 1 kHz at 48 kHz) also evens out the peaks and valleys of a harmonic top octave
+    // for placing the edge (a median keeps a monotone slope where it is).
+    const smooth = runningMedian(bandDb, 2);
+    const smoothWide = runningMedian(bandDb, 5);
     const suffixMax = new Float64Array(bands + 1).fill(-Infinity);
     for (let b = bands - 1; b >= 0; b--) suffixMax[b] = Math.max(smooth[b], suffixMax[b + 1]);
     // The loud part of the content: 90th percentile of the band levels.
@@ -332,30 +331,31 @@ export class SpectrumAnalyzer implements Analyzer<BandwidthResult> {
       const stopDb = suffixMax[b + gap];
       if (smooth[b] - stopDb < CLIFF_DROP_DB) continue;
       // Band b may lie deep inside a steep filter's slope: walk down the slope (levels still rising
-      // by more than SLOPE_STEP_DB a band) to where the pass band flattens, and take the level there
-      // as the reference. Then walk up the median-smoothed bands (a median keeps a monotone edge
-      // where it is, and ignores the dips between harmonics): the edge is where the level crosses
-      // EDGE_DROP_DB below the reference, interpolated between band centres.
+      // by more than SLOPE_STEP_DB a band) to where the pass band flattens; the reference is the median
+      // level of the transition width below that (a soft filter's knee falls slowly). Then, on the wide
+      // median, the edge is where the level crosses EDGE_DROP_DB below the reference nearest the cliff,
+      // interpolated between band centres.
       let top = b;
-      while (top > lowestBand && smooth[top - 1] > smooth[top] + SLOPE_STEP_DB) top--;
-      // A soft filter's knee falls slowly, so the reference spans a transition width (its median).
-      const reference = median(smooth.subarray(Math.max(1, top - gap), top + 1));
-      const edgeDb = reference - EDGE_DROP_DB;
+      while (top > lowestBand && smoothWide[top - 1] > smoothWide[top] + SLOPE_STEP_DB) top--;
+      const edgeDb = median(smoothWide.subarray(Math.max(1, top - gap), top + 1)) - EDGE_DROP_DB;
       let j = top;
-      // A soft knee may already be under the edge level at `top`: step back to the crossing nearest the cliff.
-      while (j > 1 && smooth[j - 1] < edgeDb) j--;
-      while (j < Math.min(bands, b + gap + 1) && smooth[j] >= edgeDb) j++;
+      while (j > 1 && smoothWide[j - 1] < edgeDb) j--;
+      while (j < Math.min(bands, b + gap + 1) && smoothWide[j] >= edgeDb) j++;
       j = Math.max(j, 1);
       const bandHz = binsPerBand * binHz;
       const centre = (i: number) => (i + 0.5) * bandHz;
-      const fraction = smooth[j - 1] > smooth[j] ? (smooth[j - 1] - edgeDb) / (smooth[j - 1] - smooth[j]) : 0;
+      const fraction = smoothWide[j - 1] > smoothWide[j] ? (smoothWide[j - 1] - edgeDb) / (smoothWide[j - 1] - smoothWide[j]) : 0;
       const edgeHz = Math.min(nyquist, centre(j - 1) + Math.max(0, Math.min(1, fraction)) * bandHz);
+      // Where the content is gone: CLIFF_DROP_DB under the edge level.
+      let stop = j;
+      while (stop < bands - 1 && smoothWide[stop] >= edgeDb - CLIFF_DROP_DB) stop++;
+      const stopHz = centre(stop);
       let filled = 0;
       for (let k = lowestBand; k < j; k++) if (smooth[k] >= stopDb + CLIFF_DROP_DB) filled++;
       const broadband = filled >= BROADBAND_MIN_BANDS && filled >= BROADBAND_MIN_SHARE * (j - lowestBand);
-      return { edgeHz, broadband };
+      return { edgeHz, stopHz, broadband };
     }
-    return { edgeHz: nyquist, broadband: true };
+    return { edgeHz: nyquist, stopHz: nyquist, broadband: true };
   }
 
   private peakFrequency(psd: Float64Array, binHz: number): number | null {
@@ -401,6 +401,18 @@ export class SpectrumAnalyzer implements Analyzer<BandwidthResult> {
     }
     return { hz, db };
   }
+}
+
+/** Running median of `values` over ±`half` neighbours (index 0, the DC band, left out). */
+function runningMedian(values: Float64Array, half: number): Float64Array {
+  const out = new Float64Array(values.length);
+  const scratch = new Float64Array(2 * half + 1);
+  for (let b = 0; b < values.length; b++) {
+    let m = 0;
+    for (let j = b - half; j <= b + half; j++) if (j >= 1 && j < values.length) scratch[m++] = values[j];
+    out[b] = median(scratch.subarray(0, m));
+  }
+  return out;
 }
 
 function median(values: Float64Array): number {
