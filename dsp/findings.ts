@@ -47,9 +47,10 @@ export function judgeReport(report: AnalysisReport, spec: DeliverySpec): Finding
     });
   }
   if (report.tone?.likelyRecordedRate) {
+    // The take plays at the wrong speed and pitch until its header is corrected.
     add({
       check: 'sample-rate',
-      severity: 'warn',
+      severity: 'fail',
       message: `The line-up tone reads ${db(report.tone.frequencyHz, 1)} Hz; the take was probably recorded at ${formatKhz(report.tone.likelyRecordedRate)} and is labelled ${formatKhz(sampleRate)}.`,
       startSec: report.tone.startSec,
       endSec: report.tone.endSec,
@@ -142,6 +143,7 @@ export function judgeReport(report: AnalysisReport, spec: DeliverySpec): Finding
 
   // loudness
   const integrated = report.loudness.integratedLufs;
+  const leftOut = report.loudness.leftOut ?? null;
   if (poly) {
     // Iso tracks are raw material, not a programme: their loudness is reported per track, not judged.
   } else if (integrated === null) {
@@ -152,7 +154,7 @@ export function judgeReport(report: AnalysisReport, spec: DeliverySpec): Finding
       check: 'loudness',
       severity: strict,
       summary: `Loudness ${db(integrated)} LUFS, ${db(Math.abs(integrated - spec.loudnessTargetLufs))} LU ${direction} than the ${db(spec.loudnessTargetLufs)} LUFS target`,
-      message: `Integrated loudness is ${db(integrated)} LUFS, ${db(Math.abs(integrated - spec.loudnessTargetLufs))} LU ${direction} than the ${db(spec.loudnessTargetLufs)} LUFS target (±${spec.loudnessToleranceLu} LU).`,
+      message: `Integrated loudness is ${db(integrated)} LUFS, ${db(Math.abs(integrated - spec.loudnessTargetLufs))} LU ${direction} than the ${db(spec.loudnessTargetLufs)} LUFS target (±${spec.loudnessToleranceLu} LU)${leftOut ? `, line-up tone from ${formatClock(leftOut.startSec)} to ${formatClock(leftOut.endSec)} left out` : ''}.`,
     });
   }
 
