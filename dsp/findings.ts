@@ -6,6 +6,13 @@ import type { AnalysisReport, Finding, Severity } from './types';
 const DC_FAIL_FACTOR = 10;
 /** Shortest take whose channels can be compared for polarity (one 5 s segment), seconds. */
 const POLARITY_MIN_SEC = 5;
+/**
+ * Signal-to-noise ratio (programme over the floor of its quiet passages) under which a take warns or fails, dB.
+ * Defaults of the engine [common practice: speech for broadcast wants 40 dB or more; under 15 dB the noise is
+ * heard under every word]; a delivery's own spec takes precedence where it says otherwise.
+ */
+const SNR_WARN_DB = 25;
+const SNR_FAIL_DB = 15;
 /** Dropouts and clip events spelled out one by one before the rest are summed up. */
 const LISTED_EVENTS = 5;
 
@@ -162,6 +169,15 @@ export function judgeReport(report: AnalysisReport, spec: DeliverySpec): Finding
   const floor = report.noise.floorDbfs;
   if (floor !== null && floor > spec.maxNoiseFloorDbfs) {
     add({ check: 'noise-floor', severity: 'warn', message: `The noise floor in the quiet passages is ${db(floor)} dBFS, above the ${db(spec.maxNoiseFloorDbfs)} dBFS limit.` });
+  }
+  const snr = report.noise.snrDb ?? null;
+  if (snr !== null && snr < SNR_WARN_DB) {
+    add({
+      check: 'noise-floor',
+      severity: snr < SNR_FAIL_DB ? 'fail' : 'warn',
+      summary: `Noisy: the programme stands only ${db(snr)} dB over the noise floor`,
+      message: `The programme stands only ${db(snr)} dB over the noise floor of its quiet passages (signal-to-noise ratio; under ${SNR_WARN_DB} dB the noise is heard, under ${SNR_FAIL_DB} dB it is under every word).`,
+    });
   }
   if (report.noise.basis === 'none' && anySignal) {
     add({ check: 'noise-floor', severity: 'info', message: 'The take has no quiet passage (it never falls well below its programme), so its noise floor and hum cannot be measured.' });

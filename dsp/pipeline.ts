@@ -221,7 +221,7 @@ function assembleReport(format: AudioFormat, metadata: WavMetadata, frames: numb
       shortTermSeries: wholeLoudness.shortTermSeries,
       leftOut: m.tone ? { startSec: m.tone.startSec, endSec: m.tone.endSec } : null,
     },
-    noise: { floorDbfs: m.noise.floorDbfs, humHz: m.noise.humHz, basis: m.noise.basis },
+    noise: { floorDbfs: m.noise.floorDbfs, humHz: m.noise.humHz, basis: m.noise.basis, snrDb: m.noise.snrDb },
     bandwidth: {
       effectiveHz: m.bandwidth.effectiveHz,
       impliedSourceRate: m.bandwidth.impliedSourceRate,

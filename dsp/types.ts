@@ -168,6 +168,8 @@ export interface AnalysisReport {
      * was measured (absent in older reports).
      */
     basis?: 'quiet-passages' | 'steady-noise' | 'none';
+    /** Signal-to-noise ratio: the programme's RMS over the floor's, dB; null without quiet passages under a programme (absent in older reports). */
+    snrDb?: number | null;
   };
   bandwidth: {
     effectiveHz: number | null;

@@ -65,6 +65,11 @@ export interface NoiseFloorResult {
   floorDbfs: number | null;
   /** What the floor stands on ('none' also for digital silence). */
   basis: FloorBasis;
+  /**
+   * Signal-to-noise ratio of the floor's channel, dB: the power mean of its programme windows (more than
+   * PROGRAMME_ABOVE_DB over the quiet band) over the floor, to 0.1 dB; null unless the floor stands on quiet passages.
+   */
+  snrDb: number | null;
   /** Mains frequency whose harmonics stand out of the floor's spectrum, or null. */
   humHz: 50 | 60 | null;
   /**
@@ -85,7 +90,9 @@ const HISTOGRAM_BINS = 2100;
 /** Windows up to this far above the percentile count as quiet, dB. [common practice] */
 const QUIET_SPAN_DB = 3;
 /** Quiet passages: the 95th-percentile window stands at least this far over the quiet ones, dB. [common practice] */
-const QUIET_PASSAGE_DB = 12;
+const QUIET_PASSAGE_DB = 10;
+/** Windows this far over the quiet windows' percentile are programme, for the signal-to-noise ratio, dB. [common practice] */
+const PROGRAMME_ABOVE_DB = 6;
 /** Shortest quiet passage, in short windows (≈ 0.3 s at 107 ms each). [common practice] */
 const PASSAGE_WINDOWS = 3;
 /** A take whose windows all lie within this span is one steady sound, dB. [common practice] */
@@ -275,13 +282,14 @@ export class NoiseFloorAnalyzer implements Analyzer<NoiseFloorResult> {
     const floors = this.windowMs.map((ms, c) => channelFloor(ms.view(), this.windowMeans[c].view(), this.windowWeights[c].view(), this.percentile));
     let noisiest: ChannelFloor | null = null;
     for (const floor of floors) if (floor.basis !== 'none' && (noisiest === null || floor.db > noisiest.db)) noisiest = floor;
-    if (noisiest === null) return { floorDbfs: null, basis: 'none', humHz: null, noiseLimitedBits: null };
+    if (noisiest === null) return { floorDbfs: null, basis: 'none', snrDb: null, humHz: null, noiseLimitedBits: null };
     // Ideal quantiser noise, step Q = 2^(1−N) for full scale ±1: rms Q/√12, so
     // 20·log10(Q/√12) = −6.02·N − 4.77 dBFS (square-wave reference).
     const bits = (-noisiest.db - 10 * Math.log10(12 / 4)) / (20 * Math.log10(2));
     return {
       floorDbfs: roundTo(noisiest.db, 1),
       basis: noisiest.basis,
+      snrDb: noisiest.basis === 'quiet-passages' && noisiest.programmeDb !== null ? roundTo(noisiest.programmeDb - noisiest.db, 1) : null,
       humHz: this.detectHum(floors.map((floor) => (floor.basis === 'none' ? null : floor.db))),
       noiseLimitedBits: roundTo(bits, 1),
     };
@@ -409,6 +417,8 @@ interface ChannelFloor {
   /** Power mean of the quiet windows, dB (−Infinity for a channel of digital silence). */
   db: number;
   basis: FloorBasis;
+  /** Power mean of the programme windows (AC), dB; null when there are none. */
+  programmeDb: number | null;
 }
 
 /** Level of histogram bin `bin`, dB (its centre). */
@@ -442,7 +452,7 @@ function histogramOf(meanSquares: ArrayLike<number>, weights: Float64Array): Flo
  * the floor the power mean of their mean squares around it.
  */
 function channelFloor(acMs: Float64Array, means: Float64Array, weights: Float64Array, percentile: number): ChannelFloor {
-  if (weights.length === 0) return { db: -Infinity, basis: 'none' };
+  if (weights.length === 0) return { db: -Infinity, basis: 'none', programmeDb: null };
   const histogram = histogramOf(acMs, weights);
   const total = histogram.reduce((sum, count) => sum + count, 0);
   const low = percentileDb(histogram, total, percentile);
@@ -456,7 +466,7 @@ function channelFloor(acMs: Float64Array, means: Float64Array, weights: Float64A
     if (i - runStart >= PASSAGE_WINDOWS) for (let k = runStart; k < i; k++) inPassage.push(k);
     runStart = i + 1;
   }
-  if (inPassage.length === 0) return { db: low, basis: 'none' };
+  if (inPassage.length === 0) return { db: low, basis: 'none', programmeDb: null };
   const passageMeans = inPassage.map((i) => means[i]).sort((a, b) => a - b);
   const steadyDc = passageMeans[Math.floor(passageMeans.length / 2)];
   let power = 0;
@@ -466,9 +476,18 @@ function channelFloor(acMs: Float64Array, means: Float64Array, weights: Float64A
     weight += weights[i];
   }
   const db = 10 * Math.log10(power / weight);
-  if (spread >= QUIET_PASSAGE_DB) return { db, basis: 'quiet-passages' };
-  if (spread <= STEADY_SPAN_DB && db <= STEADY_NOISE_MAX_DBFS) return { db, basis: 'steady-noise' };
-  return { db, basis: 'none' };
+  const programmeMs = 10 ** ((low + PROGRAMME_ABOVE_DB) / 10);
+  let programmePower = 0;
+  let programmeWeight = 0;
+  for (let i = 0; i < acMs.length; i++) {
+    if (acMs[i] <= programmeMs) continue;
+    programmePower += weights[i] * acMs[i];
+    programmeWeight += weights[i];
+  }
+  const programmeDb = programmeWeight > 0 ? 10 * Math.log10(programmePower / programmeWeight) : null;
+  if (spread >= QUIET_PASSAGE_DB) return { db, basis: 'quiet-passages', programmeDb };
+  if (spread <= STEADY_SPAN_DB && db <= STEADY_NOISE_MAX_DBFS) return { db, basis: 'steady-noise', programmeDb };
+  return { db, basis: 'none', programmeDb };
 }
 
 /**

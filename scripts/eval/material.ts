@@ -180,3 +180,26 @@ export function musicTake(seconds: number, sampleRate: number, peakDbfs: number,
 export function noiseTake(seconds: number, sampleRate: number, channels: number, levelDbfs: number, seed: number): Float64Array[] {
   return Array.from({ length: channels }, (_, c) => roomTone(Math.round(seconds * sampleRate), sampleRate, levelDbfs, seed + c));
 }
+
+/**
+ * A dense master that never falls quiet: the music-like material over a loud sustained bed (pink-ish
+ * noise 14 dB under the peak level, like a pad, cymbals and reverb), squashed by sox's compander.
+ */
+export function denseMasterTake(seconds: number, sampleRate: number, peakDbfs: number, seed: number): Float64Array[] {
+  const music = musicTake(seconds, sampleRate, -6, seed);
+  const bed = music.map((channel, c) => roomTone(channel.length, sampleRate, -20, seed + 40 + c));
+  const mixed = music.map((channel, c) => mixInto(channel.slice(), bed[c]));
+  const peak = Math.max(...mixed.map((channel) => channel.reduce((p, x) => Math.max(p, Math.abs(x)), 0)));
+  return mixed.map((channel) => channel.map((x) => (x * dbToGain(peakDbfs)) / peak));
+}
+
+/** A full-band synthesiser bounce: square and sawtooth voices made digitally at the take's rate, with no converter low-pass. */
+export function fullBandSynthTake(seconds: number, sampleRate: number, peakDbfs: number): Float64Array[] {
+  return synthesise(seconds, ['square', '110', 'sawtooth', '165', 'square', '220'], sampleRate, 2, ['tremolo', '2', '30', 'gain', '-n', String(peakDbfs)]);
+}
+
+/** A sine sweep (sox `synth sine 20-20000`, the form that dwells longest at the bottom) at `peakDbfs`, over room tone. */
+export function sweepTake(seconds: number, sampleRate: number, peakDbfs: number, seed: number): Float64Array {
+  const sweep = synthesise(seconds, ['sine', '20-20000'], sampleRate, 1, ['gain', '-n', String(peakDbfs)])[0];
+  return mixInto(sweep, roomTone(sweep.length, sampleRate, -75, seed));
+}

@@ -165,6 +165,12 @@ describe('judgeReport', () => {
     expect(only(findings, 'sample-rate')[0].severity).toBe('fail');
   });
 
+  it('noise-floor: a low signal-to-noise ratio warns under 25 dB and fails under 15 dB (engine defaults [common practice])', () => {
+    expect(only(judge((r) => (r.noise.snrDb = 40)), 'noise-floor')).toEqual([]);
+    expect(only(judge((r) => (r.noise.snrDb = 20)), 'noise-floor')[0]).toMatchObject({ severity: 'warn', message: expect.stringMatching(/only 20.0 dB over the noise floor/) });
+    expect(only(judge((r) => (r.noise.snrDb = 8.6)), 'noise-floor')[0].severity).toBe('fail');
+  });
+
   it('loudness: names the line-up tone left out of the measurement', () => {
     const findings = judge((r) => {
       r.loudness.integratedLufs = -30;

@@ -100,6 +100,33 @@ describe('NoiseFloorAnalyzer: floor level', () => {
   });
 });
 
+describe('NoiseFloorAnalyzer: signal-to-noise ratio', () => {
+  // SNR = programme power over noise power (the definition of the ratio); the programme windows are the
+  // speech, the floor the pauses between phrases.
+  it('reads speech whose noise sits 8 dB under it (a very quiet take) at about 8.6 dB, and a clean take far higher', () => {
+    const speech = speechLike(FS * 20, FS, 10 ** (-50 / 20), 41);
+    let power = 0;
+    let active = 0;
+    for (const x of speech) {
+      if (x === 0) continue;
+      power += x * x;
+      active++;
+    }
+    const speechRms = Math.sqrt(power / active);
+    const noisy = analyse([addInto(speech.slice(), whiteNoise(speech.length, speechRms * 10 ** (-8 / 20), 42))]);
+    expect(noisy.basis).toBe('quiet-passages');
+    // (S + N)/N with N 8 dB under S: 10·log10(10^0.8 + 1) = 8.64 dB; the loudest windows read a little higher.
+    expect(noisy.snrDb!).toBeGreaterThan(7.5);
+    expect(noisy.snrDb!).toBeLessThan(12);
+    const clean = analyse([addInto(speech.slice(), whiteNoise(speech.length, speechRms * 10 ** (-45 / 20), 43))]);
+    expect(clean.snrDb!).toBeGreaterThan(40);
+  });
+
+  it('gives no ratio without quiet passages under a programme (steady room tone alone)', () => {
+    expect(analyse([pinkNoise(FS * 8, 10 ** (-70 / 20), 44)]).snrDb).toBeNull();
+  });
+});
+
 describe('NoiseFloorAnalyzer: mains hum', () => {
   const speechOverRoom = (seed: number) =>
     addInto(speechLike(FS * 12, FS, 0.5, seed), pinkNoise(FS * 12, 10 ** (-70 / 20), seed + 100));

@@ -67,7 +67,7 @@ describe('cross-checks on 40 s of programme-like material against ffmpeg and sox
     expect(report.channels.map((channel) => channel.name)).toEqual(['L', 'R']);
     expect(Object.keys(report.loudness)).toEqual(expect.arrayContaining(['integratedLufs', 'rangeLu', 'momentaryMaxLufs', 'shortTermMaxLufs']));
     expect(Object.keys(report.bandwidth)).toEqual(expect.arrayContaining(['effectiveHz', 'impliedSourceRate', 'nearNyquistDb', 'aliasingRisk', 'peakHz']));
-    expect(Object.keys(report.noise).sort()).toEqual(['basis', 'floorDbfs', 'humHz']);
+    expect(Object.keys(report.noise).sort()).toEqual(['basis', 'floorDbfs', 'humHz', 'snrDb']);
     expect(report.resolution.effectiveBits).toBe(24);
     expect(report.bext).toBeNull();
     expect(report.stereo).not.toBeNull();
