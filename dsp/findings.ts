@@ -154,7 +154,10 @@ export function judgeReport(report: AnalysisReport, spec: DeliverySpec): Finding
   if (poly) {
     // Iso tracks are raw material, not a programme: their loudness is reported per track, not judged.
   } else if (integrated === null) {
-    if (anySignal) add({ check: 'loudness', severity: 'info', message: 'The take is too short or too quiet for an integrated loudness reading.' });
+    if (anySignal) {
+      const toneOnly = leftOut !== null && leftOut.endSec - leftOut.startSec >= report.file.durationSec - 3;
+      add({ check: 'loudness', severity: 'info', message: toneOnly ? 'The take holds only its line-up tone: there is no programme to measure the loudness of.' : 'The take is too short or too quiet for an integrated loudness reading.' });
+    }
   } else if (Math.abs(integrated - spec.loudnessTargetLufs) > spec.loudnessToleranceLu) {
     const direction = integrated > spec.loudnessTargetLufs ? 'louder' : 'quieter';
     add({

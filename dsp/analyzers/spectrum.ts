@@ -69,6 +69,13 @@ const NATIVE_STOP_FRACTION = 0.45;
  */
 const BROADBAND_MIN_SHARE = 0.5;
 const BROADBAND_MIN_BANDS = 16;
+/**
+ * ... and broadband at once, not only on average: in the mean window at least this share of those bands holds
+ * content (within PRESENT_WITHIN_DB of the window's strongest band). A sweep covers the band over time, one
+ * frequency at a time, and fills a few percent. [common practice]
+ */
+const BROADBAND_MIN_PRESENCE = 0.25;
+const PRESENT_WITHIN_DB = 50;
 /** Bands the half spectrum is split into for the cut-off search. */
 const BAND_COUNT = 256;
 /** Drop across a cut-off, dB: the content must stand this far above everything above it. [common practice] */
@@ -97,10 +104,11 @@ const NEAR_NYQUIST_TO = 0.99;
 const UPPER_PASSBAND_FROM = 0.7;
 const UPPER_PASSBAND_TO = 0.85;
 /**
- * Aliasing-risk thresholds, dB: the top 5 % below Nyquist nearly as dense as the passband (a converter without
- * an anti-alias filter), not merely present (a bright full-band master keeps its top octave 20-40 dB down). [common practice]
+ * Aliasing-risk thresholds, dB: the top 5 % below Nyquist as dense as the passband on average (a converter
+ * without an anti-alias filter fills it with folded content), not merely present: a full-band electronic
+ * master with digital hi-hats keeps it about 7 dB down. [common practice]
  */
-const ALIAS_NEAR_NYQUIST_MIN_DB = -12;
+const ALIAS_NEAR_NYQUIST_MIN_DB = -3;
 const ALIAS_ROLL_OFF_MAX_DB = 6;
 const PLOT_FLOOR_DB = -200;
 const TINY_POWER = 1e-30;
@@ -119,6 +127,11 @@ export class SpectrumAnalyzer implements Analyzer<BandwidthResult> {
   private readonly fftOut: Float64Array;
   /** Σ over windows of (weight × channel-mean |X[k]|²), k = 0 … N/2. */
   private readonly powerSum: Float64Array;
+  /** One window's channel-mean |X[k]|², and its band sums. */
+  private readonly windowPower: Float64Array;
+  private readonly windowBands: Float64Array;
+  /** Σ over windows of the weight of those in which each band held content (within PRESENT_WITHIN_DB of the window's strongest band). */
+  private readonly bandPresence: Float64Array;
   private weightSum = 0;
   /** Frames between window starts; doubles whenever a take outgrows its window budget. */
   private hop: number;
@@ -159,6 +172,9 @@ export class SpectrumAnalyzer implements Analyzer<BandwidthResult> {
     this.fftIn = new Float64Array(fftSize);
     this.fftOut = new Float64Array(2 * fftSize);
     this.powerSum = new Float64Array(fftSize / 2 + 1);
+    this.windowPower = new Float64Array(fftSize / 2 + 1);
+    this.windowBands = new Float64Array(BAND_COUNT);
+    this.bandPresence = new Float64Array(BAND_COUNT);
     // Spread the budget evenly over a take of known length; 50 % overlap at most.
     const frames = declaredFrames(format);
     const even = frames !== null && frames > fftSize ? Math.floor((frames - fftSize) / Math.max(1, maxWindows - 1)) : 0;
@@ -216,7 +232,8 @@ export class SpectrumAnalyzer implements Analyzer<BandwidthResult> {
     const n = this.fftSize;
     const half = n / 2;
     const weight = this.hop;
-    const inv = weight / this.channels;
+    const inv = 1 / this.channels;
+    this.windowPower.fill(0);
     for (let c = 0; c < this.channels; c++) {
       const x = data[c];
       for (let i = 0; i < valid; i++) this.fftIn[i] = x[i] * this.window[i];
@@ -226,15 +243,32 @@ export class SpectrumAnalyzer implements Analyzer<BandwidthResult> {
       for (let k = 0; k <= half; k++) {
         const re = out[2 * k];
         const im = out[2 * k + 1];
-        this.powerSum[k] += (re * re + im * im) * inv;
+        this.windowPower[k] += (re * re + im * im) * inv;
       }
     }
+    for (let k = 0; k <= half; k++) this.powerSum[k] += this.windowPower[k] * weight;
+    this.notePresence(weight);
     this.weightSum += weight;
     // Keep the window count bounded on takes longer than declared (or of unknown length).
     if (++this.windowsAtHop >= this.maxWindows) {
       this.hop *= 2;
       this.windowsAtHop = 0;
     }
+  }
+
+  /** Marks the bands in which this window held content: a tone or a sweep fills a few, broadband sound most. */
+  private notePresence(weight: number): void {
+    const binsPerBand = Math.max(1, Math.floor(this.fftSize / 2 / BAND_COUNT));
+    let strongest = 0;
+    for (let b = 0; b < BAND_COUNT; b++) {
+      let sum = 0;
+      for (let k = b * binsPerBand; k < (b + 1) * binsPerBand; k++) sum += this.windowPower[k];
+      this.windowBands[b] = sum;
+      if (b > 0 && sum > strongest) strongest = sum;
+    }
+    if (!(strongest > 0)) return;
+    const threshold = strongest * 10 ** (-PRESENT_WITHIN_DB / 10);
+    for (let b = 1; b < BAND_COUNT; b++) if (this.windowBands[b] >= threshold) this.bandPresence[b] += weight;
   }
 
   private evaluate(): BandwidthResult {
@@ -352,7 +386,10 @@ export class SpectrumAnalyzer implements Analyzer<BandwidthResult> {
       const stopHz = centre(stop);
       let filled = 0;
       for (let k = lowestBand; k < j; k++) if (smooth[k] >= stopDb + CLIFF_DROP_DB) filled++;
-      const broadband = filled >= BROADBAND_MIN_BANDS && filled >= BROADBAND_MIN_SHARE * (j - lowestBand);
+      let presence = 0;
+      for (let k = lowestBand; k < j; k++) presence += this.bandPresence[k] / this.weightSum;
+      const broadband =
+        filled >= BROADBAND_MIN_BANDS && filled >= BROADBAND_MIN_SHARE * (j - lowestBand) && presence >= BROADBAND_MIN_PRESENCE * (j - lowestBand);
       return { edgeHz, stopHz, broadband };
     }
     return { edgeHz: nyquist, stopHz: nyquist, broadband: true };
