@@ -6,6 +6,13 @@ import type { AnalysisReport, Finding, Severity } from './types';
 const DC_FAIL_FACTOR = 10;
 /** Shortest take whose channels can be compared for polarity (one 5 s segment), seconds. */
 const POLARITY_MIN_SEC = 5;
+/**
+ * Signal-to-noise ratio (programme over the floor of its quiet passages) under which a take warns or fails, dB.
+ * Defaults of the engine [common practice: speech for broadcast wants 40 dB or more; under 15 dB the noise is
+ * heard under every word]; a delivery's own spec takes precedence where it says otherwise.
+ */
+const SNR_WARN_DB = 25;
+const SNR_FAIL_DB = 15;
 /** Dropouts and clip events spelled out one by one before the rest are summed up. */
 const LISTED_EVENTS = 5;
 
@@ -47,9 +54,10 @@ export function judgeReport(report: AnalysisReport, spec: DeliverySpec): Finding
     });
   }
   if (report.tone?.likelyRecordedRate) {
+    // The take plays at the wrong speed and pitch until its header is corrected.
     add({
       check: 'sample-rate',
-      severity: 'warn',
+      severity: 'fail',
       message: `The line-up tone reads ${db(report.tone.frequencyHz, 1)} Hz; the take was probably recorded at ${formatKhz(report.tone.likelyRecordedRate)} and is labelled ${formatKhz(sampleRate)}.`,
       startSec: report.tone.startSec,
       endSec: report.tone.endSec,
@@ -142,17 +150,21 @@ export function judgeReport(report: AnalysisReport, spec: DeliverySpec): Finding
 
   // loudness
   const integrated = report.loudness.integratedLufs;
+  const leftOut = report.loudness.leftOut ?? null;
   if (poly) {
     // Iso tracks are raw material, not a programme: their loudness is reported per track, not judged.
   } else if (integrated === null) {
-    if (anySignal) add({ check: 'loudness', severity: 'info', message: 'The take is too short or too quiet for an integrated loudness reading.' });
+    if (anySignal) {
+      const toneOnly = leftOut !== null && leftOut.endSec - leftOut.startSec >= report.file.durationSec - 3;
+      add({ check: 'loudness', severity: 'info', message: toneOnly ? 'The take holds only its line-up tone: there is no programme to measure the loudness of.' : 'The take is too short or too quiet for an integrated loudness reading.' });
+    }
   } else if (Math.abs(integrated - spec.loudnessTargetLufs) > spec.loudnessToleranceLu) {
     const direction = integrated > spec.loudnessTargetLufs ? 'louder' : 'quieter';
     add({
       check: 'loudness',
       severity: strict,
       summary: `Loudness ${db(integrated)} LUFS, ${db(Math.abs(integrated - spec.loudnessTargetLufs))} LU ${direction} than the ${db(spec.loudnessTargetLufs)} LUFS target`,
-      message: `Integrated loudness is ${db(integrated)} LUFS, ${db(Math.abs(integrated - spec.loudnessTargetLufs))} LU ${direction} than the ${db(spec.loudnessTargetLufs)} LUFS target (±${spec.loudnessToleranceLu} LU).`,
+      message: `Integrated loudness is ${db(integrated)} LUFS, ${db(Math.abs(integrated - spec.loudnessTargetLufs))} LU ${direction} than the ${db(spec.loudnessTargetLufs)} LUFS target (±${spec.loudnessToleranceLu} LU)${leftOut ? `, line-up tone from ${formatClock(leftOut.startSec)} to ${formatClock(leftOut.endSec)} left out` : ''}.`,
     });
   }
 
@@ -160,6 +172,18 @@ export function judgeReport(report: AnalysisReport, spec: DeliverySpec): Finding
   const floor = report.noise.floorDbfs;
   if (floor !== null && floor > spec.maxNoiseFloorDbfs) {
     add({ check: 'noise-floor', severity: 'warn', message: `The noise floor in the quiet passages is ${db(floor)} dBFS, above the ${db(spec.maxNoiseFloorDbfs)} dBFS limit.` });
+  }
+  const snr = report.noise.snrDb ?? null;
+  if (snr !== null && snr < SNR_WARN_DB) {
+    add({
+      check: 'noise-floor',
+      severity: snr < SNR_FAIL_DB ? 'fail' : 'warn',
+      summary: `Noisy: the programme stands only ${db(snr)} dB over the noise floor`,
+      message: `The programme stands only ${db(snr)} dB over the noise floor of its quiet passages (signal-to-noise ratio; under ${SNR_WARN_DB} dB the noise is heard, under ${SNR_FAIL_DB} dB it is under every word).`,
+    });
+  }
+  if (report.noise.basis === 'none' && anySignal) {
+    add({ check: 'noise-floor', severity: 'info', message: 'The take has no quiet passage (it never falls well below its programme), so its noise floor and hum cannot be measured.' });
   }
   if (report.noise.humHz !== null) {
     add({ check: 'hum', severity: 'warn', message: `Mains hum at ${report.noise.humHz} Hz and its harmonics stands out of the noise floor.` });
@@ -266,7 +290,11 @@ export function judgeReport(report: AnalysisReport, spec: DeliverySpec): Finding
     add({
       check: 'tone',
       severity: 'info',
-      message: `Line-up tone of ${db(tone.frequencyHz, 1)} Hz at ${db(tone.levelDbfs)} dBFS from ${formatClock(tone.startSec)} to ${formatClock(tone.endSec)} (SINAD ${db(tone.sinadDb)} dB, about ${db(tone.enobBits)} effective bits).`,
+      message: `Line-up tone of ${db(tone.frequencyHz, 1)} Hz at ${db(tone.levelDbfs)} dBFS from ${formatClock(tone.startSec)} to ${formatClock(tone.endSec)} (${
+        tone.limitedByContainer
+          ? `SINAD at least ${db(tone.sinadDb)} dB and ${db(tone.enobBits)} effective bits: the most the file's ${formatName} samples can show, as the tone lands on too few codes to measure its noise`
+          : `SINAD ${db(tone.sinadDb)} dB, about ${db(tone.enobBits)} effective bits`
+      }).`,
       startSec: tone.startSec,
       endSec: tone.endSec,
     });

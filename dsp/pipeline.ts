@@ -104,20 +104,23 @@ export async function analyzeStream(readable: Readable, options: AnalyzeOptions 
   }
   const bytesDone = totalBytes ?? wav.bytesRead();
   options.onProgress?.(bytesDone, bytesDone);
-  const remoteResults = remote ? await remote.finish() : null;
+  // The line-up tone is not programme: loudness is measured without it (EBU R 128 measures the programme).
+  const lineUpTone = tone.finish();
+  const leaveOut = lineUpTone ? { startSec: lineUpTone.startSec, endSec: lineUpTone.endSec } : null;
+  const remoteResults = remote ? await remote.finish(leaveOut) : null;
 
   const measurements: Measurements = {
     levels: levels.finish(),
     clipping: remoteResults?.clipping ?? clipping!.finish(),
     truePeak: remoteResults?.truePeak ?? truePeak!.finish(),
-    loudness: remoteResults?.loudness ?? loudness?.finish() ?? UNMEASURED_LOUDNESS,
-    trackLoudness: remoteResults ? remoteResults.trackLoudness : (trackLoudness?.finish() ?? null),
+    loudness: remoteResults?.loudness ?? loudness?.finish(leaveOut) ?? UNMEASURED_LOUDNESS,
+    trackLoudness: remoteResults ? remoteResults.trackLoudness : (trackLoudness?.finish(leaveOut) ?? null),
     nonFinite: wav.nonFiniteSamples(),
     dropouts: dropouts.finish(),
     stereo: stereo?.finish() ?? null,
     bandwidth: spectrum.finish(),
     noise: noise.finish(),
-    tone: tone.finish(),
+    tone: lineUpTone,
     waveform: peaks?.finish() ?? null,
   };
   const report = assembleReport(format, wav.metadata, wav.framesRead(), measurements);
@@ -177,7 +180,6 @@ function assembleReport(format: AudioFormat, metadata: WavMetadata, frames: numb
     nonFiniteSamples: m.nonFinite.perChannel[index],
     overFullScaleSamples: channel.overFullScaleSamples,
   }));
-  const floorDbfs = m.noise.floorDbfs;
   return {
     file: {
       container: format.container,
@@ -203,8 +205,7 @@ function assembleReport(format: AudioFormat, metadata: WavMetadata, frames: numb
     channels,
     resolution: {
       effectiveBits: Math.max(0, ...m.levels.channels.map((channel) => channel.effectiveBits)),
-      // Bits of an ideal quantiser whose noise (Q^2/12, full band) equals the floor: N = (-floor - 4.77)/6.02.
-      noiseLimitedBits: floorDbfs === null ? null : roundTo((-floorDbfs - 4.77) / 6.02, 1),
+      noiseLimitedBits: m.noise.noiseLimitedBits,
     },
     peak: {
       samplePeakDbfs: dbOrNull(Math.max(...m.levels.channels.map((channel) => channel.samplePeak))),
@@ -218,13 +219,15 @@ function assembleReport(format: AudioFormat, metadata: WavMetadata, frames: numb
       momentaryMaxLufs: roundOrNull(wholeLoudness.momentaryMaxLufs, 3),
       shortTermMaxLufs: roundOrNull(wholeLoudness.shortTermMaxLufs, 3),
       shortTermSeries: wholeLoudness.shortTermSeries,
+      leftOut: m.tone ? { startSec: m.tone.startSec, endSec: m.tone.endSec } : null,
     },
-    noise: { floorDbfs, humHz: m.noise.humHz },
+    noise: { floorDbfs: m.noise.floorDbfs, humHz: m.noise.humHz, basis: m.noise.basis, snrDb: m.noise.snrDb },
     bandwidth: {
       effectiveHz: m.bandwidth.effectiveHz,
       impliedSourceRate: m.bandwidth.impliedSourceRate,
       nearNyquistDb: m.bandwidth.nearNyquistDb,
       aliasingRisk: m.bandwidth.aliasingRisk,
+      peakHz: m.bandwidth.peakHz,
       spectrum: m.bandwidth.spectrum,
     },
     dropouts: m.dropouts.dropouts,

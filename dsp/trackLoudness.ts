@@ -1,4 +1,4 @@
-import { LoudnessAnalyzer, MIN_LOUDNESS_RATE_HZ, type LoudnessResult } from './analyzers/loudness';
+import { LoudnessAnalyzer, MIN_LOUDNESS_RATE_HZ, type LeftOutSpan, type LoudnessResult } from './analyzers/loudness';
 import type { Analyzer, AudioFormat, SampleBlock } from './types';
 
 /**
@@ -23,7 +23,8 @@ export class TrackLoudnessAnalyzer implements Analyzer<LoudnessResult[]> {
     for (const analyzer of this.analyzers) analyzer.push(block);
   }
 
-  finish(): LoudnessResult[] {
-    return this.analyzers.map((analyzer) => analyzer.finish());
+  /** @param leaveOut a stretch left out of every track's figures (see LoudnessAnalyzer.finish) */
+  finish(leaveOut: LeftOutSpan | null = null): LoudnessResult[] {
+    return this.analyzers.map((analyzer) => analyzer.finish(leaveOut));
   }
 }

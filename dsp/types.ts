@@ -156,8 +156,21 @@ export interface AnalysisReport {
      * values[i] is the window ending at (i+1)·stepSec (the first two windows are shorter than 3 s).
      */
     shortTermSeries?: { stepSec: number; values: (number | null)[] };
+    /** The stretch left out of every loudness figure (the line-up tone: `tone.startSec`/`endSec`), or null (absent in older reports). */
+    leftOut?: { startSec: number; endSec: number } | null;
   };
-  noise: { floorDbfs: number | null; humHz: 50 | 60 | null };
+  noise: {
+    floorDbfs: number | null;
+    humHz: 50 | 60 | null;
+    /**
+     * What the floor stands on: 'quiet-passages' under the programme, 'steady-noise' (a take of room tone or hiss),
+     * or 'none': no quiet passage (dense material, a steady loud sound, digital silence), so neither floor nor hum
+     * was measured (absent in older reports).
+     */
+    basis?: 'quiet-passages' | 'steady-noise' | 'none';
+    /** Signal-to-noise ratio: the programme's RMS over the floor's, dB; null without quiet passages under a programme (absent in older reports). */
+    snrDb?: number | null;
+  };
   bandwidth: {
     effectiveHz: number | null;
     impliedSourceRate: number | null;
@@ -194,6 +207,8 @@ export interface AnalysisReport {
     sinadDb: number;
     thdnDb: number;
     enobBits: number;
+    /** SINAD and ENOB are the limit of the container's quantisation, not a measurement: the real values are at least these (absent in older reports). */
+    limitedByContainer?: boolean;
     likelyRecordedRate: number | null;
     /** Channel the tone was measured on (the strongest), 0-based. */
     channel?: number;

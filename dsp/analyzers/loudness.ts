@@ -2,6 +2,7 @@ import { loudnessChannelWeights } from '../channelWeights';
 import { KWeightingFilter } from '../filters/kWeighting';
 import type { Analyzer, AudioFormat, SampleBlock } from '../types';
 import { GrowableFloat64Array } from '../util/GrowableFloat64Array';
+import { roundTo } from '../util/decibels';
 
 /** Loudness of a weighted mean square (BS.1770 eq. 2): -0.691 cancels the K gain at 997 Hz. */
 const LOUDNESS_OFFSET_DB = -0.691;
@@ -18,6 +19,12 @@ const MOMENTARY_STEPS = 40; // 400 ms window (Tech 3341 2.1)
 const SHORT_TERM_STEPS = 300; // 3 s window (Tech 3341 2.1)
 const GATING_HOP_STEPS = 10; // 400 ms blocks, 75% overlap = 100 ms hop (BS.1770 1.5)
 const SERIES_HOP_STEPS = 100; // short-term series for plotting, every 1 s
+
+/** A stretch of the take left out of the loudness figures (the line-up tone), seconds from the first sample. */
+export interface LeftOutSpan {
+  startSec: number;
+  endSec: number;
+}
 
 export interface LoudnessResult {
   integratedLufs: number | null;
@@ -67,8 +74,11 @@ export class LoudnessAnalyzer implements Analyzer<LoudnessResult> {
   /** Short-term loudness every 100 ms, for the loudness range. */
   private readonly shortTermLevels = new GrowableFloat64Array(4096);
   private readonly seriesValues: (number | null)[] = [];
-  private momentaryMaxMeanSquare = 0;
-  private shortTermMaxMeanSquare = 0;
+  /** Largest momentary and short-term mean square among the windows ending in each 100 ms hop (so maxima can leave a stretch out). */
+  private readonly momentaryHopMax = new GrowableFloat64Array(4096);
+  private readonly shortTermHopMax = new GrowableFloat64Array(4096);
+  private momentaryMaxInHop = 0;
+  private shortTermMaxInHop = 0;
 
   /**
    * @param format sample rate (Hz) and channel layout; weights follow BS.1770 Table 3
@@ -161,28 +171,53 @@ export class LoudnessAnalyzer implements Analyzer<LoudnessResult> {
 
     if (steps >= MOMENTARY_STEPS) {
       const momentary = this.meanSquareOfLast(MOMENTARY_STEPS);
-      if (momentary > this.momentaryMaxMeanSquare) this.momentaryMaxMeanSquare = momentary;
+      if (momentary > this.momentaryMaxInHop) this.momentaryMaxInHop = momentary;
       if (steps % GATING_HOP_STEPS === 0) this.gatingBlockMeanSquares.push(momentary);
     }
     if (steps >= SHORT_TERM_STEPS) {
       const shortTerm = this.meanSquareOfLast(SHORT_TERM_STEPS);
-      if (shortTerm > this.shortTermMaxMeanSquare) this.shortTermMaxMeanSquare = shortTerm;
+      if (shortTerm > this.shortTermMaxInHop) this.shortTermMaxInHop = shortTerm;
       if (steps % GATING_HOP_STEPS === 0) this.shortTermLevels.push(shortTerm > 0 ? loudnessOf(shortTerm) : Number.NEGATIVE_INFINITY);
     }
+    if (steps % GATING_HOP_STEPS === 0) this.closeHop();
     if (steps % SERIES_HOP_STEPS === 0) {
       const windowMeanSquare = this.meanSquareOfLast(Math.min(steps, SHORT_TERM_STEPS));
       const level = windowMeanSquare > 0 ? loudnessOf(windowMeanSquare) : Number.NEGATIVE_INFINITY;
-      this.seriesValues.push(level > ABSOLUTE_GATE_LUFS ? Math.round(level * 100) / 100 : null);
+      this.seriesValues.push(level > ABSOLUTE_GATE_LUFS ? roundTo(level, 2) : null);
     }
   }
 
-  finish(): LoudnessResult {
+  private closeHop(): void {
+    this.momentaryHopMax.push(this.momentaryMaxInHop);
+    this.shortTermHopMax.push(this.shortTermMaxInHop);
+    this.momentaryMaxInHop = 0;
+    this.shortTermMaxInHop = 0;
+  }
+
+  /**
+   * @param leaveOut a stretch whose windows do not count (every window that touches it is left out of the
+   *   integrated loudness, range, maxima and series), or null for the whole take
+   */
+  finish(leaveOut: LeftOutSpan | null = null): LoudnessResult {
+    if (this.completedSteps % GATING_HOP_STEPS !== 0) this.closeHop();
+    const seconds = (steps: number) => steps / STEPS_PER_SECOND;
+    // Whether the window of `lengthSteps` ending at step `endStep` stays clear of the left-out stretch.
+    const counts = (endStep: number, lengthSteps: number) =>
+      leaveOut === null || seconds(endStep) <= leaveOut.startSec || seconds(endStep - lengthSteps) >= leaveOut.endSec;
+    const blocks = this.gatingBlockMeanSquares.view().filter((_, k) => counts(MOMENTARY_STEPS + GATING_HOP_STEPS * k, MOMENTARY_STEPS));
+    const shortTerms = this.shortTermLevels.view().filter((_, k) => counts(SHORT_TERM_STEPS + GATING_HOP_STEPS * k, SHORT_TERM_STEPS));
+    // A hop's maximum comes from windows ending anywhere in it: the span tested runs from the earliest start to its end.
+    const hopMax = (maxima: Float64Array, lengthSteps: number) =>
+      maxima.reduce((max, value, h) => (value > max && counts(GATING_HOP_STEPS * (h + 1), lengthSteps + GATING_HOP_STEPS - 1) ? value : max), 0);
+    const momentaryMax = hopMax(this.momentaryHopMax.view(), MOMENTARY_STEPS);
+    const shortTermMax = hopMax(this.shortTermHopMax.view(), SHORT_TERM_STEPS);
+    const series = this.seriesValues.map((value, j) => (counts(SERIES_HOP_STEPS * (j + 1), Math.min(SERIES_HOP_STEPS * (j + 1), SHORT_TERM_STEPS)) ? value : null));
     return {
-      integratedLufs: gatedIntegratedLoudness(this.gatingBlockMeanSquares.view()),
-      rangeLu: loudnessRange(this.shortTermLevels.view()),
-      momentaryMaxLufs: this.momentaryMaxMeanSquare > 0 ? loudnessOf(this.momentaryMaxMeanSquare) : null,
-      shortTermMaxLufs: this.shortTermMaxMeanSquare > 0 ? loudnessOf(this.shortTermMaxMeanSquare) : null,
-      shortTermSeries: { stepSec: SERIES_HOP_STEPS / STEPS_PER_SECOND, values: this.seriesValues },
+      integratedLufs: gatedIntegratedLoudness(blocks),
+      rangeLu: loudnessRange(shortTerms),
+      momentaryMaxLufs: momentaryMax > 0 ? loudnessOf(momentaryMax) : null,
+      shortTermMaxLufs: shortTermMax > 0 ? loudnessOf(shortTermMax) : null,
+      shortTermSeries: { stepSec: SERIES_HOP_STEPS / STEPS_PER_SECOND, values: series },
     };
   }
 }

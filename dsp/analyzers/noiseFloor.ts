@@ -1,15 +1,30 @@
 import FFT from 'fft.js';
 import type { Analyzer, AudioFormat, SampleBlock } from '../types';
+import { roundTo } from '../util/decibels';
+import { GrowableFloat64Array } from '../util/GrowableFloat64Array';
 import { assertAnalysableFormat, declaredFrames, hannWindow } from './formatGuard';
 
 /**
  * Noise floor of the quiet stretches and mains hum in them.
  *
- * Floor: the AC RMS (mean removed, so a DC offset does not count as noise) of
- * short windows (≈ 100 ms), collected per channel in a 0.1 dB histogram; the
- * floor is a low percentile of it, digital silence (windows of exact zeros)
- * excluded. The report gives the noisiest channel's floor. RMS in dBFS is
- * referenced to a full-scale square wave (a full-scale sine reads −3.01 dBFS).
+ * Floor: short windows (≈ 100 ms) per channel, digital silence (windows of
+ * exact zeros) excluded. The quiet windows are those whose AC RMS (own mean
+ * removed) lies within QUIET_SPAN_DB of a low percentile, in runs of at least
+ * PASSAGE_WINDOWS (quiet passages). The channel's steady
+ * DC is the median mean of its quiet passages (runs of quiet windows); the floor
+ * is the power mean of those windows' mean squares around that DC. So a converter's
+ * offset does not count as noise, but steady noise reads its RMS whatever its
+ * spectrum: pink noise's short windows scatter by a few dB and swing slowly, so
+ * a percentile of per-window AC levels alone reads it about 1 dB low. The
+ * report gives the noisiest channel's floor. RMS in dBFS is referenced to a
+ * full-scale square wave (a full-scale sine reads −3.01 dBFS).
+ *
+ * A floor is only claimed where there is one to hear: quiet passages (the loud
+ * windows stand at least QUIET_PASSAGE_DB over the quiet ones), or a take that
+ * is one steady noise throughout (room tone, hiss) no louder than
+ * STEADY_NOISE_MAX_DBFS. Dense material (a music master that never falls quiet)
+ * and steady loud sound (an ambience, a drone, a tone) have no floor to measure,
+ * and no hum is looked for in them.
  *
  * Hum: the signal is low-passed and decimated to ≈ 2.4 kHz by averaging groups
  * of D samples (a first-order CIC filter), cut into frames of 1024 decimated samples (≈ 0.43 s,
@@ -39,14 +54,27 @@ export interface NoiseFloorOptions {
   maxSegments?: number;
 }
 
+/** What the floor was measured on: quiet passages under the programme, a take of steady noise, or nothing (no quiet passage). */
+export type FloorBasis = 'quiet-passages' | 'steady-noise' | 'none';
+
 export interface NoiseFloorResult {
-  /** RMS of the quietest stretches of the noisiest channel, dBFS (square-wave reference); null when there is nothing but digital silence. */
+  /**
+   * RMS of the quiet passages of the noisiest channel, dBFS (square-wave reference), to 0.1 dB;
+   * null when there is nothing but digital silence or no quiet passage.
+   */
   floorDbfs: number | null;
+  /** What the floor stands on ('none' also for digital silence). */
+  basis: FloorBasis;
+  /**
+   * Signal-to-noise ratio of the floor's channel, dB: the power mean of its programme windows (more than
+   * PROGRAMME_ABOVE_DB over the quiet band) over the floor, to 0.1 dB; null unless the floor stands on quiet passages.
+   */
+  snrDb: number | null;
   /** Mains frequency whose harmonics stand out of the floor's spectrum, or null. */
   humHz: 50 | 60 | null;
   /**
    * Bits an ideal quantiser would need for its noise (uniform, Q²/12 over the full band) to equal the floor:
-   * N = (−floorDbfs − 4.77)/6.02. Null with the floor.
+   * N = (−floor − 4.77)/6.02 from the unrounded floor, to 0.1 bit. Null with the floor.
    */
   noiseLimitedBits: number | null;
 }
@@ -59,6 +87,18 @@ const WINDOWS_PER_FRAME = 4;
 const HISTOGRAM_MIN_DB = -200;
 const HISTOGRAM_STEP_DB = 0.1;
 const HISTOGRAM_BINS = 2100;
+/** Windows up to this far above the percentile count as quiet, dB. [common practice] */
+const QUIET_SPAN_DB = 3;
+/** Quiet passages: the 95th-percentile window stands at least this far over the quiet ones, dB. [common practice] */
+const QUIET_PASSAGE_DB = 10;
+/** Windows this far over the quiet windows' percentile are programme, for the signal-to-noise ratio, dB. [common practice] */
+const PROGRAMME_ABOVE_DB = 6;
+/** Shortest quiet passage, in short windows (≈ 0.3 s at 107 ms each). [common practice] */
+const PASSAGE_WINDOWS = 3;
+/** A take whose windows all lie within this span is one steady sound, dB. [common practice] */
+const STEADY_SPAN_DB = 3;
+/** Steady sound louder than this is programme (an ambience, a drone, a tone), not a noise floor, dBFS RMS. [common practice] */
+const STEADY_NOISE_MAX_DBFS = -45;
 /** Short windows per measured segment (three hum frames at 50 % overlap). */
 const SEGMENT_WINDOWS = 8;
 const CLASS_STEP_DB = 2;
@@ -84,7 +124,10 @@ export class NoiseFloorAnalyzer implements Analyzer<NoiseFloorResult> {
   private readonly winSum: Float64Array;
   private readonly winSumSq: Float64Array;
   private winFill = 0;
-  private readonly histograms: Float64Array[];
+  /** Per channel and measured window: AC mean square, mean, and weight (the stride it stands for). */
+  private readonly windowMs: GrowableFloat64Array[];
+  private readonly windowMeans: GrowableFloat64Array[];
+  private readonly windowWeights: GrowableFloat64Array[];
   private readonly maxSegments: number;
   /** Segments per measured segment (1 = every segment), and what is left of a skip. */
   private stride: number;
@@ -136,7 +179,9 @@ export class NoiseFloorAnalyzer implements Analyzer<NoiseFloorResult> {
     const c = this.channels;
     this.winSum = new Float64Array(c);
     this.winSumSq = new Float64Array(c);
-    this.histograms = Array.from({ length: c }, () => new Float64Array(HISTOGRAM_BINS));
+    this.windowMs = Array.from({ length: c }, () => new GrowableFloat64Array());
+    this.windowMeans = Array.from({ length: c }, () => new GrowableFloat64Array());
+    this.windowWeights = Array.from({ length: c }, () => new GrowableFloat64Array());
     const frames = declaredFrames(format);
     const segmentFrames = SEGMENT_WINDOWS * this.windowFrames;
     this.stride = frames === null ? 1 : Math.max(1, Math.ceil(frames / segmentFrames / maxSegments));
@@ -234,22 +279,19 @@ export class NoiseFloorAnalyzer implements Analyzer<NoiseFloorResult> {
       this.winSumSq[c] += this.groupSumSq[c];
     }
     if (this.winFill >= this.windowFrames / 4) this.closeWindow();
-    let floorMs: number | null = null;
-    const floors: (number | null)[] = [];
-    for (let c = 0; c < this.channels; c++) {
-      const f = this.histogramPercentile(this.histograms[c]);
-      floors.push(f);
-      if (f !== null && (floorMs === null || f > floorMs)) floorMs = f;
-    }
-    if (floorMs === null) return { floorDbfs: null, humHz: null, noiseLimitedBits: null };
-    const floorDbfs = Math.round(floorMs * 10) / 10;
+    const floors = this.windowMs.map((ms, c) => channelFloor(ms.view(), this.windowMeans[c].view(), this.windowWeights[c].view(), this.percentile));
+    let noisiest: ChannelFloor | null = null;
+    for (const floor of floors) if (floor.basis !== 'none' && (noisiest === null || floor.db > noisiest.db)) noisiest = floor;
+    if (noisiest === null) return { floorDbfs: null, basis: 'none', snrDb: null, humHz: null, noiseLimitedBits: null };
     // Ideal quantiser noise, step Q = 2^(1−N) for full scale ±1: rms Q/√12, so
     // 20·log10(Q/√12) = −6.02·N − 4.77 dBFS (square-wave reference).
-    const bits = (-floorMs - 10 * Math.log10(12 / 4)) / (20 * Math.log10(2));
+    const bits = (-noisiest.db - 10 * Math.log10(12 / 4)) / (20 * Math.log10(2));
     return {
-      floorDbfs,
-      humHz: this.detectHum(floors),
-      noiseLimitedBits: Math.round(bits * 10) / 10,
+      floorDbfs: roundTo(noisiest.db, 1),
+      basis: noisiest.basis,
+      snrDb: noisiest.basis === 'quiet-passages' && noisiest.programmeDb !== null ? roundTo(noisiest.programmeDb - noisiest.db, 1) : null,
+      humHz: this.detectHum(floors.map((floor) => (floor.basis === 'none' ? null : floor.db))),
+      noiseLimitedBits: roundTo(bits, 1),
     };
   }
 
@@ -275,11 +317,12 @@ export class NoiseFloorAnalyzer implements Analyzer<NoiseFloorResult> {
       const mean = this.winSum[c] / n;
       const acMs = Math.max(0, this.winSumSq[c] / n - mean * mean);
       const digitalSilence = this.winSumSq[c] === 0;
-      if (!digitalSilence) {
-        const db = 10 * Math.log10(acMs > 1e-20 ? acMs : 1e-20);
-        const bin = Math.floor((db - HISTOGRAM_MIN_DB) / HISTOGRAM_STEP_DB);
+      // A take's last, shorter window counts only when it is all there is (its level is less steady).
+      if (!digitalSilence && (n === this.windowFrames || this.windowMs[c].length === 0)) {
+        this.windowMs[c].push(acMs);
+        this.windowMeans[c].push(mean);
         // Weighted by the stride it stands for, so a denser start does not bias the percentile.
-        this.histograms[c][Math.max(0, Math.min(HISTOGRAM_BINS - 1, bin))] += this.stride;
+        this.windowWeights[c].push(this.stride);
       }
       this.recentMs[c][this.recentCount % WINDOWS_PER_FRAME] = digitalSilence ? -1 : acMs;
       this.winSum[c] = 0;
@@ -322,20 +365,6 @@ export class NoiseFloorAnalyzer implements Analyzer<NoiseFloorResult> {
     // 50 % overlap: keep the second half as the next frame's first half.
     for (const frame of this.frames) frame.copyWithin(0, HUM_FFT_SIZE / 2, HUM_FFT_SIZE);
     this.frameFill = HUM_FFT_SIZE / 2;
-  }
-
-  /** Mean square at the configured percentile of the non-silent windows, as dB; null when there are none. */
-  private histogramPercentile(hist: Float64Array): number | null {
-    let total = 0;
-    for (let b = 0; b < hist.length; b++) total += hist[b];
-    if (total === 0) return null;
-    const target = this.percentile * total;
-    let run = 0;
-    for (let b = 0; b < hist.length; b++) {
-      run += hist[b];
-      if (run >= target) return HISTOGRAM_MIN_DB + (b + 0.5) * HISTOGRAM_STEP_DB;
-    }
-    return HISTOGRAM_MIN_DB + hist.length * HISTOGRAM_STEP_DB;
   }
 
   /** Sums the classes at or near each channel's floor and looks for mains harmonic lines in that spectrum. */
@@ -382,6 +411,83 @@ export class NoiseFloorAnalyzer implements Analyzer<NoiseFloorResult> {
     const best = s50.count > s60.count || (s50.count === s60.count && s50.sum >= s60.sum) ? { hz: 50 as const, ...s50 } : { hz: 60 as const, ...s60 };
     return best.count >= 2 ? best.hz : null;
   }
+}
+
+interface ChannelFloor {
+  /** Power mean of the quiet windows, dB (−Infinity for a channel of digital silence). */
+  db: number;
+  basis: FloorBasis;
+  /** Power mean of the programme windows (AC), dB; null when there are none. */
+  programmeDb: number | null;
+}
+
+/** Level of histogram bin `bin`, dB (its centre). */
+const binDb = (bin: number) => HISTOGRAM_MIN_DB + (bin + 0.5) * HISTOGRAM_STEP_DB;
+
+/** Level below which a share `fraction` of the histogram's windows lie, dB (a bin centre). */
+function percentileDb(histogram: Float64Array, total: number, fraction: number): number {
+  let run = 0;
+  for (let bin = 0; bin < histogram.length; bin++) {
+    run += histogram[bin];
+    if (run >= fraction * total) return binDb(bin);
+  }
+  return binDb(histogram.length - 1);
+}
+
+/** A 0.1 dB histogram of window mean squares, each window counting `weights[i]`. */
+function histogramOf(meanSquares: ArrayLike<number>, weights: Float64Array): Float64Array {
+  const histogram = new Float64Array(HISTOGRAM_BINS);
+  for (let i = 0; i < weights.length; i++) {
+    const db = 10 * Math.log10(meanSquares[i] > 1e-20 ? meanSquares[i] : 1e-20);
+    const bin = Math.floor((db - HISTOGRAM_MIN_DB) / HISTOGRAM_STEP_DB);
+    histogram[Math.max(0, Math.min(HISTOGRAM_BINS - 1, bin))] += weights[i];
+  }
+  return histogram;
+}
+
+/**
+ * One channel's floor. Quiet windows are those whose AC level lies within QUIET_SPAN_DB of the
+ * percentile; a passage is a run of at least PASSAGE_WINDOWS of them: steady, as noise is (a decaying
+ * note passes through that band in a window or two, and is not a pause). The channel's steady DC is the median mean of the passages' windows, and
+ * the floor the power mean of their mean squares around it.
+ */
+function channelFloor(acMs: Float64Array, means: Float64Array, weights: Float64Array, percentile: number): ChannelFloor {
+  if (weights.length === 0) return { db: -Infinity, basis: 'none', programmeDb: null };
+  const histogram = histogramOf(acMs, weights);
+  const total = histogram.reduce((sum, count) => sum + count, 0);
+  const low = percentileDb(histogram, total, percentile);
+  const spread = percentileDb(histogram, total, 0.95) - low;
+  const quietLimit = 10 ** ((low + QUIET_SPAN_DB) / 10);
+  const quietFloorMs = 10 ** ((low - QUIET_SPAN_DB) / 10);
+  const inPassage: number[] = [];
+  let runStart = 0;
+  for (let i = 0; i <= acMs.length; i++) {
+    if (i < acMs.length && acMs[i] <= quietLimit && acMs[i] >= quietFloorMs) continue;
+    if (i - runStart >= PASSAGE_WINDOWS) for (let k = runStart; k < i; k++) inPassage.push(k);
+    runStart = i + 1;
+  }
+  if (inPassage.length === 0) return { db: low, basis: 'none', programmeDb: null };
+  const passageMeans = inPassage.map((i) => means[i]).sort((a, b) => a - b);
+  const steadyDc = passageMeans[Math.floor(passageMeans.length / 2)];
+  let power = 0;
+  let weight = 0;
+  for (const i of inPassage) {
+    power += weights[i] * (acMs[i] + (means[i] - steadyDc) ** 2);
+    weight += weights[i];
+  }
+  const db = 10 * Math.log10(power / weight);
+  const programmeMs = 10 ** ((low + PROGRAMME_ABOVE_DB) / 10);
+  let programmePower = 0;
+  let programmeWeight = 0;
+  for (let i = 0; i < acMs.length; i++) {
+    if (acMs[i] <= programmeMs) continue;
+    programmePower += weights[i] * acMs[i];
+    programmeWeight += weights[i];
+  }
+  const programmeDb = programmeWeight > 0 ? 10 * Math.log10(programmePower / programmeWeight) : null;
+  if (spread >= QUIET_PASSAGE_DB) return { db, basis: 'quiet-passages', programmeDb };
+  if (spread <= STEADY_SPAN_DB && db <= STEADY_NOISE_MAX_DBFS) return { db, basis: 'steady-noise', programmeDb };
+  return { db, basis: 'none', programmeDb };
 }
 
 /**

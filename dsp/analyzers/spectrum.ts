@@ -1,5 +1,6 @@
 import FFT from 'fft.js';
 import type { Analyzer, AudioFormat, SampleBlock } from '../types';
+import { powerToDbFloored, roundTo } from '../util/decibels';
 import { assertAnalysableFormat, declaredFrames, hannWindow, isPowerOfTwo } from './formatGuard';
 
 /**
@@ -26,9 +27,12 @@ export interface SpectrumOptions {
 }
 
 export interface BandwidthResult {
-  /** Highest frequency the content reaches before a steep cut-off, Hz; null for digital silence. */
+  /** Highest frequency the content reaches before a steep cut-off, Hz; null for digital silence and for content that is not broadband (tones only). */
   effectiveHz: number | null;
-  /** Lowest standard rate whose Nyquist frequency lies above `effectiveHz`, when the take looks up-sampled; else null. */
+  /**
+   * The standard rate the take was probably made at and converted up from: the lowest whose Nyquist frequency lies
+   * above `effectiveHz`, claimed only where the cut-off sits where a resampler's low-pass puts it; else null.
+   */
   impliedSourceRate: number | null;
   /** Mean power density in the top 5 % below Nyquist relative to the passband mean density, dB. */
   nearNyquistDb: number | null;
@@ -43,8 +47,35 @@ export interface BandwidthResult {
 /** Standard sample rates an up-sampled take may come from, Hz (AES5 and common consumer/telephony rates). */
 export const STANDARD_RATES_HZ = [8000, 11025, 16000, 22050, 24000, 32000, 44100, 48000, 88200, 96000] as const;
 
-/** A cut-off is reported as up-sampling only below this fraction of the declared rate (report contract). */
-const UPSAMPLED_MAX_FRACTION = 0.42;
+/**
+ * Where a resampler's low-pass ends its pass band (−3 dB), as fractions of the old Nyquist frequency:
+ * from 80 % (speech codecs, telephone channels) to a little past it (ffmpeg's default soft filter is
+ * −3 dB at about 100.5 %). [common practice]
+ */
+const SOURCE_EDGE_MIN_FRACTION = 0.8;
+const SOURCE_EDGE_MAX_FRACTION = 1.02;
+/**
+ * A take's own converter passes up to about 0.45 fs (delta-sigma decimation filters end their pass band
+ * at 0.45–0.4535 fs) and its content is gone a little above that; a resampler from a lower standard rate
+ * has removed everything by that rate's Nyquist. So content that is still there at 0.45 fs was cut by the
+ * take's own converter: native 48 kHz music that holds on to 21.5 kHz (gone by about 21.9 kHz) is not
+ * "made at 44.1 kHz", while sox's 44.1 → 48 kHz conversion is −3 dB at 20.95 kHz and gone by 21.4 kHz.
+ * [common practice]
+ */
+const NATIVE_STOP_FRACTION = 0.45;
+/**
+ * Broadband content: at least this share of the bands from 200 Hz to the cut-off stand CLIFF_DROP_DB over
+ * what lies above it, and at least BROADBAND_MIN_BANDS of them (a tone and its window leakage fill a few). [common practice]
+ */
+const BROADBAND_MIN_SHARE = 0.5;
+const BROADBAND_MIN_BANDS = 16;
+/**
+ * ... and broadband at once, not only on average: in the mean window at least this share of those bands holds
+ * content (within PRESENT_WITHIN_DB of the window's strongest band). A sweep covers the band over time, one
+ * frequency at a time, and fills a few percent. [common practice]
+ */
+const BROADBAND_MIN_PRESENCE = 0.25;
+const PRESENT_WITHIN_DB = 50;
 /** Bands the half spectrum is split into for the cut-off search. */
 const BAND_COUNT = 256;
 /** Drop across a cut-off, dB: the content must stand this far above everything above it. [common practice] */
@@ -64,21 +95,25 @@ const CLIFF_TRANSITION_FRACTION = 0.15;
  * one is −6 dB only at or just above the original Nyquist frequency, so −6 dB would misread it.)
  */
 const EDGE_DROP_DB = 3;
+/** A band this much under the one below it is still on a filter's slope, dB. [common practice] */
+const SLOPE_STEP_DB = 1.5;
 /** Near-Nyquist region, as fractions of Nyquist. */
 const NEAR_NYQUIST_FROM = 0.94;
 const NEAR_NYQUIST_TO = 0.99;
 /** Region compared with it to see a roll-off, fractions of Nyquist. */
 const UPPER_PASSBAND_FROM = 0.7;
 const UPPER_PASSBAND_TO = 0.85;
-/** Aliasing-risk thresholds, dB. [common practice] */
-const ALIAS_NEAR_NYQUIST_MIN_DB = -30;
+/**
+ * Aliasing-risk thresholds, dB: the top 5 % below Nyquist as dense as the passband on average (a converter
+ * without an anti-alias filter fills it with folded content), not merely present: a full-band electronic
+ * master with digital hi-hats keeps it about 7 dB down. [common practice]
+ */
+const ALIAS_NEAR_NYQUIST_MIN_DB = -3;
 const ALIAS_ROLL_OFF_MAX_DB = 6;
 const PLOT_FLOOR_DB = -200;
 const TINY_POWER = 1e-30;
 
-function dbPower(p: number): number {
-  return 10 * Math.log10(p > TINY_POWER ? p : TINY_POWER);
-}
+const dbPower = (power: number) => powerToDbFloored(power, TINY_POWER);
 
 export class SpectrumAnalyzer implements Analyzer<BandwidthResult> {
   private readonly sampleRate: number;
@@ -92,6 +127,11 @@ export class SpectrumAnalyzer implements Analyzer<BandwidthResult> {
   private readonly fftOut: Float64Array;
   /** Σ over windows of (weight × channel-mean |X[k]|²), k = 0 … N/2. */
   private readonly powerSum: Float64Array;
+  /** One window's channel-mean |X[k]|², and its band sums. */
+  private readonly windowPower: Float64Array;
+  private readonly windowBands: Float64Array;
+  /** Σ over windows of the weight of those in which each band held content (within PRESENT_WITHIN_DB of the window's strongest band). */
+  private readonly bandPresence: Float64Array;
   private weightSum = 0;
   /** Frames between window starts; doubles whenever a take outgrows its window budget. */
   private hop: number;
@@ -132,6 +172,9 @@ export class SpectrumAnalyzer implements Analyzer<BandwidthResult> {
     this.fftIn = new Float64Array(fftSize);
     this.fftOut = new Float64Array(2 * fftSize);
     this.powerSum = new Float64Array(fftSize / 2 + 1);
+    this.windowPower = new Float64Array(fftSize / 2 + 1);
+    this.windowBands = new Float64Array(BAND_COUNT);
+    this.bandPresence = new Float64Array(BAND_COUNT);
     // Spread the budget evenly over a take of known length; 50 % overlap at most.
     const frames = declaredFrames(format);
     const even = frames !== null && frames > fftSize ? Math.floor((frames - fftSize) / Math.max(1, maxWindows - 1)) : 0;
@@ -189,7 +232,8 @@ export class SpectrumAnalyzer implements Analyzer<BandwidthResult> {
     const n = this.fftSize;
     const half = n / 2;
     const weight = this.hop;
-    const inv = weight / this.channels;
+    const inv = 1 / this.channels;
+    this.windowPower.fill(0);
     for (let c = 0; c < this.channels; c++) {
       const x = data[c];
       for (let i = 0; i < valid; i++) this.fftIn[i] = x[i] * this.window[i];
@@ -199,15 +243,32 @@ export class SpectrumAnalyzer implements Analyzer<BandwidthResult> {
       for (let k = 0; k <= half; k++) {
         const re = out[2 * k];
         const im = out[2 * k + 1];
-        this.powerSum[k] += (re * re + im * im) * inv;
+        this.windowPower[k] += (re * re + im * im) * inv;
       }
     }
+    for (let k = 0; k <= half; k++) this.powerSum[k] += this.windowPower[k] * weight;
+    this.notePresence(weight);
     this.weightSum += weight;
     // Keep the window count bounded on takes longer than declared (or of unknown length).
     if (++this.windowsAtHop >= this.maxWindows) {
       this.hop *= 2;
       this.windowsAtHop = 0;
     }
+  }
+
+  /** Marks the bands in which this window held content: a tone or a sweep fills a few, broadband sound most. */
+  private notePresence(weight: number): void {
+    const binsPerBand = Math.max(1, Math.floor(this.fftSize / 2 / BAND_COUNT));
+    let strongest = 0;
+    for (let b = 0; b < BAND_COUNT; b++) {
+      let sum = 0;
+      for (let k = b * binsPerBand; k < (b + 1) * binsPerBand; k++) sum += this.windowPower[k];
+      this.windowBands[b] = sum;
+      if (b > 0 && sum > strongest) strongest = sum;
+    }
+    if (!(strongest > 0)) return;
+    const threshold = strongest * 10 ** (-PRESENT_WITHIN_DB / 10);
+    for (let b = 1; b < BAND_COUNT; b++) if (this.windowBands[b] >= threshold) this.bandPresence[b] += weight;
   }
 
   private evaluate(): BandwidthResult {
@@ -233,7 +294,7 @@ export class SpectrumAnalyzer implements Analyzer<BandwidthResult> {
     }
     if (!(total > 0)) return empty;
 
-    const effectiveHz = this.effectiveBandwidth(psd, binHz, nyquist);
+    const { edgeHz: effectiveHz, stopHz, broadband } = this.effectiveBandwidth(psd, binHz, nyquist);
     const meanDensity = (loHz: number, hiHz: number): number => {
       const k0 = Math.max(1, Math.ceil(loHz / binHz));
       const k1 = Math.min(half, Math.floor(hiHz / binHz));
@@ -245,20 +306,23 @@ export class SpectrumAnalyzer implements Analyzer<BandwidthResult> {
     const passband = meanDensity(Math.min(20, effectiveHz / 2), effectiveHz);
     const nearNyquist = meanDensity(NEAR_NYQUIST_FROM * nyquist, NEAR_NYQUIST_TO * nyquist);
     const upperPassband = meanDensity(UPPER_PASSBAND_FROM * nyquist, UPPER_PASSBAND_TO * nyquist);
-    const nearNyquistDb = round(dbPower(nearNyquist) - dbPower(passband), 1);
+    const nearNyquistDb = roundTo(dbPower(nearNyquist) - dbPower(passband), 1);
     const rollOffDb = dbPower(nearNyquist) - dbPower(upperPassband);
     // No anti-alias filter: the spectrum runs on to Nyquist at a level comparable to the passband.
     const aliasingRisk =
       effectiveHz >= 0.9 * nyquist && nearNyquistDb > ALIAS_NEAR_NYQUIST_MIN_DB && rollOffDb > -ALIAS_ROLL_OFF_MAX_DB;
 
-    let impliedSourceRate: number | null = null;
-    if (effectiveHz < UPSAMPLED_MAX_FRACTION * fs) {
-      const rate = STANDARD_RATES_HZ.find((r) => r / 2 > effectiveHz);
-      if (rate !== undefined && rate < fs) impliedSourceRate = rate;
-    }
+    // Up-sampled: broadband content that stops where a resampler's low-pass for a lower standard rate
+    // puts the cut-off, and is gone below where the take's own converter would remove it.
+    const sourceRate = STANDARD_RATES_HZ.find((rate) => SOURCE_EDGE_MAX_FRACTION * (rate / 2) >= effectiveHz);
+    const impliedSourceRate =
+      broadband && sourceRate !== undefined && sourceRate < fs && stopHz < NATIVE_STOP_FRACTION * fs &&
+      effectiveHz >= SOURCE_EDGE_MIN_FRACTION * (sourceRate / 2)
+        ? sourceRate
+        : null;
 
     return {
-      effectiveHz: Math.round(effectiveHz),
+      effectiveHz: broadband ? Math.round(effectiveHz) : null,
       impliedSourceRate,
       nearNyquistDb,
       aliasingRisk,
@@ -270,10 +334,11 @@ export class SpectrumAnalyzer implements Analyzer<BandwidthResult> {
   /**
    * Highest frequency before a steep cut-off: the top band that stands at least
    * CLIFF_DROP_DB above everything above its transition band, refined to the
-   * −EDGE_DROP_DB point. A gradual natural roll-off never
-   * qualifies, so content that fades out towards Nyquist reads Nyquist.
+   * −EDGE_DROP_DB point. A gradual natural roll-off never qualifies, so content
+   * that fades out towards Nyquist reads Nyquist. `broadband` says whether the
+   * content under a cut-off fills the band (not a tone and its leakage).
    */
-  private effectiveBandwidth(psd: Float64Array, binHz: number, nyquist: number): number {
+  private effectiveBandwidth(psd: Float64Array, binHz: number, nyquist: number): { edgeHz: number; stopHz: number; broadband: boolean } {
     const half = psd.length - 1;
     const binsPerBand = Math.max(1, Math.floor(half / BAND_COUNT));
     const bands = Math.floor(half / binsPerBand);
@@ -283,14 +348,11 @@ export class SpectrumAnalyzer implements Analyzer<BandwidthResult> {
       for (let k = b * binsPerBand; k < (b + 1) * binsPerBand; k++) s += psd[k];
       bandDb[b] = dbPower(s / binsPerBand);
     }
-    // A 5-band running median ignores isolated tones (hum lines, alias products, whistles).
-    const smooth = new Float64Array(bands);
-    const scratch = new Float64Array(5);
-    for (let b = 0; b < bands; b++) {
-      let m = 0;
-      for (let j = b - 2; j <= b + 2; j++) if (j >= 1 && j < bands) scratch[m++] = bandDb[j];
-      smooth[b] = median(scratch.subarray(0, m));
-    }
+    // A 5-band running median ignores isolated tones (hum lines, alias products, whistles); an
+    // 11-band one (about 1 kHz at 48 kHz) also evens out the peaks and valleys of a harmonic top octave
+    // for placing the edge (a median keeps a monotone slope where it is).
+    const smooth = runningMedian(bandDb, 2);
+    const smoothWide = runningMedian(bandDb, 5);
     const suffixMax = new Float64Array(bands + 1).fill(-Infinity);
     for (let b = bands - 1; b >= 0; b--) suffixMax[b] = Math.max(smooth[b], suffixMax[b + 1]);
     // The loud part of the content: 90th percentile of the band levels.
@@ -300,27 +362,37 @@ export class SpectrumAnalyzer implements Analyzer<BandwidthResult> {
       const gap = Math.max(2, Math.ceil(CLIFF_TRANSITION_FRACTION * b));
       if (b + gap >= bands) continue;
       if (smooth[b] < contentDb - CLIFF_MAX_BELOW_CONTENT_DB) continue;
-      if (smooth[b] - suffixMax[b + gap] < CLIFF_DROP_DB) continue;
-      // Edge: the passband level is taken one transition width below the cut-off band (band b
-      // may already lie inside a steep filter's slope); walking up the median-smoothed bands
-      // (a median keeps a monotone edge where it is, and ignores the dips between harmonics),
-      // the edge is where the level crosses EDGE_DROP_DB below it, interpolated between band centres.
-      const refEnd = Math.max(1, b - gap);
-      let under = 0;
-      let count = 0;
-      for (let j = Math.max(1, refEnd - 4); j <= refEnd; j++) {
-        under += Math.pow(10, smooth[j] / 10);
-        count++;
-      }
-      const edgeDb = dbPower(under / count) - EDGE_DROP_DB;
-      let j = refEnd + 1;
-      while (j < Math.min(bands, b + gap + 1) && smooth[j] >= edgeDb) j++;
+      const stopDb = suffixMax[b + gap];
+      if (smooth[b] - stopDb < CLIFF_DROP_DB) continue;
+      // Band b may lie deep inside a steep filter's slope: walk down the slope (levels still rising
+      // by more than SLOPE_STEP_DB a band) to where the pass band flattens; the reference is the median
+      // level of the transition width below that (a soft filter's knee falls slowly). Then, on the wide
+      // median, the edge is where the level crosses EDGE_DROP_DB below the reference nearest the cliff,
+      // interpolated between band centres.
+      let top = b;
+      while (top > lowestBand && smoothWide[top - 1] > smoothWide[top] + SLOPE_STEP_DB) top--;
+      const edgeDb = median(smoothWide.subarray(Math.max(1, top - gap), top + 1)) - EDGE_DROP_DB;
+      let j = top;
+      while (j > 1 && smoothWide[j - 1] < edgeDb) j--;
+      while (j < Math.min(bands, b + gap + 1) && smoothWide[j] >= edgeDb) j++;
+      j = Math.max(j, 1);
       const bandHz = binsPerBand * binHz;
       const centre = (i: number) => (i + 0.5) * bandHz;
-      const fraction = smooth[j - 1] > smooth[j] ? (smooth[j - 1] - edgeDb) / (smooth[j - 1] - smooth[j]) : 0;
-      return Math.min(nyquist, centre(j - 1) + Math.max(0, Math.min(1, fraction)) * bandHz);
+      const fraction = smoothWide[j - 1] > smoothWide[j] ? (smoothWide[j - 1] - edgeDb) / (smoothWide[j - 1] - smoothWide[j]) : 0;
+      const edgeHz = Math.min(nyquist, centre(j - 1) + Math.max(0, Math.min(1, fraction)) * bandHz);
+      // Where the content is gone: CLIFF_DROP_DB under the edge level.
+      let stop = j;
+      while (stop < bands - 1 && smoothWide[stop] >= edgeDb - CLIFF_DROP_DB) stop++;
+      const stopHz = centre(stop);
+      let filled = 0;
+      for (let k = lowestBand; k < j; k++) if (smooth[k] >= stopDb + CLIFF_DROP_DB) filled++;
+      let presence = 0;
+      for (let k = lowestBand; k < j; k++) presence += this.bandPresence[k] / this.weightSum;
+      const broadband =
+        filled >= BROADBAND_MIN_BANDS && filled >= BROADBAND_MIN_SHARE * (j - lowestBand) && presence >= BROADBAND_MIN_PRESENCE * (j - lowestBand);
+      return { edgeHz, stopHz, broadband };
     }
-    return nyquist;
+    return { edgeHz: nyquist, stopHz: nyquist, broadband: true };
   }
 
   private peakFrequency(psd: Float64Array, binHz: number): number | null {
@@ -337,7 +409,7 @@ export class SpectrumAnalyzer implements Analyzer<BandwidthResult> {
       const denom = a - 2 * b + c;
       if (denom < 0) offset = (0.5 * (a - c)) / denom;
     }
-    return round((best + offset) * binHz, 2);
+    return roundTo((best + offset) * binHz, 2);
   }
 
   /** Log-spaced points from 20 Hz to Nyquist; each the mean density of the bins it covers (or the nearest bin). */
@@ -361,16 +433,23 @@ export class SpectrumAnalyzer implements Analyzer<BandwidthResult> {
       } else {
         p = psd[Math.min(half, Math.round(Math.sqrt(f0 * f1) / binHz))];
       }
-      hz.push(round(Math.sqrt(f0 * f1), 1));
-      db.push(round(Math.max(PLOT_FLOOR_DB, dbPower(p) - ref), 2));
+      hz.push(roundTo(Math.sqrt(f0 * f1), 1));
+      db.push(roundTo(Math.max(PLOT_FLOOR_DB, dbPower(p) - ref), 2));
     }
     return { hz, db };
   }
 }
 
-function round(x: number, digits: number): number {
-  const f = Math.pow(10, digits);
-  return Math.round(x * f) / f;
+/** Running median of `values` over ±`half` neighbours (index 0, the DC band, left out). */
+function runningMedian(values: Float64Array, half: number): Float64Array {
+  const out = new Float64Array(values.length);
+  const scratch = new Float64Array(2 * half + 1);
+  for (let b = 0; b < values.length; b++) {
+    let m = 0;
+    for (let j = b - half; j <= b + half; j++) if (j >= 1 && j < values.length) scratch[m++] = values[j];
+    out[b] = median(scratch.subarray(0, m));
+  }
+  return out;
 }
 
 function median(values: Float64Array): number {

@@ -46,6 +46,11 @@ export interface ToneResult {
   thdnDb: number;
   /** ENOB referred to full scale: (SINAD − 1.76 + 20·log10(1/peak))/6.02, bits. */
   enobBits: number;
+  /**
+   * True when the fit's residual lay below the container's own quantisation noise (a sine that lands on a
+   * few codes, such as fs/4): SINAD and ENOB are then given as that limit, and the real values are at least these.
+   */
+  limitedByContainer: boolean;
   /** Rate the take was likely recorded at when a 1000 Hz or 997 Hz tone appears shifted by a wrong declared rate; else null. */
   likelyRecordedRate: number | null;
   /** Channel measured (the one with the strongest tone), 0-based. */
@@ -58,6 +63,13 @@ const STANDARD_TONES_HZ = [1000, 997];
 const RATE_MATCH_TOLERANCE = 0.001;
 /** Chunk purity: power outside the peak's ±4 bins must be below this fraction (−30 dB). [common practice] */
 const CHUNK_IMPURITY_MAX = 1e-3;
+/**
+ * Lowest SINAD of a line-up tone, dB: a steady sine fits itself far better (even 4-bit codes give
+ * ≈ 26 dB); a sweep or a musical note fitted as one sine leaves most of its power as residual. [common practice]
+ */
+const MIN_TONE_SINAD_DB = 20;
+/** Mantissa bits of 32-bit float samples (IEEE 754 binary32, with the hidden bit). */
+const FLOAT32_MANTISSA_BITS = 24;
 /** Lowest tone level considered, dBFS peak. [common practice] */
 const MIN_TONE_DBFS = -60;
 /** Level steadiness within a run, dB. [common practice] */
@@ -95,6 +107,8 @@ interface Candidate {
 export class ToneAnalyzer implements Analyzer<ToneResult | null> {
   private readonly fs: number;
   private readonly channels: number;
+  /** Mean square of the container's quantisation noise relative to full scale, or, for float, relative to the signal's power. */
+  private readonly quantisation: { kind: 'absolute' | 'relative'; meanSquare: number };
   private readonly headFrames: number;
   private readonly tailFrames: number;
   private readonly minToneFrames: number;
@@ -144,6 +158,11 @@ export class ToneAnalyzer implements Analyzer<ToneResult | null> {
     }
     this.fs = format.sampleRate;
     this.channels = Math.min(format.channels, MAX_TONE_CHANNELS);
+    // Ideal quantiser (IEEE 1241): step Q = 2^(1−N) for full scale ±1, noise Q²/12. Float keeps N mantissa bits of each sample.
+    this.quantisation =
+      format.encoding === 'float'
+        ? { kind: 'relative', meanSquare: 2 ** (2 * (1 - FLOAT32_MANTISSA_BITS)) / 12 }
+        : { kind: 'absolute', meanSquare: 2 ** (2 * (1 - format.validBitsPerSample)) / 12 };
     const cap = Math.max(2 * this.fs, Math.floor(MAX_BUFFER_SAMPLES / this.channels));
     this.headFrames = Math.min(cap, Math.round(headSec * this.fs));
     this.tailFrames = Math.min(cap, Math.round(tailSec * this.fs));
@@ -284,7 +303,11 @@ export class ToneAnalyzer implements Analyzer<ToneResult | null> {
 
   private report(tone: Candidate): ToneResult {
     const f = (tone.fit.omega * this.fs) / (2 * Math.PI);
-    const sinad = tone.sinadDb;
+    const power = tone.amplitude ** 2 / 2;
+    const floor = this.quantisation.kind === 'absolute' ? this.quantisation.meanSquare : this.quantisation.meanSquare * power;
+    const containerLimitDb = 10 * Math.log10(power / floor);
+    const limitedByContainer = tone.sinadDb > containerLimitDb;
+    const sinad = limitedByContainer ? containerLimitDb : tone.sinadDb;
     return {
       startSec: roundTo(tone.startFrame / this.fs, 3),
       endSec: roundTo(tone.endFrame / this.fs, 3),
@@ -295,6 +318,7 @@ export class ToneAnalyzer implements Analyzer<ToneResult | null> {
       // IEEE 1241 full-scale-referred ENOB, FS peak = 1.0.
       enobBits: roundTo((sinad - 1.76 + 20 * Math.log10(1 / tone.amplitude)) / 6.02, 2),
       likelyRecordedRate: likelyRecordedRate(f, this.fs),
+      limitedByContainer,
       channel: tone.channel,
     };
   }
@@ -364,6 +388,7 @@ export class ToneAnalyzer implements Analyzer<ToneResult | null> {
     const amplitude = Math.hypot(fit.a, fit.b);
     if (!(amplitude > 0) || 20 * Math.log10(amplitude) < MIN_TONE_DBFS) return null;
     const sinadDb = 10 * Math.log10((amplitude * amplitude) / 2 / Math.max(fit.residualMs, 1e-300));
+    if (sinadDb < MIN_TONE_SINAD_DB) return null;
 
     // Edges: walk outwards in 5 ms blocks while the residual stays small.
     const limit = EDGE_RESIDUAL_RATIO * EDGE_RESIDUAL_RATIO * ((amplitude * amplitude) / 2);

@@ -1,9 +1,28 @@
-import { TRUE_PEAK_CENTRE_GAIN, TRUE_PEAK_MAX_GAIN, TRUE_PEAK_PHASES, TRUE_PEAK_SIDE_GAIN, TRUE_PEAK_TAPS_PER_PHASE } from '../filters/truePeakFilter';
+import {
+  TRUE_PEAK_CENTRE_GAIN,
+  TRUE_PEAK_CENTRE_TAP,
+  TRUE_PEAK_MAX_GAIN,
+  TRUE_PEAK_NORM,
+  TRUE_PEAK_PHASES,
+  TRUE_PEAK_SIDE_GAIN,
+  TRUE_PEAK_TAPS_PER_PHASE,
+} from '../filters/truePeakFilter';
 import type { Analyzer, AudioFormat, SampleBlock } from '../types';
 
 /** Samples per bound check: small enough to skip finely, large enough to amortise the check. */
 const CHUNK = 32;
-const HISTORY = TRUE_PEAK_TAPS_PER_PHASE - 1;
+const TAPS = TRUE_PEAK_TAPS_PER_PHASE;
+const HISTORY = TAPS - 1;
+const CENTRE = TRUE_PEAK_CENTRE_TAP;
+const HALF = TAPS / 2;
+/** Per phase 0 and 1: h[k] + h[23-k] and h[k] - h[23-k] for k < 12. */
+const FOLDED = [0, 1].map((index) => {
+  const phase = TRUE_PEAK_PHASES[index];
+  return [
+    Float64Array.from({ length: HALF }, (_, k) => phase[k] + phase[HISTORY - k]),
+    Float64Array.from({ length: HALF }, (_, k) => phase[k] - phase[HISTORY - k]),
+  ];
+});
 
 export interface TruePeakResult {
   /** Highest |value| of the 4x over-sampled signal per channel, linear (full scale = 1.0). */
@@ -13,17 +32,19 @@ export interface TruePeakResult {
 }
 
 /**
- * True peak per channel, ITU-R BS.1770-4 Annex 2: 4x over-sampling through the
- * Annex's 48-tap FIR (in floating point, so no 12.04 dB attenuation is needed),
- * then the largest absolute value.
+ * True peak per channel, ITU-R BS.1770-4 Annex 2 method: 4x over-sampling
+ * through the interpolator of `filters/truePeakFilter` (in floating point, so no
+ * 12.04 dB attenuation is needed), then the largest absolute value.
  *
- * Exact shortcuts: an output is a sum of 12 taps times 12 samples, so it is at
+ * Exact shortcuts: an output is a sum of 24 taps times 24 samples, so it is at
  * most TRUE_PEAK_MAX_GAIN × the largest |sample| of its window; a run of
  * outputs whose windows cannot beat the running maximum is not computed. Within
- * a run that can, an output is also bounded by (|h5|+|h6|)·max(|x[n-5]|, |x[n-6]|)
- * + (sum of the other |h|)·(window max), and is skipped when that cannot win.
+ * a run that can, an output is skipped when either of two bounds cannot win:
+ * (|h11|+|h12|)·max(|x[n-11]|, |x[n-12]|) + (sum of the other |h|)·(window max),
+ * or (largest phase norm)·(norm of its 24 samples) by Cauchy-Schwarz.
  * The sample values themselves also count, so the reading never falls below
- * the sample peak (the example filter's phases 1-2 have a DC gain of 0.973).
+ * the sample peak. The take is followed by 23 zeros, so its last samples'
+ * inter-sample peaks are read like every other's.
  */
 export class TruePeakAnalyzer implements Analyzer<TruePeakResult> {
   private readonly channelCount: number;
@@ -62,11 +83,12 @@ export class TruePeakAnalyzer implements Analyzer<TruePeakResult> {
     let peak = this.peaks[channel];
     let peakFrame = this.peakFrames[channel];
     const base = this.framesSeen[channel];
-    const [a0, a1, a2, a3, a4, a5, a6, a7, a8, a9, a10, a11] = TRUE_PEAK_PHASES[0];
-    const [b0, b1, b2, b3, b4, b5, b6, b7, b8, b9, b10, b11] = TRUE_PEAK_PHASES[1];
+    const [folded0Sum, folded0Difference] = FOLDED[0];
+    const [folded1Sum, folded1Difference] = FOLDED[1];
+    const normSquared = TRUE_PEAK_NORM * TRUE_PEAK_NORM;
     for (let chunkStart = 0; chunkStart < frames; chunkStart += CHUNK) {
       const chunkEnd = Math.min(frames, chunkStart + CHUNK);
-      // Window of the chunk's outputs: samples chunkStart-11 .. chunkEnd-1 (offset by HISTORY in `extended`).
+      // Window of the chunk's outputs: samples chunkStart-23 .. chunkEnd-1 (offset by HISTORY in `extended`).
       let windowMax = 0;
       for (let i = chunkStart; i < chunkEnd + HISTORY; i++) {
         const magnitude = Math.abs(extended[i]);
@@ -74,30 +96,44 @@ export class TruePeakAnalyzer implements Analyzer<TruePeakResult> {
       }
       if (windowMax * TRUE_PEAK_MAX_GAIN <= peak) continue;
       const sideBound = TRUE_PEAK_SIDE_GAIN * windowMax;
+      // Energy of the first output's 24 samples, then slid one sample per output.
+      let energy = 0;
+      for (let i = chunkStart; i < chunkStart + TAPS; i++) energy += extended[i] * extended[i];
       for (let n = chunkStart; n < chunkEnd; n++) {
         // extended[n + HISTORY - k] is x[n - k].
         const newest = n + HISTORY;
-        const centre5 = Math.abs(extended[newest - 5]);
-        const centre6 = Math.abs(extended[newest - 6]);
+        if (n > chunkStart) energy += extended[newest] * extended[newest] - extended[newest - TAPS] * extended[newest - TAPS];
         const newestMagnitude = Math.abs(extended[newest]);
         if (newestMagnitude > peak) {
           peak = newestMagnitude;
           peakFrame = base + n;
         }
-        if (TRUE_PEAK_CENTRE_GAIN * (centre5 > centre6 ? centre5 : centre6) + sideBound <= peak) continue;
-        // The 12 taps unrolled; phases 3 and 2 are phases 0 and 1 reversed (Annex 2 table).
-        const x0 = extended[newest], x1 = extended[newest - 1], x2 = extended[newest - 2], x3 = extended[newest - 3];
-        const x4 = extended[newest - 4], x5 = extended[newest - 5], x6 = extended[newest - 6], x7 = extended[newest - 7];
-        const x8 = extended[newest - 8], x9 = extended[newest - 9], x10 = extended[newest - 10], x11 = extended[newest - 11];
-        const sum0 = a0 * x0 + a1 * x1 + a2 * x2 + a3 * x3 + a4 * x4 + a5 * x5 + a6 * x6 + a7 * x7 + a8 * x8 + a9 * x9 + a10 * x10 + a11 * x11;
-        const sum3 = a11 * x0 + a10 * x1 + a9 * x2 + a8 * x3 + a7 * x4 + a6 * x5 + a5 * x6 + a4 * x7 + a3 * x8 + a2 * x9 + a1 * x10 + a0 * x11;
-        const sum1 = b0 * x0 + b1 * x1 + b2 * x2 + b3 * x3 + b4 * x4 + b5 * x5 + b6 * x6 + b7 * x7 + b8 * x8 + b9 * x9 + b10 * x10 + b11 * x11;
-        const sum2 = b11 * x0 + b10 * x1 + b9 * x2 + b8 * x3 + b7 * x4 + b6 * x5 + b5 * x6 + b4 * x7 + b3 * x8 + b2 * x9 + b1 * x10 + b0 * x11;
-        const magnitude = Math.max(Math.abs(sum0), Math.abs(sum1), Math.abs(sum2), Math.abs(sum3));
+        const after = Math.abs(extended[newest - CENTRE + 1]);
+        const before = Math.abs(extended[newest - CENTRE]);
+        if (TRUE_PEAK_CENTRE_GAIN * (after > before ? after : before) + sideBound <= peak) continue;
+        // The sliding sum can drift by rounding; 1e-9 of slack keeps the bound safe.
+        if (energy * normSquared * (1 + 1e-9) <= peak * peak) continue;
+        // Phases 3 and 2 are phases 0 and 1 reversed. With the window folded about its centre
+        // (s = x[n-k] + x[n-23+k], d = x[n-k] - x[n-23+k]), phase 0 + phase 3 = FOLDED_SUM·s and
+        // phase 0 - phase 3 = FOLDED_DIFFERENCE·d, so max(|phase 0|, |phase 3|) = (|FS·s| + |FD·d|)/2.
+        let even0 = 0, odd0 = 0, even1 = 0, odd1 = 0;
+        for (let k = 0; k < HALF; k++) {
+          const early = extended[newest - k];
+          const late = extended[newest - HISTORY + k];
+          const sum = early + late;
+          const difference = early - late;
+          even0 += folded0Sum[k] * sum;
+          odd0 += folded0Difference[k] * difference;
+          even1 += folded1Sum[k] * sum;
+          odd1 += folded1Difference[k] * difference;
+        }
+        const outer = Math.abs(even0) + Math.abs(odd0);
+        const inner = Math.abs(even1) + Math.abs(odd1);
+        const magnitude = (outer > inner ? outer : inner) / 2;
         if (magnitude > peak) {
           peak = magnitude;
-          // The interpolated points lie between x[n-6] and x[n-5], the filter's centre taps.
-          peakFrame = base + n - 6;
+          // The interpolated points lie between x[n-12] and x[n-11], the filter's centre taps.
+          peakFrame = base + n - CENTRE;
         }
       }
     }

@@ -1,4 +1,5 @@
 import { Worker } from 'node:worker_threads';
+import type { LeftOutSpan } from '../analyzers/loudness';
 import type { AudioFormat, SampleBlock } from '../types';
 import type { FromWorker, ToWorker } from './workerProtocol';
 
@@ -94,14 +95,14 @@ export class WorkerAnalyzers {
     this.worker.postMessage(message, buffers.map((buffer) => buffer.buffer as ArrayBuffer));
   }
 
-  /** Finishes the worker's analyzers and stops the worker. */
-  async finish(): Promise<Results> {
+  /** Finishes the worker's analyzers (loudness without `leaveOut`) and stops the worker. */
+  async finish(leaveOut: LeftOutSpan | null = null): Promise<Results> {
     if (this.failure) throw this.failure;
     try {
       return await new Promise<Results>((resolve, reject) => {
         this.resultsWaiter = resolve;
         this.failureWaiter = reject;
-        this.worker.postMessage({ kind: 'finish' } satisfies ToWorker);
+        this.worker.postMessage({ kind: 'finish', leaveOut } satisfies ToWorker);
       });
     } finally {
       await this.worker.terminate();

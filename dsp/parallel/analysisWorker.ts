@@ -33,8 +33,8 @@ port.on('message', (message: ToWorker) => {
       send({
         kind: 'results',
         truePeak: analyzers!.truePeak.finish(),
-        loudness: analyzers!.loudness?.finish() ?? UNMEASURED_LOUDNESS,
-        trackLoudness: analyzers!.trackLoudness?.finish() ?? null,
+        loudness: analyzers!.loudness?.finish(message.leaveOut) ?? UNMEASURED_LOUDNESS,
+        trackLoudness: analyzers!.trackLoudness?.finish(message.leaveOut) ?? null,
         clipping: analyzers!.clipping.finish(),
       });
     }

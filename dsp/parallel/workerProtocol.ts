@@ -1,5 +1,5 @@
 import type { ClippingResult } from '../analyzers/clipping';
-import type { LoudnessResult } from '../analyzers/loudness';
+import type { LeftOutSpan, LoudnessResult } from '../analyzers/loudness';
 import type { TruePeakResult } from '../analyzers/truePeak';
 import type { AudioFormat } from '../types';
 
@@ -7,7 +7,7 @@ import type { AudioFormat } from '../types';
 export type ToWorker =
   | { kind: 'start'; format: AudioFormat; perTrack: boolean }
   | { kind: 'block'; channels: Float64Array[]; frames: number; startFrame: number }
-  | { kind: 'finish' };
+  | { kind: 'finish'; leaveOut: LeftOutSpan | null };
 
 /** Messages from the analysis worker back to the pipeline. */
 export type FromWorker =

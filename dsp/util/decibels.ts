@@ -18,3 +18,8 @@ export function roundTo(value: number, decimals: number): number {
 export function roundOrNull(value: number | null, decimals: number): number | null {
   return value === null ? null : roundTo(value, decimals);
 }
+
+/** 10·log10 of a power ratio, taking powers below `floor` as `floor` (for spectra, where a bin may hold zero). */
+export function powerToDbFloored(power: number, floor: number): number {
+  return 10 * Math.log10(power > floor ? power : floor);
+}

@@ -2,7 +2,7 @@ import type { Finding } from '../../dsp/types';
 import { dbToAmplitude, sine } from '../../tests/support/testSignals';
 import type { SampleCoding } from '../../tests/support/wavWriter';
 import * as fault from './faults';
-import { LINES, VOICES, conversationTake, mixInto, musicTake, noiseTake, roomTone, speechTake } from './material';
+import { LINES, VOICES, conversationTake, denseMasterTake, fullBandMasterTake, mixInto, musicTake, noiseTake, roomTone, speechTake, sweepTake } from './material';
 import { resample, speak } from './tools';
 
 /**
@@ -119,6 +119,10 @@ export const CLEAN_TAKES: EvalTake[] = [
   { id: 'surround-5.1-48k-24', description: 'music-like on L R C Ls Rs, LFE low-passed, channel mask 0x3F, 48 kHz 24-bit', slice: true, make: () => surround() },
   { id: 'poly-8-48k-24', description: 'location recorder poly: mix L/R, boom, two lavaliers, three unused tracks (digital zero, hiss at -95 and -85 dBFS), iXML names, 48 kHz 24-bit', slice: true, make: () => { const { channels, names } = polyTake(48000, ['zero', -95, -85], 3); return { channels, sampleRate: 48000, coding: 'pcm24', trackNames: names }; } },
   { id: 'poly-4-96k-float', description: 'poly: boom, two lavaliers, one unused (hiss at -90 dBFS), iXML names, 96 kHz float', slice: false, make: () => { const { channels, names } = polyTake(96000, [-90], 4); return { channels: channels.slice(2), sampleRate: 96000, coding: 'float32', trackNames: names.slice(2) }; } },
+  { id: 'dense-master-48k-24', description: 'dense music master with no quiet passage (music over a loud bed), peak -1 dBFS, 48 kHz 24-bit stereo', slice: true, make: () => ({ channels: denseMasterTake(12, 48000, -1, 12), sampleRate: 48000, coding: 'pcm24' }) },
+  { id: 'full-band-master-48k-24', description: 'full-band electronic master (music-like with digital white-noise hi-hats, no low-pass), peak -1 dBFS, 48 kHz 24-bit stereo', slice: true, make: () => ({ channels: fullBandMasterTake(10, 48000, -1, 15), sampleRate: 48000, coding: 'pcm24' }) },
+  { id: 'sweep-48k-24', description: 'sine sweep 20 Hz - 20 kHz (sox) at -12 dBFS over room tone, 48 kHz 24-bit mono', slice: true, make: () => mono(sweepTake(20, 48000, -12, 13), 48000, 'pcm24') },
+  { id: 'tone-only-48k-24', description: '997 Hz line-up tone at -18 dBFS only, 10 s over room tone at -80 dBFS, 48 kHz 24-bit mono', slice: true, make: () => mono(mixInto(sine(997, dbToAmplitude(-18), 10, 48000), roomTone(480000, 48000, -80, 14)), 48000, 'pcm24') },
   { id: 'tone-then-speech-48k-24', description: '997 Hz line-up tone at -18 dBFS for 3 s, then speech, 48 kHz 24-bit mono', slice: false, make: () => mono(toneThen(speech(1, 2, 48000, -8), 48000, 3), 48000, 'pcm24') },
 ];
 

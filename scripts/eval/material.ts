@@ -180,3 +180,40 @@ export function musicTake(seconds: number, sampleRate: number, peakDbfs: number,
 export function noiseTake(seconds: number, sampleRate: number, channels: number, levelDbfs: number, seed: number): Float64Array[] {
   return Array.from({ length: channels }, (_, c) => roomTone(Math.round(seconds * sampleRate), sampleRate, levelDbfs, seed + c));
 }
+
+/**
+ * A dense master that never falls quiet: the music-like material over a loud sustained bed (pink-ish
+ * noise 14 dB under the peak level, like a pad, cymbals and reverb), squashed by sox's compander.
+ */
+export function denseMasterTake(seconds: number, sampleRate: number, peakDbfs: number, seed: number): Float64Array[] {
+  const music = musicTake(seconds, sampleRate, -6, seed);
+  const bed = music.map((channel, c) => roomTone(channel.length, sampleRate, -20, seed + 40 + c));
+  const mixed = music.map((channel, c) => mixInto(channel.slice(), bed[c]));
+  const peak = Math.max(...mixed.map((channel) => channel.reduce((p, x) => Math.max(p, Math.abs(x)), 0)));
+  return mixed.map((channel) => channel.map((x) => (x * dbToGain(peakDbfs)) / peak));
+}
+
+/**
+ * A full-band electronic master: the music-like material with digitally made hi-hats (white-noise bursts
+ * decaying over 60 ms, every 125 ms, with no low-pass), so the content runs right up to Nyquist.
+ */
+export function fullBandMasterTake(seconds: number, sampleRate: number, peakDbfs: number, seed: number): Float64Array[] {
+  const random = seededRandom(seed);
+  const music = musicTake(seconds, sampleRate, -6, seed);
+  const step = Math.round(0.125 * sampleRate);
+  const decay = Math.exp(-1 / (0.015 * sampleRate));
+  const hats = new Float64Array(music[0].length);
+  for (let start = 0; start < hats.length; start += step) {
+    let envelope = 0.25 * (0.5 + random());
+    for (let i = start; i < Math.min(hats.length, start + step); i++, envelope *= decay) hats[i] = envelope * (2 * random() - 1);
+  }
+  const mixed = music.map((channel, c) => mixInto(channel.slice(), hats, c === 0 ? 1 : 0.8));
+  const peak = Math.max(...mixed.map((channel) => channel.reduce((p, x) => Math.max(p, Math.abs(x)), 0)));
+  return mixed.map((channel) => channel.map((x) => (x * dbToGain(peakDbfs)) / peak));
+}
+
+/** A sine sweep (sox `synth sine 20-20000`, the form that dwells longest at the bottom) at `peakDbfs`, over room tone. */
+export function sweepTake(seconds: number, sampleRate: number, peakDbfs: number, seed: number): Float64Array {
+  const sweep = synthesise(seconds, ['sine', '20-20000'], sampleRate, 1, ['gain', '-n', String(peakDbfs)])[0];
+  return mixInto(sweep, roomTone(sweep.length, sampleRate, -75, seed));
+}

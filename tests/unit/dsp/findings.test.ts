@@ -161,6 +161,22 @@ describe('judgeReport', () => {
     const findings = judge((r) => (r.tone = { startSec: 0, endSec: 10, frequencyHz: 918.8, levelDbfs: -18, sinadDb: 80, thdnDb: -80, enobBits: 16, likelyRecordedRate: 44100 }));
     expect(only(findings, 'tone')[0].severity).toBe('info');
     expect(only(findings, 'sample-rate')[0].message).toMatch(/recorded at 44.1 kHz and is labelled 48 kHz/);
+    // The take plays at the wrong speed and pitch: a failure by default [common practice].
+    expect(only(findings, 'sample-rate')[0].severity).toBe('fail');
+  });
+
+  it('noise-floor: a low signal-to-noise ratio warns under 25 dB and fails under 15 dB (engine defaults [common practice])', () => {
+    expect(only(judge((r) => (r.noise.snrDb = 40)), 'noise-floor')).toEqual([]);
+    expect(only(judge((r) => (r.noise.snrDb = 20)), 'noise-floor')[0]).toMatchObject({ severity: 'warn', message: expect.stringMatching(/only 20.0 dB over the noise floor/) });
+    expect(only(judge((r) => (r.noise.snrDb = 8.6)), 'noise-floor')[0].severity).toBe('fail');
+  });
+
+  it('loudness: names the line-up tone left out of the measurement', () => {
+    const findings = judge((r) => {
+      r.loudness.integratedLufs = -30;
+      r.loudness.leftOut = { startSec: 0, endSec: 30 };
+    });
+    expect(only(findings, 'loudness')[0].message).toMatch(/line-up tone from 0:00.0 to 0:30.0 left out/);
   });
 
   it('re-judges a stored report under a different spec without the audio', () => {

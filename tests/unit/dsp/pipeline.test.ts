@@ -66,8 +66,8 @@ describe('cross-checks on 40 s of programme-like material against ffmpeg and sox
     expect(report.file.layout).toBe('stereo');
     expect(report.channels.map((channel) => channel.name)).toEqual(['L', 'R']);
     expect(Object.keys(report.loudness)).toEqual(expect.arrayContaining(['integratedLufs', 'rangeLu', 'momentaryMaxLufs', 'shortTermMaxLufs']));
-    expect(Object.keys(report.bandwidth)).toEqual(expect.arrayContaining(['effectiveHz', 'impliedSourceRate', 'nearNyquistDb', 'aliasingRisk']));
-    expect(Object.keys(report.noise).sort()).toEqual(['floorDbfs', 'humHz']);
+    expect(Object.keys(report.bandwidth)).toEqual(expect.arrayContaining(['effectiveHz', 'impliedSourceRate', 'nearNyquistDb', 'aliasingRisk', 'peakHz']));
+    expect(Object.keys(report.noise).sort()).toEqual(['basis', 'floorDbfs', 'humHz', 'snrDb']);
     expect(report.resolution.effectiveBits).toBe(24);
     expect(report.bext).toBeNull();
     expect(report.stereo).not.toBeNull();
@@ -95,6 +95,33 @@ describe('effective bits against sox', () => {
   });
 });
 
+describe('line-up tone and loudness (EBU R 128 measures the programme, not the line-up tone)', () => {
+  it('leaves the tone out of integrated loudness, range, maxima and series, and says which stretch', async () => {
+    // 3 s of 997 Hz at -9 dBFS (far louder than the programme), then 30 s of programme-like material.
+    const programmeOnly = programme(30, 11);
+    const tone = sine(997, 10 ** (-9 / 20), 3, RATE);
+    const withTone = programmeOnly.map((channel) => concat(tone, channel));
+    const layout = { sampleRate: RATE, channels: 2, coding: 'pcm24' } as const;
+    const programmePath = temp.write('programme-only.wav', wavFile(layout, encodeSamples(programmeOnly, 'pcm24')));
+    const report = await analyzeFile(temp.write('tone-then-programme.wav', wavFile(layout, encodeSamples(withTone, 'pcm24'))));
+    expect(report.tone).not.toBeNull();
+    expect(report.loudness.leftOut).toEqual({ startSec: report.tone!.startSec, endSec: report.tone!.endSec });
+    expect(report.loudness.leftOut!.startSec).toBeLessThan(0.01);
+    expect(Math.abs(report.loudness.leftOut!.endSec - 3)).toBeLessThan(0.01);
+    // ffmpeg's ebur128 on the programme alone is the outside reference (it prints one decimal: 0.15 LU).
+    const reference = ffmpegEbur128(programmePath);
+    expect(Math.abs(report.loudness.integratedLufs! - reference.integratedLufs)).toBeLessThanOrEqual(0.15);
+    expect(Math.abs(report.loudness.rangeLu! - reference.rangeLu)).toBeLessThanOrEqual(1);
+    // The tone's own momentary loudness (about -12 LUFS) is not the maximum; no series point covers it.
+    const alone = new LoudnessAnalyzer(formatOf(RATE, 2));
+    alone.push({ channels: programmeOnly, frames: programmeOnly[0].length, startFrame: 0 });
+    const programmeFigures = alone.finish();
+    expect(report.loudness.momentaryMaxLufs!).toBeLessThanOrEqual(programmeFigures.momentaryMaxLufs! + 0.05);
+    expect(report.loudness.shortTermMaxLufs!).toBeLessThanOrEqual(programmeFigures.shortTermMaxLufs! + 0.05);
+    expect(report.loudness.shortTermSeries!.values.slice(0, 5).every((value) => value === null)).toBe(true);
+  });
+});
+
 describe('report details', () => {
   it('a mono take has no stereo section; noise-limited bits follow the floor', async () => {
     // A tone over noise at -80 dBFS RMS, so the quiet stretches have a floor to measure.
@@ -106,6 +133,8 @@ describe('report details', () => {
     expect(report.noise.floorDbfs).not.toBeNull();
     // Ideal quantiser noise: -6.02·N - 4.77 dBFS (square-wave reference) -> N = (-floor - 4.77)/6.02.
     expect(report.resolution.noiseLimitedBits).toBeCloseTo((-report.noise.floorDbfs! - 4.77) / 6.02, 1);
+    // The long-term spectrum's strongest line is carried into the report: the 997 Hz tone.
+    expect(Math.abs(report.bandwidth.peakHz! - 997)).toBeLessThan(1);
   });
 
   it('a truncated take is analysed and the findings carry a container problem', async () => {

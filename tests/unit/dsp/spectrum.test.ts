@@ -58,6 +58,34 @@ describe('SpectrumAnalyzer: usable bandwidth', () => {
     expect(r.aliasingRisk).toBe(false);
   });
 
+  it('claims 44.1 kHz for noise sox converted from 44.1 to 48 kHz, and 22.05 kHz for noise from 22.05 kHz', () => {
+    // sox's default rate keeps 95 % of the old band: −3 dB at about 20.95 kHz, nothing past 22.05 kHz [common practice].
+    const from44 = generateWithTool('sox', (out) => ['-r', '44100', '-n', '-b', '24', out, 'synth', '4', 'whitenoise', 'gain', '-10', 'rate', '48000']);
+    const r44 = analyse(from44.channels);
+    expect(r44.effectiveHz).toBeGreaterThan(20000);
+    expect(r44.effectiveHz).toBeLessThan(22050);
+    expect(r44.impliedSourceRate).toBe(44100);
+    const from22 = generateWithTool('sox', (out) => ['-r', '22050', '-n', '-b', '24', out, 'synth', '4', 'pinknoise', 'gain', '-10', 'rate', '48000']);
+    expect(analyse(from22.channels).impliedSourceRate).toBe(22050);
+  });
+
+  it('claims no source rate for native 48 kHz content flat within 6 dB from 12 to 21.5 kHz (its own converter\'s cut-off)', () => {
+    // Converter pass bands end at about 0.45 fs (21.6 kHz at 48 kHz) [common practice]: sox's low-pass at 22 kHz stands in for one.
+    const native = generateWithTool('sox', (out) => ['-n', '-r', '48000', '-b', '24', out, 'synth', '4', 'whitenoise', 'gain', '-10', 'sinc', '-22000']);
+    const r = analyse(native.channels);
+    const flat = r.spectrum.db.filter((_, i) => r.spectrum.hz[i] >= 12000 && r.spectrum.hz[i] <= 21500);
+    expect(Math.max(...flat) - Math.min(...flat)).toBeLessThan(6);
+    expect(r.impliedSourceRate).toBeNull();
+    expect(r.effectiveHz).toBeGreaterThan(21500);
+  });
+
+  it('makes no bandwidth claim on a tone-only take (no broadband content)', () => {
+    const r = analyse([addInto(sine(FS * 4, FS, 1000, 0.125), whiteNoise(FS * 4, 1e-5, 3))]);
+    expect(r.effectiveHz).toBeNull();
+    expect(r.impliedSourceRate).toBeNull();
+    expect(r.aliasingRisk).toBe(false);
+  });
+
   it('finds the cut-off of 16 kHz noise up-sampled by ffmpeg\'s default (soft) resampler: below 8 kHz, source rate 16000', () => {
     // ffmpeg's default low-pass lets the band edge run on past 8 kHz; its half-power point stays below it.
     const fx = generateWithTool('ffmpeg', (out) => [

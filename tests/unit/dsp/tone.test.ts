@@ -65,6 +65,30 @@ describe('ToneAnalyzer: SINAD and ENOB (IEEE Std 1241 definitions [from memory])
   });
 });
 
+describe('ToneAnalyzer: what is not a measurable line-up tone', () => {
+  it('caps SINAD and ENOB of an fs/4 sine in a 24-bit file at the container limit, and says so', () => {
+    // 12 kHz at 48 kHz lands on the same four codes every period: the fit leaves no residual at all.
+    // The ideal N-bit quantiser's limit (IEEE 1241; 6.02·N + 1.76 dB for a full-scale sine) is the most
+    // such a file can show: 146.09 dB + 20·log10(0.5) = 140.07 dB, ENOB 24.
+    const x = quantise(sine(FS * 3, FS, 12000, 0.5, 0.4), 24);
+    const r = analyse([x])!;
+    expect(r.limitedByContainer).toBe(true);
+    expect(Math.abs(r.sinadDb - (6.0206 * 24 + 1.7609 + 20 * Math.log10(0.5)))).toBeLessThan(0.05);
+    expect(r.enobBits).toBeLessThanOrEqual(24);
+    expect(Math.abs(r.enobBits - 24)).toBeLessThan(0.02);
+    // A 997 Hz tone with real noise is measured, not capped.
+    expect(analyse([quantise(sine(FS * 3, FS, 997, 0.5, 0.1), 16)])!.limitedByContainer).toBe(false);
+  });
+
+  it('reports no tone on sox sine sweeps from 20 Hz to 20 kHz (a Debian reference tool), at 48 and 44.1 kHz', () => {
+    // The slow start of the 20-20000 sweep looks steady for about 2 s: fitted as one sine it leaves a SINAD near -13 dB.
+    for (const [rate, sweep] of [[48000, '20-20000'], [44100, '20-20000'], [48000, '20:20000']] as const) {
+      const fx = generateWithTool('sox', (out) => ['-n', '-r', String(rate), '-b', '24', out, 'synth', '20', 'sine', sweep, 'vol', '0.5']);
+      expect(analyse(fx.channels, rate)).toBeNull();
+    }
+  });
+});
+
 describe('ToneAnalyzer: finding the tone', () => {
   it('finds a 1 kHz −18 dBFS line-up tone at the start followed by programme', () => {
     const amp = 10 ** (-18 / 20);

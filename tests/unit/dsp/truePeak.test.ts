@@ -15,16 +15,27 @@ const expectTruePeak = (measured: number, expected: number) => {
 };
 
 describe('interpolation filter', () => {
-  // BS.1770-4 Annex 2 table: phase 3 is phase 0 reversed, phase 2 is phase 1 reversed;
-  // phase sums (DC gains) 1.00159 and 0.97302 (computed from the published taps).
-  it('has the structure and DC gains of the Annex 2 table', () => {
+  // Kaiser-windowed sinc (Oppenheim & Schafer's window method): phase 3 is phase 0 reversed,
+  // phase 2 is phase 1 reversed, and each phase has unity DC gain.
+  it('has mirrored phases of unity DC gain', () => {
     expect(Array.from(TRUE_PEAK_PHASES[3])).toEqual(Array.from(TRUE_PEAK_PHASES[0]).reverse());
     expect(Array.from(TRUE_PEAK_PHASES[2])).toEqual(Array.from(TRUE_PEAK_PHASES[1]).reverse());
-    const sum = (phase: Float64Array) => phase.reduce((a, b) => a + b, 0);
-    expect(sum(TRUE_PEAK_PHASES[0])).toBeCloseTo(1.00159, 5);
-    expect(sum(TRUE_PEAK_PHASES[1])).toBeCloseTo(0.97302, 5);
-    expect(TRUE_PEAK_PHASES[0][6]).toBe(0.97216796875);
-    expect(TRUE_PEAK_PHASES[1][0]).toBe(-0.0291748046875);
+    for (const phase of TRUE_PEAK_PHASES) expect(phase.reduce((a, b) => a + b, 0)).toBeCloseTo(1, 12);
+  });
+
+  it('passes every frequency up to 20 kHz at 48 kHz within 0.02 dB in every phase (DTFT of the taps)', () => {
+    for (let frequency = 0; frequency <= 20000; frequency += 100) {
+      const omega = (2 * Math.PI * frequency) / RATE;
+      for (const phase of TRUE_PEAK_PHASES) {
+        let re = 0;
+        let im = 0;
+        phase.forEach((tap, k) => {
+          re += tap * Math.cos(omega * k);
+          im -= tap * Math.sin(omega * k);
+        });
+        expect(Math.abs(10 * Math.log10(re * re + im * im))).toBeLessThan(0.02);
+      }
+    }
   });
 });
 
@@ -90,15 +101,16 @@ describe('EBU Tech 3341 true-peak cases (Table 1), tolerance +0.2/-0.4 dB', () =
 });
 
 describe('bound skipping', () => {
-  /** The Annex 2 interpolation computed on every sample, no shortcut. */
+  /** The same 4x interpolation computed on every sample, no shortcut. */
   function bruteForce(signal: Float64Array): number {
     let peak = 0;
-    const padded = new Float64Array(signal.length + 22);
-    padded.set(signal, 11);
-    for (let n = 11; n < padded.length; n++) {
+    const taps = TRUE_PEAK_PHASES[0].length;
+    const padded = new Float64Array(signal.length + 2 * (taps - 1));
+    padded.set(signal, taps - 1);
+    for (let n = taps - 1; n < padded.length; n++) {
       for (const phase of TRUE_PEAK_PHASES) {
         let sum = 0;
-        for (let k = 0; k < 12; k++) sum += phase[k] * padded[n - k];
+        for (let k = 0; k < taps; k++) sum += phase[k] * padded[n - k];
         peak = Math.max(peak, Math.abs(sum));
       }
       peak = Math.max(peak, Math.abs(padded[n]));
@@ -106,7 +118,9 @@ describe('bound skipping', () => {
     return peak;
   }
 
-  it('gives exactly the brute-force result on programme-like and bursty signals, for any block size', () => {
+  // The analyzer folds the mirrored phases (fewer multiplications), so the sums differ from the
+  // brute force's only by rounding: no skipped window may have held the peak.
+  it('gives the brute-force result (to rounding) on programme-like and bursty signals, for any block size', () => {
     const random = seededRandom(7);
     const signal = new Float64Array(200_000);
     for (let n = 0; n < signal.length; n++) {
@@ -116,7 +130,7 @@ describe('bound skipping', () => {
     const expected = bruteForce(signal);
     for (const blockSizes of [[65536], [1, 2, 3, 1000], [777]]) {
       const measured = runAnalyzer(new TruePeakAnalyzer(formatOf(RATE, 1)), [signal], blockSizes).channelTruePeaks[0];
-      expect(measured).toBe(expected);
+      expect(Math.abs(measured - expected)).toBeLessThanOrEqual(1e-12 * expected);
     }
   });
 
