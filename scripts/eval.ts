@@ -11,7 +11,8 @@ import { join } from 'node:path';
 import { analyzeFile } from '../dsp/pipeline';
 import type { AnalysisReport } from '../dsp/types';
 import { buildTake } from './eval/build';
-import { ALL_TAKES, type EvalTake } from './eval/corpus';
+import { ALL_TAKES } from './eval/allTakes';
+import type { EvalTake } from './eval/corpus';
 import { faultFound, falseAlarms, otherAlarms, rowOf } from './eval/score';
 
 /** Rows of the table, each with the source of its check. */
