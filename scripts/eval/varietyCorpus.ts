@@ -40,17 +40,22 @@ function phoneIn(): TakeAudio {
   return take([left, right], 48000, 'pcm24');
 }
 
-/** A drama mix in 5.1 (mask with side surrounds, 0x60F): dialogue in C, a music bed in L/R, ambience in Ls/Rs, LFE from the bed. */
-function dramaSurround(): TakeAudio {
+/** A drama mix in 5.1 (mask with side surrounds, 0x60F): dialogue in C, a music bed in L/R, ambience in Ls/Rs at `atmosDbfs` RMS, LFE from the bed. */
+function dramaSurround(atmosDbfs = -46): TakeAudio {
   const dialogue = voiceForMix(3, 48000, -6, 231);
   const seconds = dialogue.length / 48000;
   const [l, r] = pieceTake({ seconds, sampleRate: 48000, channels: 2, peakDbfs: -16, seed: 232, instrument: 'sine', beatSec: 1.2, reverbPercent: 80, roomToneDbfs: -80 });
   const c = mixInto(dialogue.slice(), roomTone(dialogue.length, 48000, -72, 233));
-  const [ls, rs] = noiseTake(seconds, 48000, 2, -46, 234);
+  const [ls, rs] = noiseTake(seconds, 48000, 2, atmosDbfs, 234);
   const lfe = l.map((x, i) => 0.5 * (x + r[i]));
   const pole = Math.exp((-2 * Math.PI * 120) / 48000);
   for (let i = 1; i < lfe.length; i++) lfe[i] = pole * lfe[i - 1] + (1 - pole) * lfe[i];
   return { channels: [l, r, c, lfe, ls, rs], sampleRate: 48000, coding: 'float32', extensibleMask: 0x60f };
+}
+
+/** A field recorder's stereo mode: a spaced pair on a conversation, its two tracks named MixL and MixR in iXML. */
+function recorderStereo(): TakeAudio {
+  return { ...take(twoMicTake(7, 0, 48000, -6, -8, 0.0015, 271), 48000, 'pcm24'), trackNames: ['MixL', 'MixR'] };
 }
 
 /** Location poly: mix L/R, boom, plant mic, three lavaliers (the third on a silent actor, hearing the others), a spare at digital zero. */
@@ -89,6 +94,8 @@ export const VARIETY_CLEAN_TAKES: EvalTake[] = [
   { id: 'room-tone-96k-float', description: 'room tone only, -68 dBFS RMS, 96 kHz float mono', slice: false, make: () => mono(roomTone(96000 * 10, 96000, -68, 251), 96000, 'float32') },
   { id: 'room-tone-44k-16', description: 'room tone only, -74 dBFS RMS, 44.1 kHz 16-bit stereo (two independent microphones)', slice: false, make: () => take([roomTone(441000, 44100, -74, 252), roomTone(441000, 44100, -73, 253)], 44100, 'pcm16') },
   { id: 'surround-drama-5.1-48k-float', description: 'drama mix: dialogue in C, music bed L/R, ambience Ls/Rs, LFE from the bed, mask 0x60F, 48 kHz float', slice: false, make: dramaSurround },
+  { id: 'surround-drama-quiet-atmos-48k-float', description: 'drama 5.1 whose surrounds carry only a quiet atmosphere at -58 dBFS RMS (40 dB under the dialogue)', slice: true, make: () => dramaSurround(-58) },
+  { id: 'recorder-stereo-ixml-48k-24', description: 'field recorder stereo: a spaced pair (bleed -8 dB at 1.5 ms), tracks named MixL/MixR in iXML, 48 kHz 24-bit', slice: false, make: recorderStereo },
   { id: 'location-poly-8-48k-24', description: 'location poly: mix L/R, boom, plant, three lavaliers (one on a silent actor), a spare at zero, iXML names, 48 kHz 24-bit', slice: true, make: locationPoly },
 ];
 
@@ -127,6 +134,12 @@ export const VARIETY_FAULT_TAKES: EvalTake[] = [
     make: () => { const channels = piece({ sampleRate: 44100, instrument: 'sine', beatSec: 1.5, reverbPercent: 85, peakDbfs: -2, compand: BUS_COMPAND, seed: 32 }); channels[0].fill(0); return take(channels, 44100, 'pcm16'); } },
   { id: 'dead-zero-surround-c', row: 'dead channel (digital zero)', description: 'drama 5.1 with the dialogue channel (C) at digital zero', slice: false, expect: { checks: ['silent-channel'], channel: 2 },
     make: () => { const audio = dramaSurround(); audio.channels[2].fill(0); return audio; } },
+  { id: 'dead-zero-recorder-stereo-right', row: 'dead channel (digital zero)', description: 'field recorder stereo (iXML MixL/MixR) with the right track at digital zero', slice: true, expect: { checks: ['silent-channel'], channel: 1 },
+    make: () => { const audio = recorderStereo(); audio.channels[1].fill(0); return audio; } },
+  { id: 'polarity-recorder-stereo-right', row: 'polarity inversion', description: 'field recorder stereo (iXML MixL/MixR), right track polarity-inverted', slice: false, expect: { checks: ['stereo'] },
+    make: () => { const audio = recorderStereo(); fault.invert(audio.channels[1]); return audio; } },
+  { id: 'dead-hiss-60-surround-c', row: 'dead channel (open-input hiss)', description: 'drama 5.1 with the dialogue channel (C) only hiss at -60 dBFS RMS (an open input at high gain)', slice: false, expect: { checks: ['silent-channel'], channel: 2 },
+    make: () => { const audio = dramaSurround(); audio.channels[2] = fault.openInputHiss(audio.channels[2].length, -60, 313); return audio; } },
   { id: 'dead-hiss-90-conversation-right', row: 'dead channel (open-input hiss)', description: 'two-mic conversation, right microphone only an open input\'s hiss at -90 dBFS RMS, 44.1 kHz 16-bit', slice: true, expect: { checks: ['silent-channel'], channel: 1 },
     make: () => { const channels = twoMicTake(4, 1, 44100, -6, -12, 0.002, 212); channels[1] = fault.openInputHiss(channels[1].length, -90, 311); return take(channels, 44100, 'pcm16'); } },
   { id: 'dead-hiss-90-surround-rs', row: 'dead channel (open-input hiss)', description: 'drama 5.1 with Rs only hiss at -90 dBFS RMS', slice: false, expect: { checks: ['silent-channel'], channel: 5 },
