@@ -159,15 +159,21 @@ export class PolarityTracker {
       // The inverse transform divides by N and sums both halves of the spectrum: scale back to a mean over the band.
       const scale = bins > 0 ? this.size / (2 * bins) : 0;
       let peak = 0;
+      let peakLag = 0;
       for (let lag = -this.maxLag; lag <= this.maxLag; lag++) {
         const value = this.correlation[2 * ((lag + this.size) % this.size)] * scale;
-        if (Math.abs(value) > Math.abs(peak)) peak = value;
+        if (Math.abs(value) > Math.abs(peak)) {
+          peak = value;
+          peakLag = lag;
+        }
       }
-      if (peak >= MIN_PEAK) this.verdict.inPolaritySegments++;
-      else if (peak <= -MIN_PEAK) {
-        this.verdict.invertedSegments++;
-        this.verdict.invertedFromSec ??= this.segmentStartFrame / this.sampleRate;
-        this.verdict.invertedToSec = this.framesSeen / this.sampleRate;
+      // The weighted peak finds the delay and shows there is common sound; the sign is that of the plain
+      // (power-weighted) cross-correlation at that delay, which is what a mono sum hears: a widened mix
+      // puts its side content in anti-phase across many bins while its loud centre (bass, voice) stays in phase.
+      const sign = Math.sign(this.crossCorrelationAt(peakLag));
+      if (peak >= MIN_PEAK || peak <= -MIN_PEAK) {
+        if (sign > 0) this.verdict.inPolaritySegments++;
+        else if (sign < 0) this.markInverted();
       }
     }
     this.crossRe.fill(0);
@@ -177,6 +183,22 @@ export class PolarityTracker {
     this.framesInSegment = 0;
     this.audibleFrames = 0;
     this.segmentStartFrame = this.framesSeen;
+  }
+
+  /** Plain cross-correlation of the segment over the band at one lag: the real part of the sum of S_LR·e^{iω_k·lag}. */
+  private crossCorrelationAt(lag: number): number {
+    let sum = 0;
+    for (let k = this.firstBin; k <= this.lastBin; k++) {
+      const angle = (2 * Math.PI * k * lag) / this.size;
+      sum += this.crossRe[k] * Math.cos(angle) - this.crossIm[k] * Math.sin(angle);
+    }
+    return sum;
+  }
+
+  private markInverted(): void {
+    this.verdict.invertedSegments++;
+    this.verdict.invertedFromSec ??= this.segmentStartFrame / this.sampleRate;
+    this.verdict.invertedToSec = this.framesSeen / this.sampleRate;
   }
 
   finish(): PolarityVerdict {

@@ -143,3 +143,9 @@ export function voiceForMix(index: number, sampleRate: number, peakDbfs: number,
   const speech = speak(SPOKEN_LINES[index].line, SPOKEN_LINES[index].voice, sampleRate, peakDbfs);
   return mixInto(speech.slice(), airBand(speech, sampleRate, -18, seed));
 }
+
+/** A stereo widener: L' = M + w·S, R' = M - w·S, then levelled back to `peakDbfs` (side content of panned sources comes out in anti-phase). */
+export function widen([left, right]: Float64Array[], width: number, peakDbfs: number): Float64Array[] {
+  const out = [left.map((x, i) => (x + right[i]) / 2 + (width * (x - right[i])) / 2), left.map((x, i) => (x + right[i]) / 2 - (width * (x - right[i])) / 2)];
+  return normalisePeak(out, peakDbfs);
+}
