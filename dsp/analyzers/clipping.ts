@@ -46,9 +46,11 @@ const PLATEAU_RATIO = 1.5;
  */
 const PLATEAU_PILE_UP = 1;
 const MIN_PLATEAU_SHARE = 0.25;
-/** Plateaus whose lengths spread less than this (relative) and that rise within this many samples come from a synthesiser [common practice]. */
-const SQUARE_LENGTH_SPREAD = 0.05;
+/** Plateaus of one note whose lengths spread less than this (relative; its first and last cycles may be cut short) and that rise within this many samples come from a synthesiser [common practice]. */
+const SQUARE_LENGTH_SPREAD = 0.15;
 const SQUARE_RISE_FRAMES = 3;
+/** Share of the plateaus that must lie in notes of even plateau lengths for a synthesiser [common practice]. */
+const SQUARE_NOTE_SHARE = 0.9;
 /** Longest half-cycle examined for a plateau, samples (about 85 ms at 96 kHz: lower than any voice). */
 const MAX_HALF_CYCLE = 8192;
 /** Merged groups kept per channel and kind; clean audio has a handful. */
@@ -328,15 +330,21 @@ export class ClippingAnalyzer implements Analyzer<ClippingResult> {
   }
 
   /**
-   * A synthesiser's square or trapezium wave: plateaus of one length, reached in a sample or two. A
-   * clipped voice or instrument makes plateaus of many lengths, entered along its own waveform.
+   * A synthesiser's square or trapezium wave: within each note (a group of consecutive plateaus) the
+   * plateaus are of one length, and all are reached in a sample or two. A melody changes the length from
+   * note to note, so the spread is judged note by note. A clipped voice or instrument makes plateaus of
+   * many lengths, entered along its own waveform.
    */
   private static isSynthesisedSquare(cluster: ClipGroup[]): boolean {
     const count = cluster.reduce((sum, group) => sum + group.runs, 0);
-    const mean = cluster.reduce((sum, group) => sum + group.samples, 0) / count;
-    const variance = cluster.reduce((sum, group) => sum + group.squaredLengths, 0) / count - mean * mean;
     const meanRise = cluster.reduce((sum, group) => sum + group.riseFrames, 0) / count;
-    return Math.sqrt(Math.max(0, variance)) <= SQUARE_LENGTH_SPREAD * mean && meanRise <= SQUARE_RISE_FRAMES;
+    if (meanRise > SQUARE_RISE_FRAMES) return false;
+    const evenRuns = cluster.reduce((sum, group) => {
+      const mean = group.samples / group.runs;
+      const spread = Math.sqrt(Math.max(0, group.squaredLengths / group.runs - mean * mean));
+      return sum + (spread <= SQUARE_LENGTH_SPREAD * mean ? group.runs : 0);
+    }, 0);
+    return evenRuns >= SQUARE_NOTE_SHARE * count;
   }
 
   /** Keeps a flat run as a candidate when the signal ran into it faster than a rounded peak can. */

@@ -149,3 +149,11 @@ export function widen([left, right]: Float64Array[], width: number, peakDbfs: nu
   const out = [left.map((x, i) => (x + right[i]) / 2 + (width * (x - right[i])) / 2), left.map((x, i) => (x + right[i]) / 2 - (width * (x - right[i])) / 2)];
   return normalisePeak(out, peakDbfs);
 }
+
+/** A lead line of raw square-wave notes (a chiptune-style sting: no filter), notes at three levels, over room tone. */
+export function squareMelody(notes: number, sampleRate: number, seed: number): Float64Array {
+  const random = seededRandom(seed);
+  const scale = [220, 247, 262, 294, 330, 349, 392, 440];
+  const line = sequence(notes * 0.3, sampleRate, 0.3, () => synthesise(0.3, ['square', String(scale[Math.floor(random() * scale.length)])], sampleRate, 1, ['gain', '-n', String(-6 - Math.floor(3 * random()))])[0]);
+  return mixInto(line, roomTone(line.length, sampleRate, -78, seed));
+}

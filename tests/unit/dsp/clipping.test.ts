@@ -114,6 +114,12 @@ describe('flat tops below full scale (analogue clip, then gain lowered): >= 3 fl
     expect((await clipsOfWav('pcm24', [square])).events).toEqual([]);
   });
 
+  it('a square-wave melody (sox synth square, eight notes at three levels: plateau lengths change from note to note) is not clipping', async () => {
+    const notes = [220, 247, 262, 294, 330, 349, 392, 440];
+    const melody = concat(...Array.from({ length: 24 }, (_, k) => synthesise(0.3, ['square', String(notes[(k * 5) % 8])], RATE, 1, ['gain', '-n', String(-6 - (k % 3))])[0]));
+    expect((await clipsOfWav('pcm24', [melody])).events).toEqual([]);
+  });
+
   describe('rounded peaks of voiced speech are not flat tops (espeak-ng speech, levelled and resampled with sox)', () => {
     // Low voices at high rates put several nearly equal samples on every rounded peak; a narrowband
     // voice converted up is smoother still. Peak levels include -20 dBFS, where flat tops start to be examined.
