@@ -110,6 +110,8 @@ export const VARIETY_FAULT_TAKES: EvalTake[] = [
     make: () => mono(fault.clipBeforeConverter(voice(2, 44100, -10, { lowCutHz: 0 }), 44100, 3, 5, -20, 6, -105, 301), 44100, 'pcm24') },
   { id: 'clip-below-15-es-converter-96k-float', row: 'clipping below full scale', description: 'analogue clip through a 96 kHz converter\'s filter at -15 dBFS, driven 5 dB past, noise -100 dBFS, float, 2-4 s', slice: false, expect: { checks: ['clipping'], channel: 0, fromSec: 2, toSec: 4 },
     make: () => mono(fault.clipBeforeConverter(voice(4, 96000, -10), 96000, 2, 4, -15, 5, -100, 302, true), 96000, 'float32') },
+  { id: 'clip-below-20-es-fast-converter-48k', row: 'clipping below full scale', description: 'analogue clip through a 48 kHz converter\'s filter at -20 dBFS (driven 6 dB past), fast high-formant voice, noise -100 dBFS, 3-5 s', slice: true, expect: { checks: ['clipping'], channel: 0, fromSec: 3, toSec: 5 },
+    make: () => mono(fault.clipBeforeConverter(voice(4, 48000, -10), 48000, 3, 5, -20, 6, -100, 306, true), 48000, 'pcm24') },
   { id: 'clip-below-12-fr-slight-44k-16', row: 'clipping below full scale', description: 'flat tops at -12 dBFS driven only 3 dB past, 16-bit, 4-6 s', slice: false, expect: { checks: ['clipping'], channel: 0, fromSec: 4, toSec: 6 },
     make: () => take([fault.clipBeforeConverter(voice(3, 44100, -10), 44100, 4, 6, -12, 3, -100, 303)], 44100, 'pcm16') },
   { id: 'clip-below-6-piece-right', row: 'clipping below full scale', description: 'plucked piece, right channel clipped at -6 dBFS (driven 5 dB past) through the converter\'s filter, 4-6 s', slice: false, expect: { checks: ['clipping'], channel: 1, fromSec: 4, toSec: 6 },
