@@ -150,10 +150,16 @@ export function widen([left, right]: Float64Array[], width: number, peakDbfs: nu
   return normalisePeak(out, peakDbfs);
 }
 
-/** A lead line of raw square-wave notes (a chiptune-style sting: no filter), notes at three levels, over room tone. */
+/**
+ * A lead line of square-wave notes (a chiptune-style sting), made at four times the rate and converted
+ * down as a soft synth's band-limited oscillator is (a raw square at the take's own rate would alias),
+ * notes at three levels, over room tone.
+ */
 export function squareMelody(notes: number, sampleRate: number, seed: number): Float64Array {
   const random = seededRandom(seed);
   const scale = [220, 247, 262, 294, 330, 349, 392, 440];
-  const line = sequence(notes * 0.3, sampleRate, 0.3, () => synthesise(0.3, ['square', String(scale[Math.floor(random() * scale.length)])], sampleRate, 1, ['gain', '-n', String(-6 - Math.floor(3 * random()))])[0]);
-  return mixInto(line, roomTone(line.length, sampleRate, -78, seed));
+  const synthRate = 4 * sampleRate;
+  const line = sequence(notes * 0.3, synthRate, 0.3, () => synthesise(0.3, ['square', String(scale[Math.floor(random() * scale.length)])], synthRate, 1, ['gain', '-n', String(-6 - Math.floor(3 * random()))])[0]);
+  const down = resample(line, synthRate, sampleRate);
+  return mixInto(down, roomTone(down.length, sampleRate, -78, seed));
 }
