@@ -24,7 +24,7 @@ const ROWS: [string, string][] = [
   ['DC offset', 'mean of the quiet windows [common practice]'],
   ['dead channel (digital zero)', 'EBU QC silence item; level [common practice]'],
   ['dead channel (open-input hiss)', 'steady noise, no programme; white hiss beside programme [common practice]'],
-  ['polarity inversion', 'delay by coherence-weighted cross-correlation (Carter 1973), sign by plain cross-correlation [common practice]'],
+  ['polarity inversion', 'coherence-weighted cross-correlation (Carter 1973); a coincident centre in phase wins [common practice]'],
   ['hum under speech', 'mains harmonics over the floor [common practice]'],
   ['low bandwidth / upsampled', 'spectral cut-off vs declared rate [common practice]'],
   ['16-bit audio in a 24-bit file', 'unused low bits (WAVEFORMATEXTENSIBLE)'],

@@ -3,6 +3,8 @@ import { hannWindow } from './formatGuard';
 
 /** Longest delay between two channels looked at, seconds: about 3.4 m of path difference [common practice: spaced pairs, bleed between mics]. */
 const MAX_LAG_SEC = 0.01;
+/** Delays up to this are coincident sound (one mix, or a coincident microphone pair), seconds [common practice]. */
+const COINCIDENT_LAG_SEC = 0.001;
 /** Cross-spectra are summed over segments of this length, and each segment votes, seconds. */
 const SEGMENT_SEC = 5;
 /** Every FRAME_STRIDE-th frame is compared (about 1.3 s of each 5 s segment at 48 kHz): enough for the estimate, a quarter of the work. */
@@ -42,6 +44,7 @@ export class PolarityTracker {
   private readonly fft: FFT;
   private readonly window: Float64Array;
   private readonly maxLag: number;
+  private readonly coincidentLag: number;
   private readonly firstBin: number;
   private readonly lastBin: number;
   private readonly framesPerSegment: number;
@@ -68,6 +71,7 @@ export class PolarityTracker {
   constructor(sampleRate: number) {
     this.sampleRate = sampleRate;
     this.maxLag = Math.round(MAX_LAG_SEC * sampleRate);
+    this.coincidentLag = Math.round(COINCIDENT_LAG_SEC * sampleRate);
     let size = 1024;
     while (size < 8 * this.maxLag) size *= 2;
     this.size = size;
@@ -167,13 +171,14 @@ export class PolarityTracker {
           peakLag = lag;
         }
       }
-      // The weighted peak finds the delay and shows there is common sound; the sign is that of the plain
-      // (power-weighted) cross-correlation at that delay, which is what a mono sum hears: a widened mix
-      // puts its side content in anti-phase across many bins while its loud centre (bass, voice) stays in phase.
-      const sign = Math.sign(this.crossCorrelationAt(peakLag));
-      if (peak >= MIN_PEAK || peak <= -MIN_PEAK) {
-        if (sign > 0) this.verdict.inPolaritySegments++;
-        else if (sign < 0) this.markInverted();
+      if (peak >= MIN_PEAK) this.verdict.inPolaritySegments++;
+      else if (peak <= -MIN_PEAK) {
+        // Coincident sound (a mix, a coincident pair) whose plain, power-weighted cross-correlation is in
+        // phase: a widened mix, whose side content is in anti-phase across many bins while its louder
+        // centre (bass, voice) stays in phase and the mono sum keeps its level. Not a channel wired inverted.
+        const widenedMix = Math.abs(peakLag) <= this.coincidentLag && this.crossCorrelationAt(peakLag) > 0;
+        if (widenedMix) this.verdict.inPolaritySegments++;
+        else this.markInverted();
       }
     }
     this.crossRe.fill(0);

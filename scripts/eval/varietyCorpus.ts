@@ -2,7 +2,7 @@ import type { SampleCoding } from '../../tests/support/wavWriter';
 import { mono, type EvalTake, type TakeAudio } from './corpus';
 import * as fault from './faults';
 import { mixInto, noiseTake, roomTone } from './material';
-import { limitedMaster, narrowbandVoiceTake, pieceTake, squareMelody, twoMicTake, voiceForMix, voiceTake, widen, type PieceOptions } from './varietyMaterial';
+import { limitedMaster, narrowbandVoiceTake, pieceTake, spacedPairTake, squareMelody, twoMicTake, voiceForMix, voiceTake, widen, type PieceOptions } from './varietyMaterial';
 
 /**
  * A second corpus of realistic takes, unlike the first in voices (German, French, Spanish, English
@@ -91,6 +91,7 @@ export const VARIETY_CLEAN_TAKES: EvalTake[] = [
   { id: 'master-limited-44k-16', description: 'loud limited master, peak -1 dBFS, 44.1 kHz 16-bit stereo', slice: false, make: () => take(limitedMaster(12, 44100, -1, 52), 44100, 'pcm16') },
   { id: 'master-widened-48k-24', description: 'limited master through a stereo widener (side +6 dB: panned parts in anti-phase on the far side), peak -1 dBFS, 48 kHz 24-bit', slice: true, make: () => take(widen(limitedMaster(12, 48000, -1, 53), 2, -1), 48000, 'pcm24') },
   { id: 'square-sting-48k-24', description: 'chiptune-style sting: band-limited square-wave notes at -6 to -8 dBFS, 48 kHz 24-bit mono', slice: false, make: () => mono(squareMelody(40, 48000, 61), 48000, 'pcm24') },
+  { id: 'spaced-pair-ensemble-48k-24', description: 'spaced pair on a small ensemble: bass 2 ms early on the left, chords 3 ms and hi-hat 4 ms early on the right, peak -3 dBFS, 48 kHz 24-bit', slice: false, make: () => take(spacedPairTake(16, 48000, -3, 281), 48000, 'pcm24') },
   { id: 'acoustic-quiet-96k-24', description: 'quiet acoustic-like piece (plucked strings, live room), peak -18 dBFS, 96 kHz 24-bit stereo', slice: false, make: () => take(acoustic(96000), 96000, 'pcm24') },
   { id: 'acoustic-quiet-mono-44k-16', description: 'quiet acoustic-like piece, mono, peak -18 dBFS, 44.1 kHz 16-bit', slice: false, make: () => take(piece({ sampleRate: 44100, channels: 1, instrument: 'pluck', beatSec: 0.9, reverbPercent: 70, peakDbfs: -18, roomToneDbfs: -78, seed: 42 }), 44100, 'pcm16') },
   { id: 'room-tone-96k-float', description: 'room tone only, -68 dBFS RMS, 96 kHz float mono', slice: false, make: () => mono(roomTone(96000 * 10, 96000, -68, 251), 96000, 'float32') },
@@ -130,6 +131,8 @@ export const VARIETY_FAULT_TAKES: EvalTake[] = [
     make: () => { const channels = limitedMaster(12, 44100, -1, 52); fault.invert(channels[1]); return take(channels, 44100, 'pcm16'); } },
   { id: 'polarity-master-widened-right', row: 'polarity inversion', description: 'widened limited master (side +6 dB), right channel polarity-inverted', slice: false, expect: { checks: ['stereo'] },
     make: () => { const channels = widen(limitedMaster(12, 48000, -1, 53), 2, -1); fault.invert(channels[1]); return take(channels, 48000, 'pcm24'); } },
+  { id: 'polarity-spaced-pair-right', row: 'polarity inversion', description: 'spaced pair on a small ensemble, right microphone polarity-inverted', slice: false, expect: { checks: ['stereo'] },
+    make: () => { const channels = spacedPairTake(16, 48000, -3, 281); fault.invert(channels[1]); return take(channels, 48000, 'pcm24'); } },
   { id: 'dc-0.2pc-es-44k-16', row: 'DC offset', description: 'steady DC of 0.2 % of full scale in fast Spanish speech, 44.1 kHz 16-bit', slice: true, expect: { checks: ['dc-offset'], channel: 0 },
     make: () => take([fault.dcOffset(voice(4, 44100, -6), 0.002)], 44100, 'pcm16') },
   { id: 'dc-0.2pc-de-flat-mic', row: 'DC offset', description: 'steady DC of 0.2 % in speech from a flat microphone (no low cut), 48 kHz 24-bit', slice: false, expect: { checks: ['dc-offset'], channel: 0 },

@@ -163,3 +163,27 @@ export function squareMelody(notes: number, sampleRate: number, seed: number): F
   const down = resample(line, synthRate, sampleRate);
   return mixInto(down, roomTone(down.length, sampleRate, -78, seed));
 }
+
+/**
+ * A spaced pair (two microphones 1.5 m apart) on a small ensemble: a bass reaching the left microphone
+ * 2 ms early, plucked chords the right one 3 ms early, a hi-hat the right one 4 ms early, through the
+ * converter's band, room tone on each.
+ */
+export function spacedPairTake(seconds: number, sampleRate: number, peakDbfs: number, seed: number): Float64Array[] {
+  const roots = [98, 110, 87.3, 82.4];
+  const bass = sequence(seconds, sampleRate, 1, (beat) => synthesise(1, ['sine', String(roots[beat % roots.length])], sampleRate, 1, ['fade', 'q', '0.01', '1', '0.3', 'gain', '-n', '-6'])[0]);
+  const chords = sequence(seconds, sampleRate, 0.5, (beat) => synthesise(0.5, CHORDS[beat % CHORDS.length].flatMap((f) => ['pluck', String(f)]), sampleRate, 1, ['gain', '-n', '-8'])[0]);
+  const hatHit = synthesise(0.05, ['whitenoise'], sampleRate, 1, ['highpass', '6000', 'fade', 'q', '0.001', '0.05', '0.04', 'gain', '-n', '-20'])[0];
+  const hat = sequence(seconds, sampleRate, 0.25, () => hatHit);
+  const out = [new Float64Array(bass.length), new Float64Array(bass.length)];
+  const place = (signal: Float64Array, leftEarlyMs: number) => {
+    const delay = Math.round((Math.abs(leftEarlyMs) * sampleRate) / 1000);
+    mixInto(out[0], signal, 1, leftEarlyMs > 0 ? 0 : delay);
+    mixInto(out[1], signal, 1, leftEarlyMs > 0 ? delay : 0);
+  };
+  place(bass, 2);
+  place(chords, -3);
+  place(hat, -4);
+  const band = out.map((channel, c) => mixInto(converterBand(channel, sampleRate), roomTone(channel.length, sampleRate, -70, seed + c)));
+  return normalisePeak(band, peakDbfs);
+}

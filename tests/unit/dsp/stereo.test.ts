@@ -137,10 +137,21 @@ describe('polarity of two microphones with bleed between them', () => {
     expect(result.polarity.invertedSegments).toBe(0);
   });
 
-  it('the same widened mix with one channel wired inverted: in opposite polarity', () => {
-    const [left, right] = widenedMix(2);
-    const result = stereoOf(left, right.map((x) => -x));
-    expect(result.polarityInverted).toBe(true);
-    expect(result.polarity.inPolaritySegments).toBe(0);
+  /** A spaced pair: a bass line reaching the left microphone 2.5 ms early, a wideband source the right one 2.5 ms early. */
+  function spacedPair(): [Float64Array, Float64Array] {
+    const bass = sine(98, 0.4, 20, RATE).map((x, i) => x + 0.3 * Math.sin((2 * Math.PI * 147 * i) / RATE));
+    const source = noise(20, 13).map((x) => 0.2 * x);
+    const delay = Math.round(0.0025 * RATE);
+    return [bass.map((x, i) => x + (i >= delay ? source[i - delay] : 0)), bass.map((x, i) => (i >= delay ? bass[i - delay] : 0) + source[i])];
+  }
+
+  it('a spaced pair whose sources arrive 2.5 ms apart each way: in polarity; with one channel inverted: opposite', () => {
+    const [left, right] = spacedPair();
+    const normal = stereoOf(left, right);
+    expect(normal.polarityInverted).toBe(false);
+    expect(normal.polarity.invertedSegments).toBe(0);
+    const inverted = stereoOf(left, right.map((x) => -x));
+    expect(inverted.polarityInverted).toBe(true);
+    expect(inverted.polarity.inPolaritySegments).toBe(0);
   });
 });
