@@ -3,7 +3,8 @@
  * independent iso tracks (poly), and the name of each channel.
  *
  * Poly: an iXML TRACK_LIST (the production-recorder metadata of the iXML specification,
- * gallery.co.uk/ixml), or more than two channels with no loudspeaker layout declared.
+ * gallery.co.uk/ixml), or more than two channels with no loudspeaker layout declared. A two-track
+ * list that names a left and a right feed (a recorder's stereo mix, "L"/"R", "Mix L"/"Mix R") is stereo.
  * Surround: a WAVE_FORMAT_EXTENSIBLE channel mask (Microsoft ksmedia.h speaker bits), or a
  * channel count that only the conventional loudspeaker orders use (5.0, 5.1, 7.1).
  */
@@ -29,6 +30,14 @@ const CONVENTIONAL_ORDERS: Record<number, string[]> = {
   6: ['L', 'R', 'C', 'LFE', 'Ls', 'Rs'],
   8: ['L', 'R', 'C', 'LFE', 'Lb', 'Rb', 'Ls', 'Rs'],
 };
+
+/**
+ * Track names of the left and right feed of one stereo programme, as recorders and mixers name their
+ * mix tracks: L/R, Left/Right, Lt/Rt, optionally after Mix, Main, Master or Stereo ("Mix L", "MixR",
+ * "ST_Left") or before Mix ("L Mix") [common practice].
+ */
+const LEFT_FEED = /^(?:(?:mix|main|master|stereo|st)[\s_-]*)?(?:l|left|lt)(?:[\s_-]*mix)?$/i;
+const RIGHT_FEED = /^(?:(?:mix|main|master|stereo|st)[\s_-]*)?(?:r|right|rt)(?:[\s_-]*mix)?$/i;
 
 /** Longest track name kept, characters. */
 const MAX_NAME_LENGTH = 64;
@@ -94,6 +103,8 @@ export function channelLayout(channels: number, channelMask: number | null, ixml
   const trackNames = channels > 1 ? ixmlTrackNames(ixml, channels) : null;
   const speakers = channelMask ? maskNames(channelMask, channels) : null;
   if (channels === 1) return { layout: 'mono', names: [ixmlTrackNames(ixml, 1)?.[0] ?? null] };
+  const stereoFeeds = channels === 2 && trackNames !== null && LEFT_FEED.test(trackNames[0] ?? '') && RIGHT_FEED.test(trackNames[1] ?? '');
+  if (stereoFeeds) return { layout: 'stereo', names: trackNames };
   if (trackNames && !speakers) return { layout: 'poly', names: trackNames };
   if (speakers) return { layout: channels === 2 ? 'stereo' : 'surround', names: speakers };
   const conventional = CONVENTIONAL_ORDERS[channels];

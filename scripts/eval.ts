@@ -11,7 +11,8 @@ import { join } from 'node:path';
 import { analyzeFile } from '../dsp/pipeline';
 import type { AnalysisReport } from '../dsp/types';
 import { buildTake } from './eval/build';
-import { ALL_TAKES, type EvalTake } from './eval/corpus';
+import { ALL_TAKES } from './eval/allTakes';
+import type { EvalTake } from './eval/corpus';
 import { faultFound, falseAlarms, otherAlarms, rowOf } from './eval/score';
 
 /** Rows of the table, each with the source of its check. */
@@ -22,8 +23,8 @@ const ROWS: [string, string][] = [
   ['dropout', 'digital silence inside programme [common practice]'],
   ['DC offset', 'mean of the quiet windows [common practice]'],
   ['dead channel (digital zero)', 'EBU QC silence item; level [common practice]'],
-  ['dead channel (open-input hiss)', 'steady noise, no programme [common practice]'],
-  ['polarity inversion', 'coherence-weighted cross-correlation (Carter 1973) [common practice]'],
+  ['dead channel (open-input hiss)', 'steady noise, no programme; white hiss beside programme [common practice]'],
+  ['polarity inversion', 'coherence-weighted cross-correlation (Carter 1973); a coincident centre in phase wins [common practice]'],
   ['hum under speech', 'mains harmonics over the floor [common practice]'],
   ['low bandwidth / upsampled', 'spectral cut-off vs declared rate [common practice]'],
   ['16-bit audio in a 24-bit file', 'unused low bits (WAVEFORMATEXTENSIBLE)'],

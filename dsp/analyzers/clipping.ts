@@ -46,9 +46,11 @@ const PLATEAU_RATIO = 1.5;
  */
 const PLATEAU_PILE_UP = 1;
 const MIN_PLATEAU_SHARE = 0.25;
-/** Plateaus whose lengths spread less than this (relative) and that rise within this many samples come from a synthesiser [common practice]. */
+/** Plateaus whose lengths differ from the one before by less than this (relative) and that rise within this many samples come from a synthesiser [common practice]. */
 const SQUARE_LENGTH_SPREAD = 0.05;
 const SQUARE_RISE_FRAMES = 3;
+/** Share of the plateaus as long as the one before them (within SQUARE_LENGTH_SPREAD) for a synthesiser [common practice]. */
+const SQUARE_EVEN_SHARE = 0.9;
 /** Longest half-cycle examined for a plateau, samples (about 85 ms at 96 kHz: lower than any voice). */
 const MAX_HALF_CYCLE = 8192;
 /** Merged groups kept per channel and kind; clean audio has a handful. */
@@ -69,8 +71,9 @@ interface ClipGroup {
   level: number;
   samples: number;
   runs: number;
-  /** Plateaus only: sum of squared run lengths, and of the frames each took to rise from half its level. */
-  squaredLengths: number;
+  /** Plateaus only: the last run's length, how many runs were as long as the run before them, and the frames each took to rise from half its level. */
+  lastLength: number;
+  evenSteps: number;
   riseFrames: number;
 }
 
@@ -307,7 +310,7 @@ export class ClippingAnalyzer implements Analyzer<ClippingResult> {
     while (rise > 0 && magnitudes[rise - 1] >= half) rise--;
     let fall = last;
     while (fall < length - 1 && magnitudes[fall + 1] >= half) fall++;
-    const slowest = Math.max(first - rise + 1, fall - last + 1);
+    const slowest = Math.min(first - rise + 1, fall - last + 1);
     if (dwell < PLATEAU_RATIO * slowest) return;
     this.addRun(state.plateauGroups[sign > 0 ? 0 : 1], startFrame + first, dwell, sum / dwell, PLATEAU_DEPTH * peak, first - rise + 1);
   }
@@ -319,24 +322,26 @@ export class ClippingAnalyzer implements Analyzer<ClippingResult> {
       last.end = start + length;
       last.samples += length;
       last.runs++;
-      last.squaredLengths += length * length;
+      if (Math.abs(length - last.lastLength) <= SQUARE_LENGTH_SPREAD * Math.max(length, last.lastLength)) last.evenSteps++;
+      last.lastLength = length;
       last.riseFrames += riseFrames;
       if (level > last.level) last.level = level;
       return;
     }
-    if (groups.length < MAX_GROUPS) groups.push({ start, end: start + length, level, samples: length, runs: 1, squaredLengths: length * length, riseFrames });
+    if (groups.length < MAX_GROUPS) groups.push({ start, end: start + length, level, samples: length, runs: 1, lastLength: length, evenSteps: 0, riseFrames });
   }
 
   /**
-   * A synthesiser's square or trapezium wave: plateaus of one length, reached in a sample or two. A
+   * A synthesiser's square or trapezium wave: each plateau as long as the one before it (one note's
+   * cycles; a melody changes the length only from note to note), all reached in a sample or two. A
    * clipped voice or instrument makes plateaus of many lengths, entered along its own waveform.
    */
   private static isSynthesisedSquare(cluster: ClipGroup[]): boolean {
     const count = cluster.reduce((sum, group) => sum + group.runs, 0);
-    const mean = cluster.reduce((sum, group) => sum + group.samples, 0) / count;
-    const variance = cluster.reduce((sum, group) => sum + group.squaredLengths, 0) / count - mean * mean;
     const meanRise = cluster.reduce((sum, group) => sum + group.riseFrames, 0) / count;
-    return Math.sqrt(Math.max(0, variance)) <= SQUARE_LENGTH_SPREAD * mean && meanRise <= SQUARE_RISE_FRAMES;
+    const steps = count - cluster.length;
+    const evenSteps = cluster.reduce((sum, group) => sum + group.evenSteps, 0);
+    return meanRise <= SQUARE_RISE_FRAMES && steps > 0 && evenSteps >= SQUARE_EVEN_SHARE * steps;
   }
 
   /** Keeps a flat run as a candidate when the signal ran into it faster than a rounded peak can. */

@@ -48,7 +48,8 @@ export class DropoutAnalyzer implements Analyzer<DropoutResult> {
     if (!(minDurationSec > 0)) throw new RangeError('The shortest dropout must be longer than 0 s');
     this.sampleRate = format.sampleRate;
     this.channelCount = format.channels;
-    this.minFrames = Math.max(1, Math.round(minDurationSec * format.sampleRate));
+    // Whole samples, rounded down: 5 ms at 44.1 kHz is 220.5 samples, and a 220-sample gap is a 5 ms dropout.
+    this.minFrames = Math.max(1, Math.floor(minDurationSec * format.sampleRate + 1e-6));
   }
 
   push(block: SampleBlock): void {

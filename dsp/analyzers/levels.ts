@@ -22,6 +22,16 @@ const OPEN_INPUT_DBFS = -80;
 /** Steady noise this far below the loudest channel, and below QUIET_NOISE_DBFS, is a channel left unconnected [common practice]. */
 const BELOW_PROGRAMME_DB = 30;
 const QUIET_NOISE_DBFS = -50;
+/**
+ * A channel left unconnected carries its amplifier's hiss, which is white: at least half its power lies
+ * above 4 kHz (0.8 when it reaches the converter's band edge, 0.57 even when band-limited to 10 kHz),
+ * while room tone and ambience, dominated by low frequencies, carry far less there (pink noise 0.25,
+ * room tone about 0.3-0.45) [computed: white and pink noise through a 2nd-order Butterworth high-pass].
+ * Only steady noise this broadband is taken for an open input by the relative rule (BELOW_PROGRAMME_DB):
+ * a quiet atmosphere in the surrounds of a mix is programme.
+ */
+const HISS_HIGH_PASS_HZ = 4000;
+const HISS_MIN_HIGH_SHARE = 0.5;
 /** Fewest non-silent windows (1 s) before a channel's steadiness is judged. */
 const MIN_JUDGED_WINDOWS = 10;
 
@@ -49,6 +59,8 @@ export interface ChannelLevels {
   firstOverFullScaleFrame: number | null;
   /** Bits that carry information: container bits minus the trailing zero bits common to every sample. */
   effectiveBits: number;
+  /** Share of the AC power above 4 kHz (2nd-order Butterworth high-pass); null when the rate cannot carry 4 kHz. */
+  highShare: number | null;
   /** The channel carries no programme: nothing above -90 dBFS, or only a steady noise such as an open input's hiss. */
   silent: boolean;
   /** Why it is silent: 'no-signal' (digital zero or below -90 dBFS) or 'noise-only'; null when it carries programme. */
@@ -57,6 +69,15 @@ export interface ChannelLevels {
 
 export interface LevelsResult {
   channels: ChannelLevels[];
+}
+
+/** 2nd-order Butterworth high-pass (bilinear transform, Q = 1/sqrt 2; R. Bristow-Johnson, Audio EQ Cookbook). */
+function butterworthHighPass(cutoffHz: number, sampleRate: number): { b0: number; b1: number; b2: number; a1: number; a2: number } {
+  const w0 = (2 * Math.PI * cutoffHz) / sampleRate;
+  const alpha = Math.sin(w0) / (2 * Math.SQRT1_2);
+  const cos = Math.cos(w0);
+  const a0 = 1 + alpha;
+  return { b0: (1 + cos) / 2 / a0, b1: -(1 + cos) / a0, b2: (1 + cos) / 2 / a0, a1: (-2 * cos) / a0, a2: (1 - alpha) / a0 };
 }
 
 /** Counts trailing zero bits of a non-zero 32-bit integer. */
@@ -91,6 +112,10 @@ export class LevelsAnalyzer implements Analyzer<LevelsResult> {
   private readonly windowMeanSquareSums: Float64Array[];
   private readonly overFullScale: Float64Array;
   private readonly firstOverFullScale: Float64Array;
+  /** High-pass for the hiss test: biquad coefficients (null below 9 kHz sample rates), per-channel state and output power. */
+  private readonly highPass: { b0: number; b1: number; b2: number; a1: number; a2: number } | null;
+  private readonly highPassState: Float64Array[];
+  private readonly highSquareSums: Float64Array;
 
   /** @param format encoding and bits decide the integer grid */
   constructor(format: AudioFormat) {
@@ -109,6 +134,25 @@ export class LevelsAnalyzer implements Analyzer<LevelsResult> {
     this.windowMeanSquareSums = Array.from({ length: format.channels }, () => new Float64Array(HISTOGRAM_BINS));
     this.overFullScale = new Float64Array(format.channels);
     this.firstOverFullScale = new Float64Array(format.channels).fill(-1);
+    this.highPass = format.sampleRate > 2.25 * HISS_HIGH_PASS_HZ ? butterworthHighPass(HISS_HIGH_PASS_HZ, format.sampleRate) : null;
+    this.highPassState = Array.from({ length: format.channels }, () => new Float64Array(4));
+    this.highSquareSums = new Float64Array(format.channels);
+  }
+
+  /** Runs a block through the hiss test's high-pass and sums its output power. */
+  private pushHighPass(channel: number, samples: Float64Array, frames: number): void {
+    const { b0, b1, b2, a1, a2 } = this.highPass!;
+    const state = this.highPassState[channel];
+    let [x1, x2, y1, y2] = state;
+    let sum = 0;
+    for (let i = 0; i < frames; i++) {
+      const x = samples[i];
+      const y = b0 * x + b1 * x1 + b2 * x2 - a1 * y1 - a2 * y2;
+      x2 = x1; x1 = x; y2 = y1; y1 = y;
+      sum += y * y;
+    }
+    state[0] = x1; state[1] = x2; state[2] = y1; state[3] = y2;
+    this.highSquareSums[channel] += sum;
   }
 
   push(block: SampleBlock): void {
@@ -146,6 +190,7 @@ export class LevelsAnalyzer implements Analyzer<LevelsResult> {
       start = end;
       if (this.windowFill === this.windowFrames) this.closeWindow();
     }
+    if (this.highPass) for (let channel = 0; channel < channels; channel++) this.pushHighPass(channel, block.channels[channel], frames);
     if (isFloat) {
       for (let channel = 0; channel < channels; channel++) {
         const samples = block.channels[channel];
@@ -255,6 +300,7 @@ export class LevelsAnalyzer implements Analyzer<LevelsResult> {
         overFullScaleSamples: this.overFullScale[channel],
         firstOverFullScaleFrame: this.firstOverFullScale[channel] >= 0 ? this.firstOverFullScale[channel] : null,
         effectiveBits,
+        highShare: this.highPass && acPower > 0 ? Math.min(1, this.highSquareSums[channel] / frames / acPower) : null,
         silent: noSignal,
         silentKind: noSignal ? 'no-signal' : null,
       };
@@ -265,7 +311,8 @@ export class LevelsAnalyzer implements Analyzer<LevelsResult> {
 
   /**
    * Marks channels that carry only a steady noise (an open input's hiss, a switched-off radio mic):
-   * its loud windows are no louder than its quiet ones, and it sits far below programme level.
+   * its loud windows are no louder than its quiet ones, and it is either below any programme level or
+   * a white hiss far below the other channels' programme.
    */
   private markNoiseOnlyChannels(channels: ChannelLevels[]): void {
     const loudest = Math.max(...channels.map((channel) => (channel.silent ? Number.NEGATIVE_INFINITY : (channel.loudWindowDbfs ?? Number.NEGATIVE_INFINITY))));
@@ -273,7 +320,8 @@ export class LevelsAnalyzer implements Analyzer<LevelsResult> {
       const loud = channel.loudWindowDbfs;
       const quiet = this.windowLevelAt(index, 10);
       if (channel.silent || loud === null || quiet === null || loud - quiet > STEADY_SPREAD_DB) return;
-      if (loud < OPEN_INPUT_DBFS || (loud < QUIET_NOISE_DBFS && loudest - loud >= BELOW_PROGRAMME_DB)) {
+      const hiss = channel.highShare === null || channel.highShare >= HISS_MIN_HIGH_SHARE;
+      if (loud < OPEN_INPUT_DBFS || (hiss && loud < QUIET_NOISE_DBFS && loudest - loud >= BELOW_PROGRAMME_DB)) {
         channel.silent = true;
         channel.silentKind = 'noise-only';
       }

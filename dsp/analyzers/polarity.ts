@@ -3,6 +3,8 @@ import { hannWindow } from './formatGuard';
 
 /** Longest delay between two channels looked at, seconds: about 3.4 m of path difference [common practice: spaced pairs, bleed between mics]. */
 const MAX_LAG_SEC = 0.01;
+/** Delays up to this are coincident sound (one mix, or a coincident microphone pair), seconds [common practice]. */
+const COINCIDENT_LAG_SEC = 0.001;
 /** Cross-spectra are summed over segments of this length, and each segment votes, seconds. */
 const SEGMENT_SEC = 5;
 /** Every FRAME_STRIDE-th frame is compared (about 1.3 s of each 5 s segment at 48 kHz): enough for the estimate, a quarter of the work. */
@@ -42,6 +44,7 @@ export class PolarityTracker {
   private readonly fft: FFT;
   private readonly window: Float64Array;
   private readonly maxLag: number;
+  private readonly coincidentLag: number;
   private readonly firstBin: number;
   private readonly lastBin: number;
   private readonly framesPerSegment: number;
@@ -68,6 +71,7 @@ export class PolarityTracker {
   constructor(sampleRate: number) {
     this.sampleRate = sampleRate;
     this.maxLag = Math.round(MAX_LAG_SEC * sampleRate);
+    this.coincidentLag = Math.round(COINCIDENT_LAG_SEC * sampleRate);
     let size = 1024;
     while (size < 8 * this.maxLag) size *= 2;
     this.size = size;
@@ -159,15 +163,22 @@ export class PolarityTracker {
       // The inverse transform divides by N and sums both halves of the spectrum: scale back to a mean over the band.
       const scale = bins > 0 ? this.size / (2 * bins) : 0;
       let peak = 0;
+      let peakLag = 0;
       for (let lag = -this.maxLag; lag <= this.maxLag; lag++) {
         const value = this.correlation[2 * ((lag + this.size) % this.size)] * scale;
-        if (Math.abs(value) > Math.abs(peak)) peak = value;
+        if (Math.abs(value) > Math.abs(peak)) {
+          peak = value;
+          peakLag = lag;
+        }
       }
       if (peak >= MIN_PEAK) this.verdict.inPolaritySegments++;
       else if (peak <= -MIN_PEAK) {
-        this.verdict.invertedSegments++;
-        this.verdict.invertedFromSec ??= this.segmentStartFrame / this.sampleRate;
-        this.verdict.invertedToSec = this.framesSeen / this.sampleRate;
+        // Coincident sound (a mix, a coincident pair) whose plain, power-weighted cross-correlation is in
+        // phase: a widened mix, whose side content is in anti-phase across many bins while its louder
+        // centre (bass, voice) stays in phase and the mono sum keeps its level. Not a channel wired inverted.
+        const widenedMix = Math.abs(peakLag) <= this.coincidentLag && this.crossCorrelationAt(peakLag) > 0;
+        if (widenedMix) this.verdict.inPolaritySegments++;
+        else this.markInverted();
       }
     }
     this.crossRe.fill(0);
@@ -177,6 +188,22 @@ export class PolarityTracker {
     this.framesInSegment = 0;
     this.audibleFrames = 0;
     this.segmentStartFrame = this.framesSeen;
+  }
+
+  /** Plain cross-correlation of the segment over the band at one lag: the real part of the sum of S_LR·e^{iω_k·lag}. */
+  private crossCorrelationAt(lag: number): number {
+    let sum = 0;
+    for (let k = this.firstBin; k <= this.lastBin; k++) {
+      const angle = (2 * Math.PI * k * lag) / this.size;
+      sum += this.crossRe[k] * Math.cos(angle) - this.crossIm[k] * Math.sin(angle);
+    }
+    return sum;
+  }
+
+  private markInverted(): void {
+    this.verdict.invertedSegments++;
+    this.verdict.invertedFromSec ??= this.segmentStartFrame / this.sampleRate;
+    this.verdict.invertedToSec = this.framesSeen / this.sampleRate;
   }
 
   finish(): PolarityVerdict {

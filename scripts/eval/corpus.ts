@@ -49,7 +49,7 @@ const CONVERSATION_LINES: [string, string][] = [
   [LINES[5], LINES[1]],
 ];
 
-const mono = (signal: Float64Array, sampleRate: number, coding: SampleCoding): TakeAudio => ({ channels: [signal], sampleRate, coding });
+export const mono = (signal: Float64Array, sampleRate: number, coding: SampleCoding): TakeAudio => ({ channels: [signal], sampleRate, coding });
 
 function speech(voiceIndex: number, lineIndex: number, sampleRate: number, peakDbfs: number, roomToneDbfs = -66, roomPercent = 25): Float64Array {
   return speechTake({ voice: VOICES[voiceIndex], line: LINES[lineIndex], sampleRate, peakDbfs, roomToneDbfs, roomPercent, seed: 100 * voiceIndex + lineIndex });
@@ -221,4 +221,3 @@ export const FAULT_TAKES: EvalTake[] = [
     make: () => mono(fault.noisyRoom(speech(6, 2, 48000, -6), 48000, -45, 12), 48000, 'pcm24') },
 ];
 
-export const ALL_TAKES: EvalTake[] = [...CLEAN_TAKES, ...FAULT_TAKES];

@@ -89,12 +89,14 @@ export interface SpeechOptions {
   seed: number;
   /** Reverberation of the room, percent (0: a dead booth). Default 25. */
   roomPercent?: number;
+  /** The voice chain's low cut, Hz (0: none, a flat microphone). Default 70. */
+  lowCutHz?: number;
 }
 
 /** One voice on one microphone in a room: speech, its air band, room tone. */
 export function speechTake(options: SpeechOptions): Float64Array {
   const { voice, line, sampleRate, peakDbfs, roomToneDbfs, seed } = options;
-  const speech = speak(line, voice, sampleRate, peakDbfs, options.roomPercent ?? 25);
+  const speech = speak(line, voice, sampleRate, peakDbfs, options.roomPercent ?? 25, options.lowCutHz ?? 70);
   const take = new Float64Array(speech.length + Math.round(0.6 * sampleRate));
   const start = Math.round(0.3 * sampleRate);
   mixInto(take, speech, 1, start);

@@ -43,17 +43,18 @@ export interface Voice {
 }
 
 /**
- * Speech from espeak-ng (22.05 kHz 16-bit, unclipped), put through sox: the low cut every voice chain
- * has, a small room (reverb; none when `roomPercent` is 0), resampling to `sampleRate`, and levelled so
- * its sample peak sits at `peakDbfs`.
+ * Speech from espeak-ng (22.05 kHz 16-bit, unclipped), put through sox: the low cut most voice chains
+ * have (at `lowCutHz`; none when 0, as a flat microphone with no filter), a small room (reverb; none
+ * when `roomPercent` is 0), resampling to `sampleRate`, and levelled so its sample peak sits at `peakDbfs`.
  */
-export function speak(text: string, voice: Voice, sampleRate: number, peakDbfs: number, roomPercent = 25): Float64Array {
+export function speak(text: string, voice: Voice, sampleRate: number, peakDbfs: number, roomPercent = 25, lowCutHz = 70): Float64Array {
   const folder = mkdtempSync(join(tmpdir(), 'takeproof-speech-'));
   try {
     const wav = join(folder, 'speech.wav');
     run('espeak-ng', ['-v', voice.name, '-s', String(voice.rate), '-p', String(voice.pitch), '-w', wav, text]);
     const room = roomPercent > 0 ? ['reverb', String(roomPercent), '50', '30'] : [];
-    return soxToSamples([wav], sampleRate, 1, ['highpass', '70', ...room, 'rate', '-v', String(sampleRate), 'gain', '-n', String(peakDbfs)])[0];
+    const lowCut = lowCutHz > 0 ? ['highpass', String(lowCutHz)] : [];
+    return soxToSamples([wav], sampleRate, 1, [...lowCut, ...room, 'rate', '-v', String(sampleRate), 'gain', '-n', String(peakDbfs)])[0];
   } finally {
     rmSync(folder, { recursive: true, force: true });
   }
@@ -64,13 +65,18 @@ export function synthesise(seconds: number, synthArgs: string[], sampleRate: num
   return soxToSamples(['-n'], sampleRate, channels, ['synth', String(seconds), ...synthArgs, ...effects]);
 }
 
-/** Runs a mono signal through sox effects (output at `toRate`). */
-function soxProcess(signal: Float64Array, fromRate: number, toRate: number, effects: string[]): Float64Array {
+/** Runs signals (one per channel) through sox effects, output at `toRate` with `toChannels` channels (default: as many as given). */
+export function soxProcess(channels: Float64Array[], fromRate: number, toRate: number, effects: string[], toChannels = channels.length): Float64Array[] {
   const folder = mkdtempSync(join(tmpdir(), 'takeproof-process-'));
   try {
     const input = join(folder, 'in.f64');
-    writeFileSync(input, Buffer.from(signal.buffer, signal.byteOffset, signal.byteLength));
-    return soxToSamples(['-t', 'f64', '-r', String(fromRate), '-c', '1', input], toRate, 1, effects)[0];
+    const frames = Math.min(...channels.map((channel) => channel.length));
+    const interleaved = new Float64Array(frames * channels.length);
+    channels.forEach((channel, c) => {
+      for (let i = 0; i < frames; i++) interleaved[i * channels.length + c] = channel[i];
+    });
+    writeFileSync(input, Buffer.from(interleaved.buffer));
+    return soxToSamples(['-t', 'f64', '-r', String(fromRate), '-c', String(channels.length), input], toRate, toChannels, effects);
   } finally {
     rmSync(folder, { recursive: true, force: true });
   }
@@ -78,7 +84,7 @@ function soxProcess(signal: Float64Array, fromRate: number, toRate: number, effe
 
 /** Resamples a mono signal with sox's very-high-quality rate converter (its low-pass stops just below the old Nyquist). */
 export function resample(signal: Float64Array, fromRate: number, toRate: number): Float64Array {
-  return soxProcess(signal, fromRate, toRate, ['rate', '-v', String(toRate)]);
+  return soxProcess([signal], fromRate, toRate, ['rate', '-v', String(toRate)])[0];
 }
 
 /**
@@ -86,6 +92,6 @@ export function resample(signal: Float64Array, fromRate: number, toRate: number)
  * 0.45 of the sample rate (converter pass bands end at about 0.45 fs).
  */
 export function converterBand(signal: Float64Array, sampleRate: number): Float64Array {
-  const filtered = soxProcess(signal, sampleRate, sampleRate, ['sinc', `-${Math.round(0.45 * sampleRate)}`]);
+  const filtered = soxProcess([signal], sampleRate, sampleRate, ['sinc', `-${Math.round(0.45 * sampleRate)}`])[0];
   return filtered.length === signal.length ? filtered : filtered.subarray(0, signal.length);
 }

@@ -6,6 +6,8 @@ import { analyzeWavBuffer } from '../../support/wavStreams';
 import { encodeSamples, wavFile, type SampleCoding } from '../../support/wavWriter';
 import { LINES, VOICES } from '../../../scripts/eval/material';
 import { converterBand, resample, speak, synthesise } from '../../../scripts/eval/tools';
+import { clipBeforeConverter } from '../../../scripts/eval/faults';
+import { voiceTake } from '../../../scripts/eval/varietyMaterial';
 
 const RATE = 48000;
 const clipsOfWav = (coding: SampleCoding, channels: Float64Array[], sampleRate = RATE) =>
@@ -109,9 +111,22 @@ describe('flat tops below full scale (analogue clip, then gain lowered): >= 3 fl
     expect(result.events.every((event) => event.level === 'belowFullScale' && Math.abs(event.levelDbfs - -9) < 0.5)).toBe(true);
   });
 
+  it('finds rippled flat tops at -20 dBFS on a fast voice whose half-cycles rise fast and fall slowly (es+m2 at 220 wpm, 6 dB past the clip, 3-5 s)', async () => {
+    const voice = voiceTake(4, { sampleRate: RATE, peakDbfs: -10, roomToneDbfs: -66, seed: 5 });
+    const result = await clipsOfWav('pcm24', [clipBeforeConverter(voice, RATE, 3, 5, -20, 6, -100, 9, true)]);
+    expect(result.events.length).toBeGreaterThan(0);
+    expect(result.events.every((event) => event.level === 'belowFullScale' && Math.abs(event.levelDbfs - -20) < 0.5 && event.startSec >= 3 && event.endSec <= 5)).toBe(true);
+  });
+
   it('a synthesiser\'s square wave (sox synth square, its plateaus all one length) is not clipping', async () => {
     const square = synthesise(3, ['square', '220'], RATE, 1, ['gain', '-6'])[0];
     expect((await clipsOfWav('pcm24', [square])).events).toEqual([]);
+  });
+
+  it('a square-wave melody (sox synth square, eight notes at three levels, two notes in a row at each: plateau lengths change from note to note) is not clipping', async () => {
+    const notes = [220, 247, 262, 294, 330, 349, 392, 440];
+    const melody = concat(...Array.from({ length: 24 }, (_, k) => synthesise(0.3, ['square', String(notes[(k * 5) % 8])], RATE, 1, ['gain', '-n', String(-6 - (Math.floor(k / 2) % 3))])[0]));
+    expect((await clipsOfWav('pcm24', [melody])).events).toEqual([]);
   });
 
   describe('rounded peaks of voiced speech are not flat tops (espeak-ng speech, levelled and resampled with sox)', () => {

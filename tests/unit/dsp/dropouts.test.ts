@@ -26,6 +26,15 @@ describe('dropouts: digital zero on every channel, >= 5 ms, inside the take [com
     expect(dropoutsOf([gapLeftOnly, tone(2.02)]).dropouts).toHaveLength(0);
   });
 
+  it('at 44.1 kHz a 5 ms gap is 220 samples (5 ms is 220.5): found; 219 samples are not [common practice: 5 ms minimum]', () => {
+    const rate = 44100;
+    const music = sine(997, 0.3, 1, rate, 0.5);
+    const withGap = (samples: number) => concat(music, new Float64Array(samples), music);
+    const found = (samples: number) => runAnalyzer(new DropoutAnalyzer(formatOf(rate, 1)), [withGap(samples)]).dropoutCount;
+    expect(found(220)).toBe(1);
+    expect(found(219)).toBe(0);
+  });
+
   it('counts several gaps, and honours a custom minimum length', () => {
     const signal = concat(tone(0.5), silence(0.006, RATE), tone(0.5), silence(0.05, RATE), tone(0.5));
     expect(dropoutsOf([signal]).dropoutCount).toBe(2);

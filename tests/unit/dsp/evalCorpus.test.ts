@@ -3,7 +3,7 @@ import { describe, expect, it } from 'vitest';
 import { reasonOf } from '../../../dsp/findings';
 import { analyzeFile } from '../../../dsp/pipeline';
 import { buildTake } from '../../../scripts/eval/build';
-import { CLEAN_TAKES, FAULT_TAKES } from '../../../scripts/eval/corpus';
+import { ALL_CLEAN_TAKES, ALL_FAULT_TAKES } from '../../../scripts/eval/allTakes';
 import { faultFound, falseAlarms } from '../../../scripts/eval/score';
 
 /**
@@ -18,7 +18,7 @@ import { faultFound, falseAlarms } from '../../../scripts/eval/score';
 const FOLDER = join('var', 'eval');
 
 describe('clean takes: no warning or failure beyond comparisons with the delivery spec', () => {
-  it.each(CLEAN_TAKES.filter((take) => take.slice).map((take) => [take.id, take] as const))('%s', async (_, take) => {
+  it.each(ALL_CLEAN_TAKES.filter((take) => take.slice).map((take) => [take.id, take] as const))('%s', async (_, take) => {
     const report = await analyzeFile(buildTake(take, FOLDER));
     expect(falseAlarms(report).map((finding) => finding.message)).toEqual([]);
     if (take.id.startsWith('poly')) {
@@ -32,7 +32,7 @@ describe('clean takes: no warning or failure beyond comparisons with the deliver
 });
 
 describe('planted faults: each found at the right time and on the right channel', () => {
-  it.each(FAULT_TAKES.filter((take) => take.slice).map((take) => [take.id, take] as const))('%s', async (_, take) => {
+  it.each(ALL_FAULT_TAKES.filter((take) => take.slice).map((take) => [take.id, take] as const))('%s', async (_, take) => {
     const report = await analyzeFile(buildTake(take, FOLDER));
     expect(faultFound(take, report), `${take.description}: ${report.findings.map((finding) => finding.message).join(' | ')}`).toBe(true);
     const reason = reasonOf(report.findings);

@@ -48,3 +48,21 @@ describe('channel layout', () => {
     expect(channelLayout(4, 0x3, null).layout).toBe('poly');
   });
 });
+
+describe('a recorder\'s stereo mix named in iXML', () => {
+  const twoTracks = (left: string, right: string) =>
+    ixml(`<TRACK><INTERLEAVE_INDEX>1</INTERLEAVE_INDEX><NAME>${left}</NAME></TRACK><TRACK><INTERLEAVE_INDEX>2</INTERLEAVE_INDEX><NAME>${right}</NAME></TRACK>`);
+
+  // Field recorders write a TRACK_LIST for their stereo mode too; its left and right feeds are one
+  // programme (polarity, programme loudness and a dead side judged as for any stereo take) [common practice].
+  it.each([['L', 'R'], ['Left', 'Right'], ['MixL', 'MixR'], ['Mix L', 'Mix R'], ['ST_Left', 'ST_Right'], ['Lt', 'Rt'], ['L Mix', 'R Mix']])('%s / %s is stereo, names kept', (left, right) => {
+    expect(channelLayout(2, null, twoTracks(left, right))).toEqual({ layout: 'stereo', names: [left, right] });
+  });
+
+  it('two iso tracks (boom and lavalier), a right-left swap, or one mix feed beside an iso track stay poly', () => {
+    expect(channelLayout(2, null, twoTracks('Boom', 'Lav Anna')).layout).toBe('poly');
+    expect(channelLayout(2, null, twoTracks('R', 'L')).layout).toBe('poly');
+    expect(channelLayout(2, null, twoTracks('MixL', 'Boom')).layout).toBe('poly');
+    expect(channelLayout(2, null, twoTracks('Lavalier', 'Radio')).layout).toBe('poly');
+  });
+});

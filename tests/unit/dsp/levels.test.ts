@@ -77,6 +77,26 @@ describe('dead channels: no signal, or only a steady noise [common practice]', (
     expect(runAnalyzer(new LevelsAnalyzer(formatOf(RATE, 1)), [hiss(-63, 4)]).channels[0].silent).toBe(false);
     expect(runAnalyzer(new LevelsAnalyzer(formatOf(RATE, 2)), [hiss(-30, 5), hiss(-31, 6)]).channels.map((channel) => channel.silent)).toEqual([false, false]);
   });
+
+  // Pink noise (-3 dB per octave) stands in for a quiet atmosphere: acoustic ambience is dominated by low
+  // frequencies, an amplifier's hiss is white [textbook]. Pink by the Voss-McCartney sum of held random rows.
+  const pink = (dbfs: number, seed: number) => {
+    const random = seededRandom(seed);
+    const rows = new Float64Array(16);
+    const out = new Float64Array(RATE * 4).map((_, i) => {
+      for (let row = 0; row < rows.length; row++) if (i % 2 ** row === 0) rows[row] = random() - 0.5;
+      return rows.reduce((sum, value) => sum + value, 0);
+    });
+    const rms = Math.sqrt(out.reduce((sum, x) => sum + x * x, 0) / out.length);
+    return out.map((x) => (x * 10 ** (dbfs / 20)) / rms);
+  };
+
+  it('a quiet atmosphere 40 dB under the programme (the surrounds of a drama mix) is programme; white hiss at that level is an open input', () => {
+    const { channels } = runAnalyzer(new LevelsAnalyzer(formatOf(RATE, 3)), [programme(1), pink(-58, 7), hiss(-58, 8)]);
+    expect(channels.map((channel) => channel.silentKind)).toEqual([null, null, 'noise-only']);
+    expect(channels[1].highShare).toBeLessThan(0.5);
+    expect(channels[2].highShare).toBeGreaterThan(0.75);
+  });
 });
 
 describe('float samples beyond full scale', () => {
@@ -136,4 +156,5 @@ describe('ideal quantiser SNR = 6.02·N + 1.76 dB (textbook; e.g. Analog Devices
     const snr = 10 * Math.log10(signalPower / errorPower);
     expect(Math.abs(snr - (6.02 * bits + 1.76))).toBeLessThan(0.1);
   });
+
 });

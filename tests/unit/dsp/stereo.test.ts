@@ -114,4 +114,44 @@ describe('polarity of two microphones with bleed between them', () => {
     expect(result.polarity.invertedFromSec).toBeLessThan(11);
     expect(result.polarity.invertedToSec).toBeGreaterThan(19);
   });
+
+  /**
+   * A widened mix: L' = M + w·S, R' = M - w·S (the mid-side matrix of a stereo widener, e.g. Bob Katz,
+   * Mastering Audio, 2007). With w = 2 a source panned to the left (L = 1, R = 0.2) comes out at -0.4 on
+   * the right: the side content is in anti-phase in every bin it fills, while the loud centre (here a
+   * bass line) stays in phase and the mono sum 2M loses nothing.
+   */
+  function widenedMix(width: number): [Float64Array, Float64Array] {
+    const bass = sine(98, 0.4, 20, RATE).map((x, i) => x + 0.3 * Math.sin((2 * Math.PI * 147 * i) / RATE));
+    const panned = noise(20, 12).map((x) => 0.25 * x);
+    const left = bass.map((x, i) => x + panned[i]), right = bass.map((x, i) => x + 0.2 * panned[i]);
+    const mid = left.map((x, i) => (x + right[i]) / 2), side = left.map((x, i) => (x - right[i]) / 2);
+    return [mid.map((x, i) => x + width * side[i]), mid.map((x, i) => x - width * side[i])];
+  }
+
+  it('a mix widened by 6 dB of side: in polarity (the centre is), although its side content is in anti-phase', () => {
+    const [left, right] = widenedMix(2);
+    const result = stereoOf(left, right);
+    expect(result.correlation).toBeGreaterThan(0);
+    expect(result.polarityInverted).toBe(false);
+    expect(result.polarity.invertedSegments).toBe(0);
+  });
+
+  /** A spaced pair: a bass line reaching the left microphone 2.5 ms early, a wideband source the right one 2.5 ms early. */
+  function spacedPair(): [Float64Array, Float64Array] {
+    const bass = sine(98, 0.4, 20, RATE).map((x, i) => x + 0.3 * Math.sin((2 * Math.PI * 147 * i) / RATE));
+    const source = noise(20, 13).map((x) => 0.2 * x);
+    const delay = Math.round(0.0025 * RATE);
+    return [bass.map((x, i) => x + (i >= delay ? source[i - delay] : 0)), bass.map((x, i) => (i >= delay ? bass[i - delay] : 0) + source[i])];
+  }
+
+  it('a spaced pair whose sources arrive 2.5 ms apart each way: in polarity; with one channel inverted: opposite', () => {
+    const [left, right] = spacedPair();
+    const normal = stereoOf(left, right);
+    expect(normal.polarityInverted).toBe(false);
+    expect(normal.polarity.invertedSegments).toBe(0);
+    const inverted = stereoOf(left, right.map((x) => -x));
+    expect(inverted.polarityInverted).toBe(true);
+    expect(inverted.polarity.inPolaritySegments).toBe(0);
+  });
 });
