@@ -79,7 +79,7 @@ function drainThenDrop(source: Readable): void {
   source.resume();
 }
 
-interface StoredFile {
+export interface StoredFile {
   key: string;
   originalName: string;
   bytes: number;
@@ -87,26 +87,24 @@ interface StoredFile {
 }
 
 /**
- * Receives the WAV files of a multipart upload (field `file`, any number; optional field
- * `recorderId` before the files) straight into storage while hashing them, then records
- * one take and one analysis job per file. All or nothing: if any part is refused or the
- * upload is cut off, every file of this request is removed again and no take is recorded.
+ * Streams the WAV files of a multipart upload (field `file`, at most `maxFiles`) straight into
+ * storage under fresh keys while hashing them, and returns them with the text fields sent before
+ * them. All or nothing: if any part is refused or the upload is cut off, every file already
+ * stored is removed again.
  */
-export async function receiveTakes(actor: Actor, sessionId: number, request: Request): Promise<TakeSummary[]> {
-  const session = await findSession(actor, sessionId);
-  if (session.status === 'closed') throw new AppError('conflict:session_closed', 'This session is closed. Reopen it to add takes.');
+export async function storeWavParts(request: Request, options: { newKey: () => string; maxFiles: number }): Promise<{ files: StoredFile[]; fields: Record<string, string> }> {
   const contentType = request.headers.get('content-type') ?? '';
   if (!contentType.startsWith('multipart/form-data') || !request.body) {
-    throw new AppError('invalid:upload', 'Send the takes as multipart/form-data with one or more `file` fields.');
+    throw new AppError('invalid:upload', 'Send the files as multipart/form-data with `file` fields.');
   }
   const maxBytes = env().UPLOAD_MAX_BYTES;
   const declaredLength = Number(request.headers.get('content-length') ?? NaN);
-  if (Number.isFinite(declaredLength) && declaredLength > maxBytes * 50 + MULTIPART_OVERHEAD) {
+  if (Number.isFinite(declaredLength) && declaredLength > maxBytes * options.maxFiles + MULTIPART_OVERHEAD) {
     throw new AppError('too_large:upload', `This upload is larger than the ${formatBytes(maxBytes)} per file this studio accepts.`);
   }
 
   const stored: StoredFile[] = [];
-  let recorderId: number | null = null;
+  const fields: Record<string, string> = {};
   try {
     await new Promise<void>((resolve, reject) => {
       let settled = false;
@@ -122,14 +120,14 @@ export async function receiveTakes(actor: Actor, sessionId: number, request: Req
       try {
         // preservePath: keep the name as sent (it is only shown); busboy would otherwise cut it at the last slash.
         // defParamCharset: browsers send file names as UTF-8.
-        parser = busboy({ headers: { 'content-type': contentType }, preservePath: true, defParamCharset: 'utf8', limits: { files: 50, fields: 20, fieldSize: 1024 } });
+        parser = busboy({ headers: { 'content-type': contentType }, preservePath: true, defParamCharset: 'utf8', limits: { files: options.maxFiles, fields: 20, fieldSize: 1024 } });
       } catch {
         throw new AppError('invalid:upload', 'The multipart body could not be read.');
       }
       const source = Readable.fromWeb(request.body as WebReadableStream);
       source.on('error', () => fail(new AppError('invalid:upload_aborted', 'The upload was cut off before it finished. Nothing was kept.')));
       parser.on('field', (name, value) => {
-        if (name === 'recorderId' && value !== '') recorderId = Number(value);
+        fields[name] = value;
       });
       parser.on('file', (field, file, info) => {
         if (field !== 'file') {
@@ -137,7 +135,7 @@ export async function receiveTakes(actor: Actor, sessionId: number, request: Req
           return;
         }
         const originalName = cleanFileName(info.filename ?? '');
-        const key = newTakeKey();
+        const key = options.newKey();
         const check = new UploadCheck(maxBytes, originalName);
         const put = storage().put(key, file.pipe(check));
         // A cut-off source must also end the file stream, or put() would wait forever.
@@ -163,9 +161,28 @@ export async function receiveTakes(actor: Actor, sessionId: number, request: Req
       source.pipe(parser);
     });
     if (stored.length === 0) throw new AppError('invalid:upload', 'No WAV file was found in the upload (use the field name `file`).');
-    return await recordTakes(actor, sessionId, stored, recorderId);
+    return { files: stored, fields };
   } catch (error) {
     await Promise.all(stored.map((f) => storage().delete(f.key)));
+    throw error;
+  }
+}
+
+/**
+ * Receives the WAV files of a multipart upload (field `file`, any number; optional field
+ * `recorderId` before the files) into storage, then records one take and one analysis job per
+ * file. All or nothing: if any part is refused, every file of this request is removed again and
+ * no take is recorded.
+ */
+export async function receiveTakes(actor: Actor, sessionId: number, request: Request): Promise<TakeSummary[]> {
+  const session = await findSession(actor, sessionId);
+  if (session.status === 'closed') throw new AppError('conflict:session_closed', 'This session is closed. Reopen it to add takes.');
+  const { files, fields } = await storeWavParts(request, { newKey: () => newTakeKey(), maxFiles: 50 });
+  const recorderId = fields.recorderId ? Number(fields.recorderId) : null;
+  try {
+    return await recordTakes(actor, sessionId, files, recorderId);
+  } catch (error) {
+    await Promise.all(files.map((f) => storage().delete(f.key)));
     throw error;
   }
 }
