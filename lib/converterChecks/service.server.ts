@@ -14,9 +14,10 @@ import { findRecorder } from '@/lib/recorders/service.server';
 import { newConverterCheckKey, storage } from '@/lib/storage/storage.server';
 import { storeWavParts } from '@/lib/takes/uploads.server';
 import type { Actor } from '@/lib/auth/views';
+import { latestChecks, toLastCheck } from './fleet.server';
 import { rejudgeRecorder, thresholdsFor } from './judgement.server';
 import type { SignalFormatQuery } from './schema';
-import { driftFindings, isAcceptable, type ConverterCheckDetail, type ConverterCheckSummary, type RecorderChecksView, type SignalFormatView } from './views';
+import { driftFindings, isAcceptable, type ConverterCheckDetail, type ConverterCheckSummary, type LastConverterCheck, type RecorderChecksView, type SignalFormatView } from './views';
 
 const DAY_MS = 86_400_000;
 const DEFAULT_FORMAT: SignalFormatView = { sampleRate: 48_000, bitsPerSample: 24, channels: 2 };
@@ -39,7 +40,7 @@ function toSummary(c: CheckWithPeople, report: ConverterReport | null): Converte
     state: c.state,
     isBaseline: !!c.isBaseline,
     drift: report ? driftFindings(report.findings).map((f) => f.message) : [],
-    format: report ? { sampleRate: report.file.sampleRate, bitsPerSample: report.file.bitsPerSample, channels: report.file.channels } : null,
+    format: report ? { sampleRate: report.file.sampleRate, bitsPerSample: report.file.bitsPerSample, channels: report.file.channels, encoding: report.file.encoding } : null,
     uploadedBy: c.uploadedBy?.name ?? null,
     uploadedAt: c.createdAt.toISOString(),
     measuredAt: c.measuredAt?.toISOString() ?? null,
@@ -215,4 +216,21 @@ export async function setCheckInterval(actor: Actor, days: number): Promise<{ co
     await audit(actor, 'studio.converter_interval', { type: 'studio', id: actor.studioId }, { days }, transaction);
   });
   return { converterCheckIntervalDays: days };
+}
+
+/** The studio's recorders in service, each with its latest converter check. */
+export async function checksOverview(actor: Actor, now = new Date()): Promise<{ intervalDays: number; recorders: { id: number; label: string; makeModel: string | null; lastCheck: LastConverterCheck | null }[] }> {
+  db();
+  const [recorders, latest, interval] = await Promise.all([
+    Recorder.findAll({ where: { studioId: actor.studioId, active: true }, attributes: ['id', 'label', 'makeModel'], order: [['label', 'ASC']] }),
+    latestChecks(actor.studioId),
+    converterCheckIntervalDays(actor.studioId),
+  ]);
+  return {
+    intervalDays: interval,
+    recorders: recorders.map((r) => {
+      const c = latest.get(r.id);
+      return { id: r.id, label: r.label, makeModel: r.makeModel, lastCheck: c ? toLastCheck(c, interval, now) : null };
+    }),
+  };
 }

@@ -18,7 +18,7 @@ export interface ConverterCheckSummary {
   isBaseline: boolean;
   /** The report's drift findings (against the baseline), in plain words. */
   drift: string[];
-  format: { sampleRate: number; bitsPerSample: number; channels: number } | null;
+  format: { sampleRate: number; bitsPerSample: number; channels: number; encoding: string } | null;
   uploadedBy: string | null;
   uploadedAt: string;
   measuredAt: string | null;
