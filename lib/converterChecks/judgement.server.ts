@@ -39,7 +39,7 @@ export function judgeAgainst(report: ConverterReport, baseline: ConverterReport 
  * the recorder's first acceptable check becomes its baseline. The recorder row is locked so two
  * workers finishing at once cannot both make a baseline.
  */
-export async function recordMeasuredCheck(checkId: number, report: ConverterReport, transaction: Transaction): Promise<void> {
+export async function recordMeasuredCheck(checkId: number, report: ConverterReport, transaction: Transaction, measuredAt = new Date()): Promise<void> {
   const check = await ConverterCheck.findByPk(checkId, { attributes: { exclude: ['report'] }, transaction });
   if (!check) return;
   const recorder = await Recorder.findByPk(check.recorderId, { transaction, lock: transaction.LOCK.UPDATE });
@@ -56,8 +56,8 @@ export async function recordMeasuredCheck(checkId: number, report: ConverterRepo
       status: 'measured',
       progress: 100,
       error: null,
-      measuredAt: new Date(),
-      ...(becomesBaseline ? { isBaseline: true, baselineSetById: null, baselineSetAt: new Date() } : {}),
+      measuredAt,
+      ...(becomesBaseline ? { isBaseline: true, baselineSetById: null, baselineSetAt: measuredAt } : {}),
     },
     { transaction },
   );
