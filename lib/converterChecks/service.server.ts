@@ -85,11 +85,11 @@ export async function converterCheckIntervalDays(studioId: number): Promise<numb
   return (await Studio.findByPk(studioId, { attributes: ['converterCheckIntervalDays'] }))?.converterCheckIntervalDays ?? 90;
 }
 
-/** A recorder's converter checks, newest first, with what the next check is written at and judged against. */
+/** A recorder's converter checks, newest first (those still in the queue on top), with what the next check is written at and judged against. */
 export async function recorderChecks(actor: Actor, recorderId: number): Promise<RecorderChecksView> {
   const recorder = await findRecorder(actor, recorderId);
   const [checks, format, judged, interval] = await Promise.all([
-    ConverterCheck.findAll({ where: { studioId: actor.studioId, recorderId }, include: CHECK_INCLUDE, order: [[literal('COALESCE(measuredAt, ConverterCheck.createdAt)'), 'DESC'], ['id', 'DESC']] }),
+    ConverterCheck.findAll({ where: { studioId: actor.studioId, recorderId }, include: CHECK_INCLUDE, order: [[literal('measuredAt IS NULL'), 'DESC'], ['measuredAt', 'DESC'], ['id', 'DESC']] }),
     usualFormat(actor.studioId, recorderId),
     thresholdsFor(actor.studioId, recorder.makeModel),
     converterCheckIntervalDays(actor.studioId),

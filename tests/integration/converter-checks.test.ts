@@ -180,8 +180,9 @@ describe('converter checks through the recorder’s page', () => {
   });
 
   it('re-judges the model’s checks when a manager tightens its thresholds', async () => {
-    const edge = (second.report as ConverterReport).channels[0].bandEdgeHz!;
-    const thresholds = { ...DEFAULT_CONVERTER_THRESHOLDS, minBandEdgeHz: Math.min(Math.ceil(edge + 200), 0.45 * RATE) };
+    // An idle-noise limit 3 dB below what the current baseline measured: it now fails on its own limit.
+    const noisiest = Math.max(...(second.report as ConverterReport).channels.map((c) => c.noiseFloorDbfs!));
+    const thresholds = { ...DEFAULT_CONVERTER_THRESHOLDS, maxNoiseFloorDbfs: Math.floor(noisiest) - 3 };
     const engineer = await as.engineer.fetch(`/api/recorders/${recorderId}/converter-thresholds`, { method: 'PUT', json: { thresholds }, headers: origin });
     expect(engineer.status).toBe(403);
     const saved = await as.manager.fetch(`/api/recorders/${recorderId}/converter-thresholds`, { method: 'PUT', json: { thresholds }, headers: origin });
@@ -189,7 +190,7 @@ describe('converter checks through the recorder’s page', () => {
     expect((await saved.json()).thresholdsAreDefault).toBe(false);
     const check = (await (await as.manager.fetch(`/api/converter-checks/${second.id}`)).json()) as ConverterCheckDetail;
     expect(check.state).toBe('fail');
-    expect(check.report!.findings.some((f) => f.check === 'band-edge' && f.basis === 'threshold')).toBe(true);
+    expect(check.report!.findings.filter((f) => f.check === 'noise' && f.basis === 'threshold').map((f) => f.channel).sort()).toEqual([0, 1]);
   });
 
   it('ends a recording without the check signal as unreadable, with the engine’s reason', async () => {
