@@ -115,7 +115,8 @@ describe('converter checks through the recorder’s page', () => {
     expect(signalPath).not.toBe('');
     const { status, body } = await uploadCheck(as.engineer, recorderId, await recordingThrough(steady, 'steady.wav'), 'booth-check-1.wav');
     expect(status).toBe(201);
-    expect(body.status).toBe('queued');
+    // A worker may claim it before the answer is written: anything but a refusal.
+    expect(['queued', 'measuring', 'measured']).toContain(body.status);
     first = await waitForCheck(as.engineer, body.id);
     expect(first.status).toBe('measured');
     // The first acceptable check of a recorder is its baseline.
