@@ -12,7 +12,8 @@ import { CheckStateMark } from './CheckStateMark';
 /** Every converter check of a recorder, newest first; refreshes while one is being measured. */
 export function CheckHistory({ recorderId }: { recorderId: number }) {
   const { data, error } = useSWR<RecorderChecksView, ApiError>(recorderChecksKey(recorderId), {
-    refreshInterval: (latest) => (latest?.checks.some((c) => c.status === 'queued' || c.status === 'measuring') ? 2000 : 0),
+    // Nothing in the cache yet (the page's fallback is not passed here) counts as still measuring.
+    refreshInterval: (latest) => (!latest || latest.checks.some((c) => c.status === 'queued' || c.status === 'measuring') ? 2000 : 0),
   });
   const checks = data?.checks ?? [];
   return (

@@ -51,7 +51,8 @@ function Findings({ findings, count }: { findings: ConverterFinding[]; count: nu
 /** The result page of a converter check: refreshes until it is measured, then shows every figure against the baseline and the limits. */
 export function CheckResult({ checkId, manages }: { checkId: number; manages: boolean }) {
   const { data: check, error, mutate } = useSWR<ConverterCheckDetail, ApiError>(converterCheckKey(checkId), {
-    refreshInterval: (latest) => (latest && (latest.status === 'queued' || latest.status === 'measuring') ? 2000 : 0),
+    // Nothing in the cache yet (the page's fallback is not passed here) counts as still measuring.
+    refreshInterval: (latest) => (!latest || latest.status === 'queued' || latest.status === 'measuring' ? 2000 : 0),
   });
   const baselineAction = useApiForm();
   if (error) return <FormMessage error={error.message} />;
