@@ -9,6 +9,7 @@ import { analyzeConverterCheck } from '@/dsp/converter';
 import { recordMeasuredCheck } from '@/lib/converterChecks/judgement.server';
 import { db } from '@/lib/db/connection.server';
 import { DEMO_STUDIO_NAME } from '@/lib/db/demo.server';
+import { plural } from '@/lib/format';
 import { newConverterCheckKey, storage } from '@/lib/storage/storage.server';
 import { ConverterCheck, Recorder, Studio, User } from '@/models';
 import { recordThrough, type DemoConverter } from './demo/simulatedConverter';
@@ -70,7 +71,7 @@ async function seed(): Promise<string[]> {
       await db().transaction((transaction) => recordMeasuredCheck(check.id, report, transaction, at));
       await db().query('UPDATE converter_checks SET createdAt = :at WHERE id = :id', { replacements: { at, id: check.id } });
     }
-    done.push(`${history.label} (${history.checks.length} converter checks)`);
+    done.push(`${history.label} (${plural(history.checks.length, "converter check")})`);
   }
   return done;
 }

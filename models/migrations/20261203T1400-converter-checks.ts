@@ -56,14 +56,17 @@ export async function up({ context: qi }: { context: QueryInterface }) {
 
   // A job measures either a take or a converter check.
   await qi.sequelize.query('ALTER TABLE analysis_jobs MODIFY takeId INT UNSIGNED NULL');
-  await qi.addColumn('analysis_jobs', 'converterCheckId', { ...ref('converter_checks', true, 'CASCADE'), unique: true });
+  await qi.addColumn('analysis_jobs', 'converterCheckId', { type: DataTypes.INTEGER.UNSIGNED, allowNull: true, unique: true });
+  await qi.addConstraint('analysis_jobs', { fields: ['converterCheckId'], type: 'foreign key', name: 'analysis_jobs_converter_check', references: { table: 'converter_checks', field: 'id' }, onDelete: 'CASCADE' });
 }
 
 export async function down({ context: qi }: { context: QueryInterface }) {
-  await qi.sequelize.query('DELETE FROM analysis_jobs WHERE takeId IS NULL');
-  await qi.removeColumn('analysis_jobs', 'converterCheckId');
+  await qi.bulkDelete('analysis_jobs', { takeId: null });
+  await qi.removeConstraint('analysis_jobs', 'analysis_jobs_converter_check');
+  // Plain SQL: Sequelize's removeColumn fails against the MariaDB driver here.
+  await qi.sequelize.query('ALTER TABLE analysis_jobs DROP COLUMN converterCheckId');
   await qi.sequelize.query('ALTER TABLE analysis_jobs MODIFY takeId INT UNSIGNED NOT NULL');
-  await qi.removeColumn('studios', 'converterCheckIntervalDays');
+  await qi.sequelize.query('ALTER TABLE studios DROP COLUMN converterCheckIntervalDays');
   await qi.dropTable('converter_thresholds');
   await qi.dropTable('converter_checks');
 }
