@@ -57,7 +57,7 @@ export async function up({ context: qi }: { context: QueryInterface }) {
   // A job measures either a take or a converter check.
   await qi.sequelize.query('ALTER TABLE analysis_jobs MODIFY takeId INT UNSIGNED NULL');
   await qi.addColumn('analysis_jobs', 'converterCheckId', { type: DataTypes.INTEGER.UNSIGNED, allowNull: true, unique: true });
-  await qi.addConstraint('analysis_jobs', { fields: ['converterCheckId'], type: 'foreign key', name: 'analysis_jobs_converter_check', references: { table: 'converter_checks', field: 'id' }, onDelete: 'CASCADE' });
+  await qi.addConstraint('analysis_jobs', { fields: ['converterCheckId'], type: 'foreign key', name: 'analysis_jobs_converter_check', references: { table: 'converter_checks', field: 'id' }, onDelete: 'CASCADE', onUpdate: 'CASCADE' });
 }
 
 export async function down({ context: qi }: { context: QueryInterface }) {
