@@ -15,6 +15,13 @@ const FLOOR_DB = -30;
 
 const hzLabel = (hz: number) => (hz >= 1000 ? formatKhz(Math.round(hz / 10) * 10) : `${Math.round(hz)} Hz`);
 
+/** Labels 1, 2 and 5 × 10ⁿ Hz on the logarithmic axis; the other grid lines stay unlabelled. */
+function tickLabel(hz: number | null): string {
+  if (hz === null || !(hz > 0)) return '';
+  const lead = hz / 10 ** Math.floor(Math.log10(hz) + 1e-9);
+  return [1, 2, 5].some((d) => Math.abs(lead - d) < 1e-6) ? hzLabel(hz) : '';
+}
+
 function seriesOf(report: ConverterReport, baseline: ConverterReport | null, colors: ThemeColors) {
   const count = report.channels.length;
   const grid = report.channels.find((c) => c.frequencyResponse)?.frequencyResponse?.hz ?? [];
@@ -57,7 +64,7 @@ export function ResponsePlot({ report, baseline }: { report: ConverterReport; ba
         height: 280,
         scales: { x: { time: false, distr: 3 }, y: { range: [bottom, top] } },
         axes: [
-          { ...axis, label: 'Frequency', values: (_u, ticks) => ticks.map(hzLabel) },
+          { ...axis, label: 'Frequency', values: (_u, ticks) => ticks.map(tickLabel) },
           { ...axis, label: 'dB re 997 Hz', size: 56 },
         ],
         series: [
