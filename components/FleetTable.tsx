@@ -7,10 +7,12 @@ import { type ApiError } from '@/lib/http/fetcher';
 import { FLEET_PERIODS, PERIOD_LABEL, type FleetPeriod, type FleetRow } from '@/lib/fleet/views';
 import { fleetKey } from '@/lib/http/swrKeys';
 import { Sparkline } from './Sparkline';
-import { formatMeasure } from '@/lib/format';
 import { FormMessage } from './FormMessage';
+import { LastCheckCell } from './converter/LastCheckCell';
+import { formatMeasure } from '@/lib/format';
 
-type SortKey = 'label' | 'takes' | 'medianFloorDbfs' | 'clippedShare' | 'minEffectiveBits' | 'overTakes' | 'rateMismatchTakes' | 'aliasingTakes' | 'rejectRate' | 'alerts';
+
+type SortKey = 'label' | 'takes' | 'medianFloorDbfs' | 'clippedShare' | 'minEffectiveBits' | 'overTakes' | 'rateMismatchTakes' | 'aliasingTakes' | 'rejectRate' | 'converterCheck' | 'alerts';
 
 const COLUMNS: { key: SortKey; label: string; unit?: string; title: string }[] = [
   { key: 'label', label: 'Recorder', title: 'Label, make and model' },
@@ -22,10 +24,16 @@ const COLUMNS: { key: SortKey; label: string; unit?: string; title: string }[] =
   { key: 'rateMismatchTakes', label: 'Rate mismatch', unit: 'takes', title: 'Takes whose audio disagrees with the declared sample rate' },
   { key: 'aliasingTakes', label: 'Aliasing risk', unit: 'takes', title: 'Takes with energy up to Nyquist and no filter roll-off' },
   { key: 'rejectRate', label: 'Rejected', unit: '% of decided', title: 'Share of decided takes a producer rejected' },
-  { key: 'alerts', label: 'Alerts', title: 'Open alerts of the last 14 days' },
+  { key: 'converterCheck', label: 'Converter check', unit: 'last', title: 'Date and result of the latest converter check' },
+  { key: 'alerts', label: 'Alerts', title: 'Open alerts: the last 14 days of takes, and the latest converter check' },
 ];
 
-const sortValue = (r: FleetRow, key: SortKey): number | string | null => (key === 'alerts' ? r.alerts.length : key === 'label' ? r.label.toLowerCase() : r[key]);
+function sortValue(r: FleetRow, key: SortKey): number | string | null {
+  if (key === 'alerts') return r.alerts.length;
+  if (key === 'label') return r.label.toLowerCase();
+  if (key === 'converterCheck') return r.converterCheck ? Date.parse(r.converterCheck.measuredAt) : null;
+  return r[key];
+}
 const pct = (x: number | null) => (x === null ? '—' : `${(100 * x).toFixed(x < 0.1 && x > 0 ? 1 : 0)} %`);
 const count = (n: number) => (n === 0 ? '0' : `▲ ${n}`);
 
@@ -114,6 +122,9 @@ export function FleetTable({ initialPeriod }: { initialPeriod: FleetPeriod }) {
                   <td className="px-3 py-2 font-mono">{count(r.rateMismatchTakes)}</td>
                   <td className="px-3 py-2 font-mono">{count(r.aliasingTakes)}</td>
                   <td className="px-3 py-2 font-mono">{pct(r.rejectRate)}</td>
+                  <td className="px-3 py-2" data-col="converterCheck">
+                    <LastCheckCell check={r.converterCheck} />
+                  </td>
                   <td className="px-3 py-2">
                     {r.alerts.length === 0 ? (
                       <span className="text-muted">● None</span>

@@ -3,10 +3,12 @@ import { DataTypes, Model, type CreationOptional, type InferAttributes, type Inf
 export const JOB_STATES = ['queued', 'running', 'done', 'failed'] as const;
 export type JobState = (typeof JOB_STATES)[number];
 
-/** A request to measure one take, claimed by a worker with SELECT … FOR UPDATE SKIP LOCKED. */
+/** A request to measure one take or one converter check, claimed by a worker with SELECT … FOR UPDATE SKIP LOCKED. */
 export class AnalysisJob extends Model<InferAttributes<AnalysisJob>, InferCreationAttributes<AnalysisJob>> {
   declare id: CreationOptional<number>;
-  declare takeId: number;
+  /** Exactly one of takeId and converterCheckId is set. */
+  declare takeId: number | null;
+  declare converterCheckId: CreationOptional<number | null>;
   declare state: CreationOptional<JobState>;
   declare attempts: CreationOptional<number>;
   declare workerId: string | null;
@@ -20,7 +22,8 @@ export function initAnalysisJob(sequelize: Sequelize) {
   AnalysisJob.init(
     {
       id: { type: DataTypes.BIGINT.UNSIGNED, autoIncrement: true, primaryKey: true },
-      takeId: { type: DataTypes.INTEGER.UNSIGNED, allowNull: false },
+      takeId: { type: DataTypes.INTEGER.UNSIGNED, allowNull: true },
+      converterCheckId: { type: DataTypes.INTEGER.UNSIGNED, allowNull: true, defaultValue: null },
       state: { type: DataTypes.ENUM(...JOB_STATES), allowNull: false, defaultValue: 'queued' },
       attempts: { type: DataTypes.INTEGER.UNSIGNED, allowNull: false, defaultValue: 0 },
       workerId: { type: DataTypes.STRING(120), allowNull: true },

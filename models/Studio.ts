@@ -3,6 +3,8 @@ import { DataTypes, Model, type CreationOptional, type InferAttributes, type Inf
 export class Studio extends Model<InferAttributes<Studio>, InferCreationAttributes<Studio>> {
   declare id: CreationOptional<number>;
   declare name: string;
+  /** Days after which a recorder's converter check is overdue. */
+  declare converterCheckIntervalDays: CreationOptional<number>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 }
@@ -12,6 +14,7 @@ export function initStudio(sequelize: Sequelize) {
     {
       id: { type: DataTypes.INTEGER.UNSIGNED, autoIncrement: true, primaryKey: true },
       name: { type: DataTypes.STRING(160), allowNull: false },
+      converterCheckIntervalDays: { type: DataTypes.SMALLINT.UNSIGNED, allowNull: false, defaultValue: 90 },
       createdAt: DataTypes.DATE,
       updatedAt: DataTypes.DATE,
     },

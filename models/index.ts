@@ -1,6 +1,8 @@
 import type { Sequelize } from 'sequelize';
 import { AnalysisJob, initAnalysisJob } from './AnalysisJob';
 import { AuditEvent, initAuditEvent } from './AuditEvent';
+import { ConverterCheck, initConverterCheck } from './ConverterCheck';
+import { ConverterThresholdSet, initConverterThresholdSet } from './ConverterThresholdSet';
 import { DeliverySpec, initDeliverySpec } from './DeliverySpec';
 import { Invitation, initInvitation } from './Invitation';
 import { MailDelivery, initMailDelivery } from './MailDelivery';
@@ -11,11 +13,11 @@ import { Take, initTake } from './Take';
 import { TakeComment, initTakeComment } from './TakeComment';
 import { User, initUser } from './User';
 
-export { AnalysisJob, AuditEvent, DeliverySpec, Invitation, MailDelivery, Recorder, RecordingSession, Studio, Take, TakeComment, User };
+export { AnalysisJob, AuditEvent, ConverterCheck, ConverterThresholdSet, DeliverySpec, Invitation, MailDelivery, Recorder, RecordingSession, Studio, Take, TakeComment, User };
 
 /** Defines every model on `sequelize` and wires the associations, once. */
 export function initModels(sequelize: Sequelize) {
-  for (const init of [initStudio, initUser, initRecorder, initDeliverySpec, initRecordingSession, initTake, initAuditEvent, initAnalysisJob, initMailDelivery, initInvitation, initTakeComment]) {
+  for (const init of [initStudio, initUser, initRecorder, initDeliverySpec, initRecordingSession, initTake, initAuditEvent, initAnalysisJob, initMailDelivery, initInvitation, initTakeComment, initConverterCheck, initConverterThresholdSet]) {
     init(sequelize);
   }
   Studio.hasMany(User, { foreignKey: 'studioId' });
@@ -38,4 +40,8 @@ export function initModels(sequelize: Sequelize) {
   TakeComment.belongsTo(User, { foreignKey: 'authorId', as: 'author' });
   MailDelivery.belongsTo(User, { foreignKey: 'sentById', as: 'sentBy' });
   Invitation.belongsTo(User, { foreignKey: 'userId', as: 'user' });
+  ConverterCheck.belongsTo(Recorder, { foreignKey: 'recorderId', as: 'recorder' });
+  ConverterCheck.belongsTo(User, { foreignKey: 'uploadedById', as: 'uploadedBy' });
+  ConverterCheck.belongsTo(User, { foreignKey: 'baselineSetById', as: 'baselineSetBy' });
+  ConverterCheck.hasOne(AnalysisJob, { foreignKey: 'converterCheckId', as: 'job' });
 }

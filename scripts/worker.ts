@@ -1,10 +1,10 @@
-// The analysis worker: claims measurement jobs from MariaDB and runs the dsp pipeline on them.
+// The analysis worker: claims measurement jobs (takes and converter checks) from MariaDB and runs the dsp engine on them.
 // Any number may run, on this machine or others that reach the same database and storage.
 import os from 'node:os';
 import { randomBytes } from 'node:crypto';
 import { db } from '@/lib/db/connection.server';
 import { claimJob, requeueJob, type ClaimedJob } from '@/lib/jobs/queue.server';
-import { measureTake } from '@/lib/jobs/measure.server';
+import { describeJob, runJob } from '@/lib/jobs/run.server';
 
 const workerId = `${os.hostname()}:${process.pid}:${randomBytes(3).toString('hex')}`;
 const IDLE_POLL_MS = Number(process.env.WORKER_POLL_MS ?? 1000);
@@ -31,8 +31,8 @@ while (!stopping) {
       continue;
     }
     const started = Date.now();
-    const outcome = await measureTake(current, workerId);
-    console.log(`Take ${current.takeId}: ${outcome} in ${((Date.now() - started) / 1000).toFixed(1)} s`);
+    const outcome = await runJob(current, workerId);
+    console.log(`${describeJob(current)}: ${outcome} in ${((Date.now() - started) / 1000).toFixed(1)} s`);
     current = null;
   } catch (error) {
     // The database may be restarting: wait and try again rather than dying.

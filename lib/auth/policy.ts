@@ -18,6 +18,8 @@ export const CAPABILITIES = {
   'take:comment': ['producer', 'manager', 'engineer'],
   'report:send': ['producer', 'manager'],
   'recorder:manage': ['manager'],
+  /** Download the check signal, upload a recording of it and read the results (baselines, thresholds and the interval need recorder:manage). */
+  'converter:check': ['engineer', 'manager'],
   'spec:manage': ['manager'],
   /** The studio always keeps at least one active person with this capability. */
   'user:manage': ['manager'],

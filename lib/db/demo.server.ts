@@ -7,7 +7,8 @@ import type { Role } from '@/models/User';
 import type { Thresholds } from '@/models/DeliverySpec';
 
 // An invented scenario: a podcast and radio-drama studio and a second, unrelated studio.
-const HOME_STUDIO = 'Lanternfish Audio Works';
+export const DEMO_STUDIO_NAME = 'Lanternfish Audio Works';
+const HOME_STUDIO = DEMO_STUDIO_NAME;
 const OUTSIDE_STUDIO = 'Quarry Hill Post';
 
 const PEOPLE: { email: string; name: string; role: Role; studio: string }[] = [

@@ -50,7 +50,7 @@ export interface RecorderHealth {
   specMinEffectiveBits: number;
 }
 
-export type AlertKind = 'noise-drift' | 'low-bits' | 'preamp-clipping' | 'rate-mismatch';
+export type AlertKind = 'noise-drift' | 'low-bits' | 'preamp-clipping' | 'rate-mismatch' | 'converter-drift' | 'converter-overdue';
 
 export interface FleetAlert {
   recorderId: number;
@@ -121,4 +121,51 @@ export function recorderAlerts(h: RecorderHealth, settings: AlertSettings = DEFA
   }
 
   return alerts.sort((a, b) => (a.severity === b.severity ? 0 : a.severity === 'fail' ? -1 : 1));
+}
+
+/** What the converter alerts read of a recorder: its latest converter check and the studio's interval. */
+export interface ConverterCheckHealth {
+  recorderId: number;
+  label: string;
+  /** The latest measured check; null when the recorder was never checked (no alert: nothing to compare). */
+  latest: { checkId: number; measuredAt: string; drift: string[] } | null;
+  intervalDays: number;
+}
+
+const DAY_MS = 86_400_000;
+
+/** Whether a recorder's latest converter check is older than the studio's interval. */
+export function isCheckOverdue(measuredAt: string, intervalDays: number, now: Date): boolean {
+  return now.getTime() - new Date(measuredAt).getTime() > intervalDays * DAY_MS;
+}
+
+/**
+ * Converter alerts of one recorder: its latest check drifted from its baseline (the engine's
+ * judgement, lib/converterChecks), or it is overdue.
+ */
+export function converterAlerts(h: ConverterCheckHealth, now: Date): FleetAlert[] {
+  if (!h.latest) return [];
+  const base = { recorderId: h.recorderId, label: h.label };
+  const day = h.latest.measuredAt.slice(0, 10);
+  const alerts: FleetAlert[] = [];
+  if (h.latest.drift.length > 0) {
+    const more = h.latest.drift.length - 1;
+    alerts.push({
+      ...base,
+      kind: 'converter-drift',
+      severity: 'warn',
+      title: 'Converter drifted from its baseline',
+      message: `The converter check of ${day} differs from this recorder’s baseline: ${h.latest.drift[0]}${more > 0 ? ` Also ${plural(more, 'other change')}.` : ''} Open the check for the figures.`,
+    });
+  }
+  if (isCheckOverdue(h.latest.measuredAt, h.intervalDays, now)) {
+    alerts.push({
+      ...base,
+      kind: 'converter-overdue',
+      severity: 'warn',
+      title: 'Converter check overdue',
+      message: `The converter was last checked on ${day}, more than the studio’s ${h.intervalDays} days ago. Check it again from the recorder’s converter page.`,
+    });
+  }
+  return alerts;
 }

@@ -3,7 +3,9 @@ import { QueryTypes } from 'sequelize';
 import { DEFAULT_SPEC } from '@/dsp/spec';
 import { DeliverySpec, Recorder } from '@/models';
 import { db } from '@/lib/db/connection.server';
-import { DEFAULT_ALERT_SETTINGS, recorderAlerts, type AlertSettings, type FleetAlert, type RecorderHealth } from './alerts';
+import { DEFAULT_ALERT_SETTINGS, converterAlerts, recorderAlerts, type AlertSettings, type FleetAlert, type RecorderHealth } from './alerts';
+import { latestChecks, toLastCheck } from '@/lib/converterChecks/fleet.server';
+import { converterCheckIntervalDays } from '@/lib/converterChecks/service.server';
 import { findRecorder, getRecorder } from '@/lib/recorders/service.server';
 import type { FleetPeriod, FleetRow, RecentTake, RecorderTrendWeek, WeekPoint } from './views';
 import type { Actor } from '@/lib/auth/views';
@@ -157,10 +159,19 @@ export async function fleetAlerts(actor: Actor, options: { now?: Date; recorderI
     where: { studioId: actor.studioId, active: true, ...(options.recorderId ? { id: options.recorderId } : {}) },
     attributes: ['id', 'label'],
   });
-  const health = await recorderHealth(actor.studioId, options.now, DEFAULT_ALERT_SETTINGS, options.recorderId);
+  const now = options.now ?? new Date();
+  const [health, checks, intervalDays] = await Promise.all([
+    recorderHealth(actor.studioId, now, DEFAULT_ALERT_SETTINGS, options.recorderId),
+    latestChecks(actor.studioId, options.recorderId),
+    converterCheckIntervalDays(actor.studioId),
+  ]);
   const alerts = recorders.flatMap((r) => {
     const h = health.get(r.id);
-    return h ? recorderAlerts({ ...h, label: r.label }) : [];
+    const latest = checks.get(r.id);
+    return [
+      ...(h ? recorderAlerts({ ...h, label: r.label }) : []),
+      ...converterAlerts({ recorderId: r.id, label: r.label, intervalDays, latest: latest ? { checkId: latest.checkId, measuredAt: latest.measuredAt.toISOString(), drift: latest.drift } : null }, now),
+    ];
   });
   return alerts.sort((a, b) => (a.severity === b.severity ? a.label.localeCompare(b.label) : a.severity === 'fail' ? -1 : 1));
 }
@@ -169,11 +180,13 @@ export async function fleetAlerts(actor: Actor, options: { now?: Date; recorderI
 export async function fleetOverview(actor: Actor, period: FleetPeriod, now = new Date()): Promise<{ period: FleetPeriod; from: string | null; recorders: FleetRow[] }> {
   db();
   const from = since(period, now);
-  const [recorders, aggregates, weeks, alerts] = await Promise.all([
+  const [recorders, aggregates, weeks, alerts, checks, intervalDays] = await Promise.all([
     Recorder.findAll({ where: { studioId: actor.studioId }, attributes: ['id', 'label', 'makeModel', 'location', 'active'], order: [['label', 'ASC']] }),
     periodAggregates(actor.studioId, from, now),
     weeklyFloors(actor.studioId, from, now),
     fleetAlerts(actor, { now }),
+    latestChecks(actor.studioId),
+    converterCheckIntervalDays(actor.studioId),
   ]);
   const rows: FleetRow[] = [];
   for (const r of recorders) {
@@ -181,6 +194,7 @@ export async function fleetOverview(actor: Actor, period: FleetPeriod, now = new
     if (!r.active && !a) continue;
     const takes = int(a?.takes);
     const decided = int(a?.decided);
+    const check = checks.get(r.id);
     rows.push({
       id: r.id,
       label: r.label,
@@ -198,6 +212,7 @@ export async function fleetOverview(actor: Actor, period: FleetPeriod, now = new
       decided,
       weeks: weeks.get(r.id) ?? [],
       alerts: alerts.filter((x) => x.recorderId === r.id),
+      converterCheck: check ? toLastCheck(check, intervalDays, now) : null,
     });
   }
   return { period, from: from?.toISOString() ?? null, recorders: rows };

@@ -1,4 +1,5 @@
 import type { FleetAlert } from './alerts';
+import type { LastConverterCheck } from '@/lib/converterChecks/views';
 
 /** Shapes of the fleet statistics, safe to import from client components. */
 export const FLEET_PERIODS = [7, 30, 90, 'all'] as const;
@@ -40,6 +41,8 @@ export interface FleetRow {
   decided: number;
   weeks: WeekPoint[];
   alerts: FleetAlert[];
+  /** The recorder's latest measured converter check; null when it was never checked. */
+  converterCheck: LastConverterCheck | null;
 }
 
 export interface RecentTake {

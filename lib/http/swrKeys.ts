@@ -28,3 +28,11 @@ export function takeCommentsKey(takeId: number): string {
 export function fleetKey(period: FleetPeriod): string {
   return `/api/fleet?days=${period}`;
 }
+
+export function recorderChecksKey(recorderId: number): string {
+  return `/api/recorders/${recorderId}/converter-checks`;
+}
+
+export function converterCheckKey(checkId: number): string {
+  return `/api/converter-checks/${checkId}`;
+}

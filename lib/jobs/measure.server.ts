@@ -34,7 +34,7 @@ export async function matchRecorder(studioId: number, bext: BextInfo | null): Pr
  * queue until MAX_ATTEMPTS, then ends the take as `unreadable` with a plain explanation.
  */
 export async function measureTake(job: ClaimedJob, workerId: string): Promise<'measured' | 'unreadable' | 'requeued' | 'lost'> {
-  const take = await Take.findByPk(job.takeId, { attributes: { exclude: ['report'] } });
+  const take = job.takeId === null ? null : await Take.findByPk(job.takeId, { attributes: { exclude: ['report'] } });
   if (!take) {
     await finishJob(job, 'failed', 'The take was deleted.');
     return 'unreadable';

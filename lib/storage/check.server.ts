@@ -1,10 +1,10 @@
 import 'server-only';
-import { Take } from '@/models';
+import { ConverterCheck, Take } from '@/models';
 import { ensureDb } from '@/lib/db/connection.server';
 import { storage } from './storage.server';
 
 export interface StorageReport {
-  /** Stored objects no take refers to (left by a crash, or written while the check ran). */
+  /** Stored objects no take or converter check refers to (left by a crash, or written while the check ran). */
   filesWithoutRows: string[];
   /** Takes whose audio object is missing. */
   rowsWithoutFiles: { takeId: number; key: string }[];
@@ -14,7 +14,7 @@ export interface StorageReport {
   takes: number;
 }
 
-/** Compares what storage holds with what the takes table refers to. */
+/** Compares what storage holds with what the takes and converter checks refer to. */
 export async function checkStorage(): Promise<StorageReport> {
   ensureDb();
   const takes = await Take.findAll({ attributes: ['id', 'storageKey', 'peaksKey'], raw: true });
@@ -23,6 +23,7 @@ export async function checkStorage(): Promise<StorageReport> {
     referenced.add(t.storageKey);
     if (t.peaksKey) referenced.add(t.peaksKey);
   }
+  for (const c of await ConverterCheck.findAll({ attributes: ['storageKey'], raw: true })) referenced.add(c.storageKey);
   const present = new Set<string>();
   for await (const key of storage().list()) present.add(key);
   const partialWrites: string[] = [];

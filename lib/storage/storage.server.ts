@@ -64,6 +64,12 @@ export function newTakeKey(now = new Date()): string {
   return `takes/${month}/${randomUUID()}.wav`;
 }
 
+/** A fresh key for an uploaded converter-check recording. */
+export function newConverterCheckKey(now = new Date()): string {
+  const month = `${now.getUTCFullYear()}/${String(now.getUTCMonth() + 1).padStart(2, '0')}`;
+  return `converter-checks/${month}/${randomUUID()}.wav`;
+}
+
 /** The waveform peaks file that belongs to a take's audio key. */
 export function peaksKeyFor(takeKey: string): string {
   return takeKey.replace(/^takes\//, 'peaks/').replace(/\.wav$/, '.peaks');

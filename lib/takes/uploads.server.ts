@@ -97,26 +97,24 @@ export interface StoredFile {
 }
 
 /**
- * Receives the WAV files of a multipart upload (field `file`, any number; optional field
- * `recorderId` before the files) straight into storage while hashing them, then records
- * one take and one analysis job per file. All or nothing: if any part is refused or the
- * upload is cut off, every file of this request is removed again and no take is recorded.
+ * Streams the WAV files of a multipart upload (field `file`, at most `maxFiles`) straight into
+ * storage under fresh keys while hashing them, and returns them with the text fields sent before
+ * them. All or nothing: if any part is refused or the upload is cut off, every file already
+ * stored is removed again.
  */
-export async function receiveTakes(actor: Actor, sessionId: number, request: Request): Promise<TakeSummary[]> {
-  const session = await findSession(actor, sessionId);
-  if (session.status === 'closed') throw new AppError('conflict:session_closed', 'This session is closed. Reopen it to add takes.');
+export async function storeWavParts(request: Request, options: { newKey: () => string; maxFiles: number }): Promise<{ files: StoredFile[]; fields: Record<string, string> }> {
   const contentType = request.headers.get('content-type') ?? '';
   if (!contentType.startsWith('multipart/form-data') || !request.body) {
-    throw new AppError('invalid:upload', 'Send the takes as multipart/form-data with one or more `file` fields.');
+    throw new AppError('invalid:upload', 'Send the files as multipart/form-data with `file` fields.');
   }
   const maxBytes = env().UPLOAD_MAX_BYTES;
   const declaredLength = Number(request.headers.get('content-length') ?? NaN);
-  if (Number.isFinite(declaredLength) && declaredLength > maxBytes * MAX_FILES + MULTIPART_OVERHEAD) {
+  if (Number.isFinite(declaredLength) && declaredLength > maxBytes * options.maxFiles + MULTIPART_OVERHEAD) {
     throw new AppError('too_large:upload', `This upload is larger than the ${formatBytes(maxBytes)} per file this studio accepts.`);
   }
 
   const stored: StoredFile[] = [];
-  let recorderId: number | null = null;
+  const fields: Record<string, string> = {};
   // Each file's write, in order; files still being written when the request fails are stopped.
   let chain = Promise.resolve();
   const writing = new Set<UploadCheck>();
@@ -137,18 +135,18 @@ export async function receiveTakes(actor: Actor, sessionId: number, request: Req
       try {
         // preservePath: keep the name as sent (it is only shown); busboy would otherwise cut it at the last slash.
         // defParamCharset: browsers send file names as UTF-8.
-        parser = busboy({ headers: { 'content-type': contentType }, preservePath: true, defParamCharset: 'utf8', limits: { files: MAX_FILES, fields: MAX_FIELDS, fieldSize: MAX_FIELD_BYTES } });
+        parser = busboy({ headers: { 'content-type': contentType }, preservePath: true, defParamCharset: 'utf8', limits: { files: options.maxFiles, fields: MAX_FIELDS, fieldSize: MAX_FIELD_BYTES } });
       } catch {
         throw new AppError('invalid:upload', 'The multipart body could not be read.');
       }
       const source = Readable.fromWeb(request.body as WebReadableStream);
       source.on('error', () => fail(cutOff()));
-      parser.on('filesLimit', () => fail(new AppError('invalid:upload_files', `This upload holds more than ${MAX_FILES} files; Takeproof takes at most ${MAX_FILES} in one request. Nothing was kept: send the files in several uploads.`)));
+      parser.on('filesLimit', () => fail(new AppError('invalid:upload_files', `This upload holds more than ${options.maxFiles} files; Takeproof takes at most ${options.maxFiles} in one request. Nothing was kept: send the files in several uploads.`)));
       parser.on('fieldsLimit', () => fail(new AppError('invalid:upload_fields', `This upload has more than ${MAX_FIELDS} form fields besides its files, so some (the recorder among them) would be lost. Nothing was kept: send only \`recorderId\` and the files.`)));
       parser.on('field', (name, value, info) => {
         if (info.nameTruncated || info.valueTruncated) {
           fail(new AppError('invalid:upload_fields', `The form field “${cleanFileName(name)}” is longer than the ${MAX_FIELD_BYTES} bytes Takeproof reads. Nothing was kept.`));
-        } else if (name === 'recorderId' && value !== '') recorderId = Number(value);
+        } else fields[name] = value;
       });
       parser.on('file', (field, file, info) => {
         if (settled) return void file.resume();
@@ -158,7 +156,7 @@ export async function receiveTakes(actor: Actor, sessionId: number, request: Req
           fail(new AppError('invalid:upload', `“${originalName}” was sent in the field \`${cleanFileName(field)}\`; send takes in fields named \`file\`. Nothing was kept.`));
           return;
         }
-        const key = newTakeKey();
+        const key = options.newKey();
         const check = new UploadCheck(maxBytes, originalName);
         // The check's own refusal (not WAV, too large, cut off) is the one to report, not what storage makes of
         // the ended stream; a storage fault comes back from put(). Listening also keeps the error handled.
@@ -196,10 +194,29 @@ export async function receiveTakes(actor: Actor, sessionId: number, request: Req
       source.pipe(parser);
     });
     if (stored.length === 0) throw new AppError('invalid:upload', 'No WAV file was found in the upload (use the field name `file`).');
-    return await recordTakes(actor, sessionId, stored, recorderId);
+    return { files: stored, fields };
   } catch (error) {
     await chain.catch(() => undefined); // a write that was stopped has settled, and a finished one is listed in `stored`
     await Promise.all(stored.map((f) => storage().delete(f.key)));
+    throw error;
+  }
+}
+
+/**
+ * Receives the WAV files of a multipart upload (field `file`, any number; optional field
+ * `recorderId` before the files) into storage, then records one take and one analysis job per
+ * file. All or nothing: if any part is refused, every file of this request is removed again and
+ * no take is recorded.
+ */
+export async function receiveTakes(actor: Actor, sessionId: number, request: Request): Promise<TakeSummary[]> {
+  const session = await findSession(actor, sessionId);
+  if (session.status === 'closed') throw new AppError('conflict:session_closed', 'This session is closed. Reopen it to add takes.');
+  const { files, fields } = await storeWavParts(request, { newKey: () => newTakeKey(), maxFiles: MAX_FILES });
+  const recorderId = fields.recorderId ? Number(fields.recorderId) : null;
+  try {
+    return await recordTakes(actor, sessionId, files, recorderId);
+  } catch (error) {
+    await Promise.all(files.map((f) => storage().delete(f.key)));
     throw error;
   }
 }

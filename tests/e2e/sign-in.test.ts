@@ -42,9 +42,9 @@ describe('signing in through the browser', () => {
   });
 
   const expectedNav = {
-    engineer: { shows: ['Overview', 'Sessions'], role: 'Engineer' },
+    engineer: { shows: ['Overview', 'Sessions', 'Converter checks'], role: 'Engineer' },
     producer: { shows: ['Overview', 'Sessions'], role: 'Producer' },
-    manager: { shows: ['Overview', 'Sessions', 'Fleet', 'Delivery specs', 'Team', 'Audit log', 'Outbox'], role: 'Studio manager' },
+    manager: { shows: ['Overview', 'Sessions', 'Fleet', 'Converter checks', 'Delivery specs', 'Team', 'Audit log', 'Outbox'], role: 'Studio manager' },
   } as const;
 
   for (const person of ['engineer', 'producer', 'manager'] as const) {

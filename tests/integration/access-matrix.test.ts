@@ -2,6 +2,7 @@ import { readFileSync, readdirSync, statSync } from 'node:fs';
 import path from 'node:path';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { signedInAll, type Client } from '../support/http';
+import { DEFAULT_CONVERTER_THRESHOLDS } from '@/dsp/converter/thresholds';
 import { makeWav, newSession, uploadTakes, waitForTake } from '../support/takes';
 
 /**
@@ -14,6 +15,7 @@ const PERSONAS: Persona[] = ['anonymous', 'outsider', 'engineer', 'producer', 'm
 
 interface Fixtures {
   sessionId: number;
+  converterCheckId: number;
   takeId: number;
   recorderId: number;
   specId: number;
@@ -36,6 +38,8 @@ const anyone = { anonymous: 401, outsider: 200, engineer: 200, producer: 200, ma
 const studioObject = { anonymous: 401, outsider: 404, engineer: 200, producer: 200, manager: 200 };
 const managersOnly = { anonymous: 401, outsider: 200, engineer: 403, producer: 403, manager: 200 };
 const managersObject = { anonymous: 401, outsider: 404, engineer: 403, producer: 403, manager: 200 };
+// Converter checks: engineers and managers of the studio (capability converter:check).
+const checkersObject = { anonymous: 401, outsider: 404, engineer: 200, producer: 403, manager: 200 };
 let uniq = 0;
 const unique = (who: Persona) => `${who}-${Date.now().toString(36)}-${uniq++}`;
 
@@ -84,6 +88,23 @@ const MATRIX: Record<string, Row> = {
   'GET /api/recorders/[id]': { path: (f) => `/api/recorders/${f.recorderId}`, expect: managersObject },
   'PATCH /api/recorders/[id]': { path: (f) => `/api/recorders/${f.recorderId}`, body: () => ({ notes: 'Checked by the access matrix.' }), expect: managersObject },
 
+  // The smallest signal there is (32 kHz, 16-bit mono), so each download stays short.
+  'GET /api/recorders/[id]/converter-signal': { path: (f) => `/api/recorders/${f.recorderId}/converter-signal?rate=32000&bits=16&channels=1`, expect: checkersObject },
+  'GET /api/recorders/[id]/converter-checks': { path: (f) => `/api/recorders/${f.recorderId}/converter-checks`, expect: checkersObject },
+  'POST /api/recorders/[id]/converter-checks': {
+    path: (f) => `/api/recorders/${f.recorderId}/converter-checks`,
+    form: (who) => {
+      const form = new FormData();
+      form.append('file', new Blob([new Uint8Array(makeWav({ seconds: 0.2, seed: 4100 + PERSONAS.indexOf(who) }))]), `${who}-check.wav`);
+      return form;
+    },
+    expect: { ...checkersObject, engineer: 201, manager: 201 },
+  },
+  'PUT /api/recorders/[id]/converter-thresholds': { path: (f) => `/api/recorders/${f.recorderId}/converter-thresholds`, body: () => ({ thresholds: DEFAULT_CONVERTER_THRESHOLDS }), expect: managersObject },
+  'GET /api/converter-checks/[id]': { path: (f) => `/api/converter-checks/${f.converterCheckId}`, expect: checkersObject },
+  // The fixture's recording holds no check signal, so even a manager cannot make it the baseline.
+  'POST /api/converter-checks/[id]/baseline': { path: (f) => `/api/converter-checks/${f.converterCheckId}/baseline`, expect: { ...managersObject, manager: 409 } },
+
   'GET /api/specs': { path: () => '/api/specs', expect: managersOnly },
   'POST /api/specs': { path: () => '/api/specs', body: (_f, who) => ({ name: `Matrix ${unique(who)}` }), expect: { ...managersOnly, outsider: 201, manager: 201 } },
   'GET /api/specs/[id]': { path: (f) => `/api/specs/${f.specId}`, expect: managersObject },
@@ -92,6 +113,7 @@ const MATRIX: Record<string, Row> = {
 
   'GET /api/fleet': { path: () => '/api/fleet?days=30', expect: managersOnly },
   'GET /api/fleet/[id]': { path: (f) => `/api/fleet/${f.recorderId}`, expect: managersObject },
+  'PATCH /api/fleet/settings': { path: () => '/api/fleet/settings', body: () => ({ converterCheckIntervalDays: 90 }), expect: managersOnly },
 
   'GET /api/users': { path: () => '/api/users', expect: managersOnly },
   'POST /api/users': { path: () => '/api/users', body: (_f, who) => ({ email: `matrix-${unique(who)}@demo.test`, name: 'Matrix invitee', role: 'engineer' }), expect: { ...managersOnly, outsider: 201, manager: 201 } },
@@ -137,13 +159,17 @@ beforeAll(async () => {
   const takeId = body.takes[0].id;
   await waitForTake(as.engineer, takeId);
   const post = async (client: Client, url: string, json: unknown) => (await client.fetch(url, { method: 'POST', json })).json();
-  const recorder = await post(as.manager, '/api/recorders', { label: `Matrix fixture ${unique('manager')}` });
+  const recorder = await post(as.manager, '/api/recorders', { label: `Matrix fixture ${unique('manager')}`, makeModel: `Matrix model ${unique('manager')}` });
+  const checkForm = new FormData();
+  checkForm.append('file', new Blob([new Uint8Array(makeWav({ seconds: 0.5, seed: 4099 }))]), 'matrix-check.wav');
+  const converterCheck = await (await as.engineer.fetch(`/api/recorders/${recorder.id}/converter-checks`, { method: 'POST', body: checkForm })).json();
   const spec = await post(as.manager, '/api/specs', { name: `Matrix fixture ${unique('manager')}` });
   const invited = await post(as.manager, '/api/users', { email: `matrix-fixture-${unique('manager')}@demo.test`, name: 'Matrix fixture', role: 'engineer' });
   const sent = await post(as.producer, `/api/sessions/${sessionId}/report`, { to: ['matrix-fixture@demo.test'] });
   const outbox = await (await as.manager.fetch('/api/outbox')).json();
   f = {
     sessionId,
+    converterCheckId: converterCheck.id,
     takeId,
     recorderId: recorder.id,
     specId: spec.id,

@@ -31,3 +31,13 @@ export function soxStats(path: string): Map<string, string[]> {
   }
   return rows;
 }
+
+/** `soxi` (sox --info) figures of a file: sample rate, bits per sample, channels and length in seconds. */
+export function soxInfo(path: string): { rate: number; bits: number; channels: number; seconds: number } {
+  const field = (flag: string) => {
+    const run = spawnSync('sox', ['--info', flag, path], { encoding: 'utf8' });
+    if (run.status !== 0) throw new Error(`sox --info exited with ${run.status}: ${run.stderr}`);
+    return Number(run.stdout.trim());
+  };
+  return { rate: field('-r'), bits: field('-b'), channels: field('-c'), seconds: field('-D') };
+}

@@ -35,6 +35,10 @@ export default async function RecorderTrendsPage({ params, searchParams }: { par
             {recorder.active ? '● In service' : '○ Retired'} ·{' '}
             <Link href={`/recorders/${recorder.id}`} className="text-accent underline">
               Edit
+            </Link>{' '}
+            ·{' '}
+            <Link href={`/recorders/${recorder.id}/converter`} className="text-accent underline">
+              Converter checks
             </Link>
           </p>
         </div>

@@ -24,6 +24,10 @@ export default async function RecorderEditPage({ params, searchParams }: { param
         {recorder.active ? '● In service' : '○ Retired'} · {recorder.takeCount} takes ·{' '}
         <Link href={`/fleet/${recorder.id}`} className="text-accent underline">
           Trends and alerts
+        </Link>{' '}
+        ·{' '}
+        <Link href={`/recorders/${recorder.id}/converter`} className="text-accent underline">
+          Check the converter
         </Link>
       </p>
       {created && (
