@@ -41,7 +41,7 @@ fi
 
 [ -f scripts/mail-catcher.ts ] && { "${RUN_TS[@]}" scripts/mail-catcher.ts & PIDS+=($!); }
 [ -f scripts/worker.ts ] && { "${RUN_TS[@]}" scripts/worker.ts & PIDS+=($!); }
-node node_modules/next/dist/bin/next start -H "$HOST" -p "$PORT" & PIDS+=($!)
+node --import tsx scripts/web-server.ts & PIDS+=($!)
 
 if wait_for_http "http://$HOST:$PORT/signin" 60; then
   echo

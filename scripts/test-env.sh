@@ -52,6 +52,6 @@ test_env_up() {
   npx next build > "$TEST_DIR/build.log" 2>&1 || { tail -60 "$TEST_DIR/build.log"; echo "next build failed" >&2; return 1; }
   "${RUN_TS[@]}" scripts/mail-catcher.ts > "$TEST_DIR/mail.log" 2>&1 & PIDS+=($!)
   "${RUN_TS[@]}" scripts/worker.ts > "$TEST_DIR/worker.log" 2>&1 & PIDS+=($!); export TAKEPROOF_WORKER_PID=$!
-  node node_modules/next/dist/bin/next start -H "$HOST" -p "$PORT" > "$TEST_DIR/server.log" 2>&1 & PIDS+=($!); export TAKEPROOF_SERVER_PID=$!
+  node --import tsx scripts/web-server.ts > "$TEST_DIR/server.log" 2>&1 & PIDS+=($!); export TAKEPROOF_SERVER_PID=$!
   wait_for_http "$TAKEPROOF_TEST_URL/signin" 60 || { tail -40 "$TEST_DIR/server.log"; echo "The test server did not start" >&2; return 1; }
 }

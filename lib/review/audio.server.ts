@@ -1,5 +1,5 @@
 import 'server-only';
-import { Readable } from 'node:stream';
+import type { Readable } from 'node:stream';
 import type { Actor } from '@/lib/auth/views';
 import { AppError } from '@/lib/errors';
 import { contentDisposition, contentRange, parseRange } from '@/lib/http/range';
@@ -12,6 +12,31 @@ export interface AudioRequest {
   range: string | null;
   ifRange: string | null;
   download: boolean;
+}
+
+/**
+ * A body stream that opens the stored file only when the body is first read, and closes it when the
+ * reader gives up. A HEAD answer, or a GET whose client leaves before the body starts, never reads
+ * it, so no file handle is left open behind it.
+ */
+function openOnFirstRead(open: () => Readable): ReadableStream<Uint8Array> {
+  let source: Readable | undefined;
+  let chunks: AsyncIterator<Buffer> | undefined;
+  return new ReadableStream<Uint8Array>(
+    {
+      async pull(controller) {
+        source ??= open();
+        chunks ??= source[Symbol.asyncIterator]();
+        const { done, value } = await chunks.next();
+        if (done) controller.close();
+        else controller.enqueue(new Uint8Array(value.buffer, value.byteOffset, value.byteLength));
+      },
+      cancel() {
+        source?.destroy();
+      },
+    },
+    { highWaterMark: 0 },
+  );
 }
 
 /**
@@ -33,7 +58,7 @@ export async function takeAudioStream(actor: Actor, id: number, request: AudioRe
     'Content-Type': 'audio/wav',
     'Accept-Ranges': 'bytes',
     'Content-Disposition': contentDisposition(take.originalName, request.download ? 'attachment' : 'inline'),
-    'Cache-Control': 'private, no-cache',
+    'Cache-Control': 'no-store',
     ETag: etag,
     'X-Content-Type-Options': 'nosniff',
   };
@@ -41,7 +66,7 @@ export async function takeAudioStream(actor: Actor, id: number, request: AudioRe
   // Content-Range tells a media element the full size.
   if (range.kind === 'partial') {
     headers['Content-Range'] = contentRange(range.start, range.end, size);
-    return { status: 206, headers, body: Readable.toWeb(storage().getRange(take.storageKey, { start: range.start, end: range.end })) as ReadableStream<Uint8Array> };
+    return { status: 206, headers, body: openOnFirstRead(() => storage().getRange(take.storageKey, { start: range.start, end: range.end })) };
   }
-  return { status: 200, headers, body: Readable.toWeb(storage().getRange(take.storageKey)) as ReadableStream<Uint8Array> };
+  return { status: 200, headers, body: openOnFirstRead(() => storage().getRange(take.storageKey)) };
 }

@@ -30,10 +30,12 @@ export class Client {
     }
   }
 
+  /** Like a browser, names the page's origin on every request that changes data (unless the test sets its own). */
   async fetch(path: string, init: RequestInit & { json?: unknown } = {}): Promise<Response> {
     const { json, ...rest } = init;
     const headers = new Headers(rest.headers);
     if (this.cookies.size) headers.set('cookie', this.cookieHeader());
+    if (!['GET', 'HEAD'].includes((rest.method ?? 'GET').toUpperCase()) && !headers.has('origin')) headers.set('origin', new URL(this.baseUrl).origin);
     if (json !== undefined) headers.set('content-type', 'application/json');
     const response = await fetch(this.baseUrl + path, { redirect: 'manual', ...rest, headers, body: json !== undefined ? JSON.stringify(json) : rest.body });
     this.keepCookies(response);
