@@ -36,8 +36,8 @@ const server = createServer({ maxHeaderSize: 32 * 1024 }, (request, response) =>
 });
 
 server.on('clientError', (error: NodeJS.ErrnoException, socket) => {
-  // A client that hangs up is routine; a request that cannot be parsed gets a short answer and one line.
-  if (error.code === 'ECONNRESET' || !socket.writable) {
+  // A client that hangs up (mid-request too) is routine; a request that cannot be parsed gets a short answer and one line.
+  if (error.code === 'ECONNRESET' || error.code === 'HPE_INVALID_EOF_STATE' || !socket.writable) {
     socket.destroy();
     return;
   }
