@@ -34,15 +34,15 @@ export function errorResponse(error: unknown): Response {
 const SAFE_METHODS = new Set(['GET', 'HEAD', 'OPTIONS']);
 
 /** The largest body a route reads before refusing it, for everything but uploads (forms, settings, sign-in). */
-export const MAX_BODY_BYTES = 256 * 1024;
+const MAX_BODY_BYTES = 256 * 1024;
 
 /** What a state-changing request may send: JSON (every route's default), a multipart upload, or next-auth's sign-in forms. */
 export type BodyKind = 'json' | 'multipart' | 'form';
 
-const ACCEPTED_TYPES: Record<BodyKind, RegExp> = {
-  json: /^application\/json\s*(;|$)/i,
-  multipart: /^multipart\/form-data\s*;/i,
-  form: /^(application\/x-www-form-urlencoded|application\/json)\s*(;|$)/i,
+const ACCEPTED_TYPES: Record<BodyKind, { type: RegExp; name: string }> = {
+  json: { type: /^application\/json\s*(;|$)/i, name: 'JSON (Content-Type: application/json)' },
+  multipart: { type: /^multipart\/form-data\s*;/i, name: 'multipart/form-data' },
+  form: { type: /^application\/x-www-form-urlencoded\s*(;|$)/i, name: 'a form (application/x-www-form-urlencoded)' },
 };
 
 const NOT_OWN_PAGE = 'Changes must come from Takeproof’s own pages.';
@@ -75,9 +75,8 @@ function hasBody(request: Request): boolean {
 function assertContentType(request: Request, kind: BodyKind): void {
   const type = request.headers.get('content-type');
   if (type === null && !hasBody(request)) return;
-  if (type !== null && ACCEPTED_TYPES[kind].test(type)) return;
-  const wanted = kind === 'multipart' ? 'multipart/form-data' : 'JSON (Content-Type: application/json)';
-  throw new AppError('unsupported:content_type', `Send the request body as ${wanted}.`);
+  if (type !== null && ACCEPTED_TYPES[kind].type.test(type)) return;
+  throw new AppError('unsupported:content_type', `Send the request body as ${ACCEPTED_TYPES[kind].name}.`);
 }
 
 const tooLarge = () => new AppError('too_large:body', `The request body is larger than Takeproof reads (${MAX_BODY_BYTES / 1024} KiB).`);
