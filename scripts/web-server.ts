@@ -46,4 +46,9 @@ server.on('clientError', (error: NodeJS.ErrnoException, socket) => {
   socket.end(`HTTP/1.1 ${status} ${STATUS_CODES[status]}\r\nConnection: close\r\nContent-Length: 0\r\n\r\n`);
 });
 
+// Idle connections stay open longer than the usual 60 s of a reverse proxy in front, so the proxy
+// never reuses one the server is closing [common practice]; headers must still arrive within 66 s.
+server.keepAliveTimeout = 65_000;
+server.headersTimeout = 66_000;
+
 server.listen(port, host, () => console.log(`Takeproof web server listening on http://${host}:${port}`));

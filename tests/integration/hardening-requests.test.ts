@@ -82,7 +82,7 @@ describe('bounded bodies', () => {
     const rssBefore = rssKb();
     const fiftyMb = 50 * 1024 * 1024;
     // Only 64 KiB of the declared 50 MB is ever sent.
-    expect(await postUnfinishedBody(`/api/sessions/${sessionId}`, 'application/json', fiftyMb, 64 * 1024, manager.cookieHeader())).toBe(413);
+    expect(await postUnfinishedBody(`/api/sessions/${sessionId}/report`, 'application/json', fiftyMb, 64 * 1024, manager.cookieHeader())).toBe(413);
     expect(await postUnfinishedBody('/api/auth/callback/credentials', 'application/x-www-form-urlencoded', fiftyMb, 64 * 1024)).toBe(413);
     // A chunked body names no length: it is refused once it passes the limit (256 KiB), unfinished.
     expect(await postUnfinishedBody('/api/sessions', 'application/json', null, 320 * 1024, manager.cookieHeader())).toBe(413);
