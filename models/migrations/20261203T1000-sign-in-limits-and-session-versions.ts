@@ -26,6 +26,9 @@ export async function up({ context: qi }: { context: QueryInterface }) {
 }
 
 export async function down({ context: qi }: { context: QueryInterface }) {
+  // Addresses unique across all studios again: refuse before changing anything while two studios share one.
+  const [shared] = await qi.sequelize.query('SELECT email FROM users GROUP BY email HAVING COUNT(*) > 1 LIMIT 1');
+  if ((shared as unknown[]).length) throw new Error('Cannot roll back: an e-mail address belongs to people of several studios; remove the extra invitations first.');
   await qi.removeIndex('users', 'users_active_email');
   await qi.removeColumn('users', 'activeEmail');
   await qi.removeIndex('users', 'users_studio_email');
