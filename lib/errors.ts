@@ -9,6 +9,7 @@ export const ERROR_KINDS = {
   unauthorized: { status: 401, message: 'Please sign in to continue.' },
   forbidden: { status: 403, message: 'Your role does not allow this.' },
   not_found: { status: 404, message: 'Nothing was found here.' },
+  not_allowed: { status: 405, message: 'This address does not take that kind of request.' },
   invalid: { status: 400, message: 'Some of what was sent is not valid.' },
   conflict: { status: 409, message: 'This clashes with something that already exists.' },
   too_large: { status: 413, message: 'The file is larger than this studio allows.' },

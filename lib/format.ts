@@ -40,14 +40,21 @@ export function parseClock(text: string): number | null {
   return parts.reduce((total, p) => total * 60 + p, 0);
 }
 
-/** The text without C0/C1 control characters (line breaks, tabs, escapes). */
+/**
+ * The text without C0/C1 control characters (line breaks, tabs, escapes), without the Unicode
+ * bidirectional controls that make `…\u202Evaw.bat` read as `…tab.wav` (Unicode UAX #9), and without
+ * halves of a UTF-16 surrogate pair (a name cut inside an emoji), which no database column keeps.
+ */
 export function withoutControlCharacters(text: string): string {
   // eslint-disable-next-line no-control-regex -- stripping control characters is the point
-  return text.replace(/[\u0000-\u001f\u007f-\u009f]/g, '');
+  return text.replace(/[\u0000-\u001f\u007f-\u009f\u061c\u200e\u200f\u202a-\u202e\u2066-\u2069]|[\uD800-\uDFFF]/gu, '');
 }
 
-/** Removes control characters and caps the length; a take's name is only ever shown, never used as a path. */
+/** Half of a UTF-16 surrogate pair standing alone (with the `u` flag, whole pairs do not match). */
+export const LONE_SURROGATE = /[\uD800-\uDFFF]/u;
+
+/** Removes control characters and caps the length at whole characters; a take's name is only ever shown, never used as a path. */
 export function cleanFileName(name: string): string {
   const cleaned = withoutControlCharacters(name).trim();
-  return (cleaned || 'unnamed.wav').slice(0, 512);
+  return Array.from(cleaned || 'unnamed.wav').slice(0, 512).join('');
 }

@@ -8,16 +8,17 @@ import { Invitation, initInvitation } from './Invitation';
 import { MailDelivery, initMailDelivery } from './MailDelivery';
 import { Recorder, initRecorder } from './Recorder';
 import { RecordingSession, initRecordingSession } from './RecordingSession';
+import { SignInFailure, initSignInFailure } from './SignInFailure';
 import { Studio, initStudio } from './Studio';
 import { Take, initTake } from './Take';
 import { TakeComment, initTakeComment } from './TakeComment';
 import { User, initUser } from './User';
 
-export { AnalysisJob, AuditEvent, ConverterCheck, ConverterThresholdSet, DeliverySpec, Invitation, MailDelivery, Recorder, RecordingSession, Studio, Take, TakeComment, User };
+export { AnalysisJob, AuditEvent, ConverterCheck, ConverterThresholdSet, DeliverySpec, Invitation, MailDelivery, Recorder, RecordingSession, SignInFailure, Studio, Take, TakeComment, User };
 
 /** Defines every model on `sequelize` and wires the associations, once. */
 export function initModels(sequelize: Sequelize) {
-  for (const init of [initStudio, initUser, initRecorder, initDeliverySpec, initRecordingSession, initTake, initAuditEvent, initAnalysisJob, initMailDelivery, initInvitation, initTakeComment, initConverterCheck, initConverterThresholdSet]) {
+  for (const init of [initStudio, initUser, initRecorder, initDeliverySpec, initRecordingSession, initTake, initAuditEvent, initAnalysisJob, initMailDelivery, initInvitation, initTakeComment, initConverterCheck, initConverterThresholdSet, initSignInFailure]) {
     init(sequelize);
   }
   Studio.hasMany(User, { foreignKey: 'studioId' });

@@ -59,7 +59,7 @@ async function main() {
     const csrfRes = await fetch(`${url}/api/auth/csrf`);
     keep(csrfRes);
     const { csrfToken } = (await csrfRes.json()) as { csrfToken: string };
-    keep(await fetch(`${url}/api/auth/callback/credentials`, { method: 'POST', redirect: 'manual', headers: { 'content-type': 'application/x-www-form-urlencoded', cookie: cookie() }, body: new URLSearchParams({ csrfToken, email, password, json: 'true' }) }));
+    keep(await fetch(`${url}/api/auth/callback/credentials`, { method: 'POST', redirect: 'manual', headers: { 'content-type': 'application/x-www-form-urlencoded', origin: new URL(url).origin, cookie: cookie() }, body: new URLSearchParams({ csrfToken, email, password, json: 'true' }) }));
     console.log('');
     for (const days of ['30', 'all']) {
       await time(`HTTP GET /api/fleet?days=${days}`, async () => {

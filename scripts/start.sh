@@ -43,7 +43,7 @@ fi
 [ -f scripts/mail-catcher.ts ] && { "${RUN_TS[@]}" scripts/mail-catcher.ts & PIDS+=($!); }
 [ "${STORAGE_DRIVER:-s3}" = s3 ] && [ -n "${S3_FAKE_DIR:-}" ] && start_s3_fake
 [ -f scripts/worker.ts ] && { "${RUN_TS[@]}" scripts/worker.ts & PIDS+=($!); }
-node node_modules/next/dist/bin/next start -H "$HOST" -p "$PORT" & PIDS+=($!)
+node --import tsx scripts/web-server.ts & PIDS+=($!)
 
 if wait_for_http "http://$HOST:$PORT/signin" 60; then
   echo

@@ -55,6 +55,6 @@ test_env_up() {
   "${RUN_TS[@]}" scripts/mail-catcher.ts > "$TEST_DIR/mail.log" 2>&1 & PIDS+=($!)
   start_s3_fake > "$TEST_DIR/s3.log" 2>&1 || { cat "$TEST_DIR/s3.log"; return 1; }
   "${RUN_TS[@]}" scripts/worker.ts > "$TEST_DIR/worker.log" 2>&1 & PIDS+=($!); export TAKEPROOF_WORKER_PID=$!
-  node node_modules/next/dist/bin/next start -H "$HOST" -p "$PORT" > "$TEST_DIR/server.log" 2>&1 & PIDS+=($!); export TAKEPROOF_SERVER_PID=$!
+  node --import tsx scripts/web-server.ts > "$TEST_DIR/server.log" 2>&1 & PIDS+=($!); export TAKEPROOF_SERVER_PID=$!
   wait_for_http "$TAKEPROOF_TEST_URL/signin" 60 || { tail -40 "$TEST_DIR/server.log"; echo "The test server did not start" >&2; return 1; }
 }

@@ -1,47 +1,20 @@
 /**
- * Counts failed sign-in attempts per key (an account's e-mail, a client address) in a sliding
- * window, and says how long a key must wait once it has used up its allowance.
- * Kept in the web process's memory: one limiter per server process.
+ * The sliding-window rule behind Takeproof's limits (failed sign-ins, reports sent): a key (an
+ * account at one address, an address, a person, a studio) may act `max` times in any `windowMs`;
+ * after that it waits until its oldest event that counts leaves the window. The events themselves
+ * live in the database, so every web instance applies the same counts.
  */
-export class AttemptLimiter {
-  private readonly failures = new Map<string, number[]>();
+export interface Allowance {
+  max: number;
+  windowMs: number;
+}
 
-  /**
-   * @param maxFailures failed attempts allowed inside the window
-   * @param windowMs length of the sliding window, ms
-   * @param now clock, ms (injectable for tests)
-   */
-  constructor(
-    readonly maxFailures: number,
-    readonly windowMs: number,
-    private readonly now: () => number = Date.now,
-  ) {
-    if (!(maxFailures >= 1) || !(windowMs > 0)) throw new Error('AttemptLimiter needs at least one allowed failure and a positive window');
-  }
-
-  private recent(key: string): number[] {
-    const cutoff = this.now() - this.windowMs;
-    const kept = (this.failures.get(key) ?? []).filter((t) => t > cutoff);
-    if (kept.length) this.failures.set(key, kept);
-    else this.failures.delete(key);
-    return kept;
-  }
-
-  /** Seconds until `key` may try again, or 0 when it may try now. */
-  retryAfterSec(key: string): number {
-    const recent = this.recent(key);
-    if (recent.length < this.maxFailures) return 0;
-    const oldestThatCounts = recent[recent.length - this.maxFailures];
-    return Math.max(1, Math.ceil((oldestThatCounts + this.windowMs - this.now()) / 1000));
-  }
-
-  fail(key: string): void {
-    const recent = this.recent(key);
-    recent.push(this.now());
-    this.failures.set(key, recent);
-  }
-
-  clear(key: string): void {
-    this.failures.delete(key);
-  }
+/** Seconds until a key with events at `times` (ms) may act again, or 0 when it may act now. */
+export function retryAfterSec(times: number[], allowance: Allowance, now: number): number {
+  const { max, windowMs } = allowance;
+  if (!(max >= 1) || !(windowMs > 0)) throw new Error('An allowance needs at least one allowed event and a positive window');
+  const recent = times.filter((t) => t > now - windowMs).sort((a, b) => a - b);
+  if (recent.length < max) return 0;
+  const oldestThatCounts = recent[recent.length - max];
+  return Math.max(1, Math.ceil((oldestThatCounts + windowMs - now) / 1000));
 }

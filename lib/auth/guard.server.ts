@@ -13,7 +13,8 @@ export async function currentActor(): Promise<Actor | null> {
   if (!session?.user?.id) return null;
   ensureDb();
   const user = await User.findByPk(session.user.id);
-  if (!user || !user.active) return null;
+  // A session issued before a sign-out, deactivation, new password or new role no longer counts.
+  if (!user || !user.active || user.sessionVersion !== (session.user.sessionVersion ?? 0)) return null;
   return { id: user.id, studioId: user.studioId, role: user.role, name: user.name, email: user.email };
 }
 

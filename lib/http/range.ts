@@ -65,21 +65,16 @@ export function contentRange(start: number, end: number, size: number): string {
 const MAX_NAME_CHARS = 180;
 
 /**
- * A file name safe to offer for saving: the last path segment only, no control
- * characters, no leading dots, at most 180 characters (the extension kept), never empty.
+ * A take's file name safe to offer for saving: the last path segment only, no control or
+ * bidirectional characters, no leading dots, at most 180 characters, never empty, and always
+ * ending in `.wav` — a take is a WAV file whatever extension it was uploaded with.
  */
-export function safeFileName(name: string, fallback = 'take.wav'): string {
+export function safeFileName(name: string): string {
   let base = withoutControlCharacters(name);
   base = base.split(/[/\\]/).pop() ?? '';
-  base = base.replace(/^[\s.]+/, '').trim();
-  if (!base) return fallback;
-  const chars = Array.from(base);
-  if (chars.length > MAX_NAME_CHARS) {
-    const dot = base.lastIndexOf('.');
-    const ext = dot > 0 && base.length - dot <= 8 ? base.slice(dot) : '';
-    base = chars.slice(0, MAX_NAME_CHARS - Array.from(ext).length).join('') + ext;
-  }
-  return base;
+  base = base.replace(/\.[^.\s]{1,8}$/, '').replace(/^[\s.]+|[\s.]+$/g, '');
+  const chars = Array.from(base || 'take').slice(0, MAX_NAME_CHARS - '.wav'.length);
+  return `${chars.join('')}.wav`;
 }
 
 /** RFC 5987 value-chars: everything else is percent-encoded from UTF-8. */

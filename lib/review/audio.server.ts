@@ -32,7 +32,7 @@ export async function takeAudioStream(actor: Actor, id: number, request: AudioRe
     'Content-Type': 'audio/wav',
     'Accept-Ranges': 'bytes',
     'Content-Disposition': contentDisposition(take.originalName, request.download ? 'attachment' : 'inline'),
-    'Cache-Control': 'private, no-cache',
+    'Cache-Control': 'no-store',
     ETag: etag,
     'X-Content-Type-Options': 'nosniff',
   };

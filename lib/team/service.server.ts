@@ -109,18 +109,22 @@ async function invitationMail(actor: Actor, user: User, token: string): Promise<
   };
 }
 
+function alreadyInTeam(invited: boolean): AppError {
+  return new AppError('conflict:user_email', invited ? 'This person is already invited. Use “Resend invitation” to send a new link.' : 'This address already belongs to someone in your team.', {
+    fields: { email: [invited ? 'Already invited' : 'Already in your team'] },
+  });
+}
+
+/** Another active account already uses this address (the database keeps one active account per address). */
+const isActiveAddressTaken = (error: unknown) => error instanceof UniqueConstraintError && 'users_active_email' in (error.fields ?? {});
+
 /** Creates an inactive account for `input.email` and e-mails them a single-use link to set a password. */
 export async function inviteMember(actor: Actor, input: InviteInput): Promise<{ member: TeamMember; delivery: DeliveryView }> {
   db();
-  const existing = await User.findOne({ where: { email: input.email } });
-  if (existing) {
-    const sameStudioInvite = existing.studioId === actor.studioId && statusOf(existing) === 'invited';
-    throw new AppError(
-      'conflict:user_email',
-      sameStudioInvite ? 'This person is already invited. Use “Resend invitation” to send a new link.' : 'This address already has a Takeproof account.',
-      { fields: { email: [sameStudioInvite ? 'Already invited' : 'This address already has an account'] } },
-    );
-  }
+  // Only this studio's people are looked at: whether another studio knows the address is never told
+  // (an address may be invited by several studios; it activates one account, see acceptInvitation).
+  const existing = await User.findOne({ where: { email: input.email, studioId: actor.studioId } });
+  if (existing) throw alreadyInTeam(statusOf(existing) === 'invited');
   let created: { user: User; token: string; delivery: MailDelivery };
   try {
     created = await db().transaction(async (transaction) => {
@@ -135,9 +139,7 @@ export async function inviteMember(actor: Actor, input: InviteInput): Promise<{ 
       return { user, token, delivery };
     });
   } catch (error) {
-    if (error instanceof UniqueConstraintError) {
-      throw new AppError('conflict:user_email', 'This address already has a Takeproof account.', { fields: { email: ['This address already has an account'] } });
-    }
+    if (error instanceof UniqueConstraintError) throw alreadyInTeam(false);
     throw error;
   }
   const delivery = await attemptDelivery(created.delivery, await invitationMail(actor, created.user, created.token));
@@ -182,7 +184,11 @@ export async function updateMember(actor: Actor, id: number, patch: UpdateUserIn
       throw new AppError('conflict:last_manager', 'The studio needs at least one active manager. Make someone else a manager first.');
     }
     const before = { role: user.role, active: user.active };
-    await user.update(changes, { transaction });
+    // A new role or a deactivation ends the person's earlier sessions.
+    await user.update({ ...changes, sessionVersion: user.sessionVersion + 1 }, { transaction }).catch((error: unknown) => {
+      if (isActiveAddressTaken(error)) throw new AppError('conflict:user_email', 'This address is now used by another active Takeproof account, so this one cannot be reactivated.');
+      throw error;
+    });
     if (changes.active === false) {
       await Invitation.update({ revokedAt: new Date() }, { where: { userId: user.id, usedAt: null, revokedAt: null }, transaction });
     }
@@ -221,7 +227,12 @@ export async function acceptInvitation(token: string, password: string): Promise
     const found = await lookUp(token, transaction);
     if (found.state !== 'valid') throw new AppError(`invalid:invitation_${found.state}`, INVITATION_REFUSED[found.state]);
     const { invitation, user } = found;
-    await user.update({ passwordHash, active: true }, { transaction });
+    await user.update({ passwordHash, active: true, sessionVersion: user.sessionVersion + 1 }, { transaction }).catch((error: unknown) => {
+      if (isActiveAddressTaken(error)) {
+        throw new AppError('conflict:account_exists', 'This address already has an active Takeproof account. Sign in with it, or ask for an invitation at another address.');
+      }
+      throw error;
+    });
     await invitation.update({ usedAt: new Date() }, { transaction });
     await Invitation.update({ revokedAt: new Date() }, { where: { userId: user.id, usedAt: null, revokedAt: null, id: { [Op.ne]: invitation.id } }, transaction });
     const self: Actor = { id: user.id, studioId: user.studioId, role: user.role, name: user.name, email: user.email };

@@ -1,7 +1,7 @@
 import { readFileSync, readdirSync, statSync } from 'node:fs';
 import path from 'node:path';
 import { beforeAll, describe, expect, it } from 'vitest';
-import { signedInAll, type Client } from '../support/http';
+import { BASE_URL, signedInAll, type Client } from '../support/http';
 import { DEFAULT_CONVERTER_THRESHOLDS } from '@/dsp/converter/thresholds';
 import { makeWav, newSession, uploadTakes, waitForTake } from '../support/takes';
 
@@ -28,6 +28,8 @@ interface Row {
   path: (f: Fixtures) => string;
   body?: (f: Fixtures, who: Persona) => unknown;
   form?: (who: Persona) => FormData;
+  /** An `application/x-www-form-urlencoded` body (next-auth's own forms). */
+  urlencoded?: () => string;
   /** Runs before each person's request (e.g. to wait until a take is measured again). */
   before?: (f: Fixtures) => Promise<void>;
   expect: Record<Persona, number>;
@@ -46,7 +48,7 @@ const unique = (who: Persona) => `${who}-${Date.now().toString(36)}-${uniq++}`;
 const MATRIX: Record<string, Row> = {
   'GET /api/auth/[...nextauth]': { path: () => '/api/auth/csrf', expect: { anonymous: 200, outsider: 200, engineer: 200, producer: 200, manager: 200 } },
   // Without its CSRF token next-auth signs nobody out: it redirects to its confirmation step, whoever asks.
-  'POST /api/auth/[...nextauth]': { path: () => '/api/auth/signout', body: () => ({}), expect: { anonymous: 302, outsider: 302, engineer: 302, producer: 302, manager: 302 } },
+  'POST /api/auth/[...nextauth]': { path: () => '/api/auth/signout', urlencoded: () => 'callbackUrl=%2Fsignin', expect: { anonymous: 302, outsider: 302, engineer: 302, producer: 302, manager: 302 } },
 
   'GET /api/sessions': { path: () => '/api/sessions', expect: anyone },
   'POST /api/sessions': { path: () => '/api/sessions', body: (_f, who) => ({ title: `Matrix ${unique(who)}` }), expect: { anonymous: 401, outsider: 201, engineer: 201, producer: 403, manager: 201 } },
@@ -149,6 +151,16 @@ function discoverRoutes(): string[] {
   return found.sort();
 }
 
+/** The request a row sends: its body in the kind its route reads. */
+function requestOf(row: Row, method: string, who: Persona): RequestInit & { json?: unknown } {
+  const init: RequestInit & { json?: unknown } = { method };
+  if (row.form) init.body = row.form(who);
+  else if (row.urlencoded) init.body = new URLSearchParams(row.urlencoded());
+  else if (row.body) init.json = row.body(f, who);
+  else if (method !== 'GET') init.json = {};
+  return init;
+}
+
 let as: Record<Persona, Client>;
 let f: Fixtures;
 
@@ -193,15 +205,64 @@ describe('access matrix', () => {
       const got: Record<string, number> = {};
       for (const who of PERSONAS) {
         await row.before?.(f);
-        const init: RequestInit & { json?: unknown } = { method };
-        if (row.form) init.body = row.form(who);
-        else if (row.body) init.json = row.body(f, who);
-        else if (method !== 'GET') init.json = {};
-        const response = await as[who].fetch(row.path(f), init);
+        const response = await as[who].fetch(row.path(f), requestOf(row, method, who));
         got[who] = response.status;
         await response.arrayBuffer();
       }
       expect(got).toEqual(row.expect);
+    });
+  }
+});
+
+/**
+ * Every state-changing route, for a signed-out visitor and for the person allowed the most: a
+ * request another site's page could make (a foreign or missing Origin, `Sec-Fetch-Site` other than
+ * same-origin) is refused with 403, a body of another kind than the route reads with 415, and a
+ * body over the limit with 413 — before the route does anything.
+ */
+describe('access matrix: changes come only from Takeproof’s own pages', () => {
+  const own = new URL(BASE_URL).origin;
+  const otherPort = `http://127.0.0.1:${Number(new URL(BASE_URL).port) + 1}`;
+  const bigJson = JSON.stringify({ notes: 'x'.repeat(400 * 1024) });
+
+  for (const [route, row] of Object.entries(MATRIX)) {
+    const method = route.split(' ')[0];
+    if (method === 'GET') continue;
+    it(`${route}: foreign or missing Origin 403, cross-site 403, wrong body type 415, oversized body 413`, async () => {
+      const got: Record<string, number> = {};
+      for (const who of ['anonymous', 'manager'] as const) {
+        // The body the route reads, sent with plain fetch: the test client would add the page's Origin itself.
+        const proper = (): { body: BodyInit; type?: string } => {
+          if (row.form) return { body: row.form(who) };
+          if (row.urlencoded) return { body: row.urlencoded(), type: 'application/x-www-form-urlencoded' };
+          return { body: JSON.stringify(row.body ? row.body(f, who) : {}), type: 'application/json' };
+        };
+        const send = async (label: string, headers: Record<string, string>, body?: string) => {
+          const { body: properBody, type } = proper();
+          const response = await fetch(BASE_URL + row.path(f), {
+            method,
+            redirect: 'manual',
+            headers: { ...(type ? { 'content-type': type } : {}), cookie: as[who].cookieHeader(), ...headers },
+            body: body ?? properBody,
+          });
+          got[`${who} ${label}`] = response.status;
+          await response.arrayBuffer();
+        };
+        await send('origin on another port', { origin: otherPort });
+        await send('origin of another site', { origin: 'https://takeproof-lookalike.demo.test' });
+        await send('origin null', { origin: 'null' });
+        await send('no origin', {});
+        await send('cross-site fetch', { origin: own, 'sec-fetch-site': 'cross-site' });
+        await send('same-site fetch', { origin: own, 'sec-fetch-site': 'same-site' });
+        await send('text/plain body', { origin: own, 'content-type': 'text/plain' }, '{}');
+        if (!row.urlencoded) await send('form body', { origin: own, 'content-type': 'application/x-www-form-urlencoded' }, 'a=1');
+        if (row.form) await send('JSON body', { origin: own, 'content-type': 'application/json' }, '{}');
+        else await send('oversized body', { origin: own, 'content-type': row.urlencoded ? 'application/x-www-form-urlencoded' : 'application/json' }, bigJson);
+      }
+      const expected = Object.fromEntries(
+        Object.keys(got).map((k) => [k, /origin|cross-site|same-site/.test(k) ? 403 : /oversized/.test(k) ? 413 : 415]),
+      );
+      expect(got).toEqual(expected);
     });
   }
 });

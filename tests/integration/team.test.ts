@@ -143,7 +143,7 @@ describe('inviting a person', () => {
     expect(bad.body.fields.name).toEqual(['Enter the person’s name']);
     const taken = await invite(as.manager, { email: 'producer@demo.test', name: 'Someone', role: 'producer' });
     expect(taken.status).toBe(409);
-    expect(taken.body.fields.email).toEqual(['This address already has an account']);
+    expect(taken.body.fields.email).toEqual(['Already in your team']);
   });
 });
 
@@ -164,25 +164,29 @@ describe('roles and deactivation', () => {
     expect((await patch(as.outsider, outsiderSelf.id, { role: 'engineer' })).status).toBe(409);
   });
 
-  it('changes a role, which takes effect at once, and deactivation stops sign-in', async () => {
+  it('changes a role, which ends earlier sessions and takes effect at the next sign-in, and deactivation stops sign-in', async () => {
     const email = uniqueAddress('promoted');
     const { body } = await invite(as.manager, { email, name: 'Ilse Marchetti', role: 'engineer' });
     await accept(await linkFor(email), 'quarter-inch-tape');
-    const person = (await canSignIn(email, 'quarter-inch-tape'))!;
-    expect((await person.fetch('/api/users')).status).toBe(403);
+    const before = (await canSignIn(email, 'quarter-inch-tape'))!;
+    expect((await before.fetch('/api/users')).status).toBe(403);
 
     const promoted = await patch(as.manager, body.member.id, { role: 'manager' });
     expect(promoted.status).toBe(200);
     expect(promoted.body).toMatchObject({ role: 'manager', status: 'active' });
+    expect((await before.fetch('/api/users')).status).toBe(401);
+    const person = (await canSignIn(email, 'quarter-inch-tape'))!;
     expect((await person.fetch('/api/users')).status).toBe(200);
     // With two managers, one of them may step down; then the last one may not.
     expect((await patch(person, body.member.id, { role: 'producer' })).status).toBe(200);
-    expect((await person.fetch('/api/users')).status).toBe(403);
+    expect((await person.fetch('/api/users')).status).toBe(401);
+    const demoted = (await canSignIn(email, 'quarter-inch-tape'))!;
+    expect((await demoted.fetch('/api/users')).status).toBe(403);
 
     const off = await patch(as.manager, body.member.id, { active: false });
     expect(off.status).toBe(200);
     expect(off.body.status).toBe('deactivated');
-    expect((await person.fetch('/api/sessions')).status).toBe(401);
+    expect((await demoted.fetch('/api/sessions')).status).toBe(401);
     expect(await canSignIn(email, 'quarter-inch-tape')).toBeNull();
     const on = await patch(as.manager, body.member.id, { active: true });
     expect(on.body.status).toBe('active');

@@ -111,7 +111,7 @@ describe('POST /api/sessions/:id/takes', () => {
       const url = new URL(`/api/sessions/${sessionId}/takes`, BASE_URL);
       const request = http.request(url, {
         method: 'POST',
-        headers: { cookie, origin: BASE_URL, 'content-type': `multipart/form-data; boundary=${boundary}`, 'content-length': head.length + wav.length + 100 },
+        headers: { cookie, origin: new URL(BASE_URL).origin, 'content-type': `multipart/form-data; boundary=${boundary}`, 'content-length': head.length + wav.length + 100 },
       });
       request.on('error', () => resolve());
       request.on('response', () => resolve());

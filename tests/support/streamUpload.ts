@@ -38,7 +38,7 @@ export function streamGeneratedUpload(client: Client, baseUrl: string, sessionId
   return new Promise<{ status: number; sent: string; stored: string | undefined }>((resolve, reject) => {
     const request = http.request(new URL(`/api/sessions/${sessionId}/takes`, baseUrl), {
       method: 'POST',
-      headers: { cookie: client.cookieHeader(), origin: baseUrl, 'content-type': `multipart/form-data; boundary=${boundary}`, 'content-length': head.length + source.size + tail.length },
+      headers: { cookie: client.cookieHeader(), origin: new URL(baseUrl).origin, 'content-type': `multipart/form-data; boundary=${boundary}`, 'content-length': head.length + source.size + tail.length },
     });
     request.on('response', (res) => {
       let body = '';

@@ -29,8 +29,8 @@ export async function startDatabase(): Promise<void> {
 /** A second web server from the same build, on its own port, with some settings changed. */
 export async function startExtraServer(port: number, env: Record<string, string>): Promise<{ url: string; child: ChildProcess }> {
   const url = `http://127.0.0.1:${port}`;
-  const child = spawn(process.execPath, ['node_modules/next/dist/bin/next', 'start', '-H', '127.0.0.1', '-p', String(port)], {
-    env: { ...process.env, ...env, NEXTAUTH_URL: url, TAKEPROOF_TEST_URL: url },
+  const child = spawn(process.execPath, ['--import', 'tsx', 'scripts/web-server.ts'], {
+    env: { ...process.env, ...env, HOST: '127.0.0.1', PORT: String(port), NEXTAUTH_URL: url, TAKEPROOF_TEST_URL: url },
     stdio: 'ignore',
   });
   for (let i = 0; i < 240; i++) {

@@ -86,10 +86,28 @@ describe('contentDisposition', () => {
   });
 
   it('keeps only the last path segment of names with separators', () => {
-    expect(names(contentDisposition('../../etc/passwd')).utf8).toBe('passwd');
+    expect(names(contentDisposition('../../etc/passwd')).utf8).toBe('passwd.wav');
     expect(names(contentDisposition('C:\\Users\\x\\take.wav')).utf8).toBe('take.wav');
     expect(names(contentDisposition('folder/')).utf8).toBe('take.wav');
     expect(names(contentDisposition('..')).utf8).toBe('take.wav');
+  });
+
+  it('always offers a take as .wav, whatever extension it was uploaded with', () => {
+    // A RIFF…WAVE file named .html or .bat must not be saved as a page or a script.
+    expect(names(contentDisposition('take 4.html')).utf8).toBe('take 4.wav');
+    expect(names(contentDisposition('TAKE.BAT')).utf8).toBe('TAKE.wav');
+    expect(names(contentDisposition('Take 7.WAV')).utf8).toBe('Take 7.wav');
+    expect(names(contentDisposition('no extension')).utf8).toBe('no extension.wav');
+  });
+
+  it('drops bidirectional controls that would disguise the extension (Unicode UAX #9)', () => {
+    // U+202E RIGHT-TO-LEFT OVERRIDE makes "take\u202Evaw.bat" display as "taketab.wav".
+    expect(names(contentDisposition('take\u202Evaw.bat')).utf8).toBe('takevaw.wav');
+    expect(names(contentDisposition('\u2066mix\u2069\u200F.wav')).utf8).toBe('mix.wav');
+  });
+
+  it('drops half of an emoji cut off at the end of a name', () => {
+    expect(names(contentDisposition('Applause \uD83D')).utf8).toBe('Applause.wav');
   });
 
   it('drops control characters, so no header can be split or injected', () => {

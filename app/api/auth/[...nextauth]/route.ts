@@ -1,28 +1,29 @@
 import NextAuth from 'next-auth';
 import { authOptions } from '@/lib/auth/options.server';
-import { assertMayTrySignIn, clientAddress, recordSignIn } from '@/lib/auth/signInGuard.server';
-import { errorResponse } from '@/lib/http/route.server';
+import { accountOf, assertMayTrySignIn, clientAddress } from '@/lib/auth/signInGuard.server';
+import { AppError } from '@/lib/errors';
+import { route } from '@/lib/http/route.server';
 
 const handler = NextAuth(authOptions);
 
 type Context = { params: Promise<{ nextauth: string[] }> };
 
-/** Password sign-ins pass the failed-attempt limits first; every other auth call goes straight through. */
-async function post(request: Request, context: Context) {
-  const { nextauth } = await context.params;
-  if (nextauth.join('/') !== 'callback/credentials') return handler(request, context);
-  const form = new URLSearchParams(await request.clone().text());
-  const email = (form.get('email') ?? '').trim().toLowerCase();
-  const address = clientAddress(request);
-  try {
-    assertMayTrySignIn(email, address);
-  } catch (error) {
-    return errorResponse(error);
-  }
-  const response: Response = await handler(request, context);
-  const failed = response.status === 401 || /[?&]error=/.test(response.headers.get('location') ?? '');
-  recordSignIn(email, address, !failed);
-  return response;
+const isCredentialsCallback = async (context: Context) => (await context.params).nextauth.join('/') === 'callback/credentials';
+
+/** The password sign-in is a form POST only; next-auth would answer a GET of it with a server error. */
+async function get(request: Request, context: Context) {
+  if (await isCredentialsCallback(context)) throw new AppError('not_allowed:method', 'Sign in with the form on the sign-in page.', { extra: { allow: 'POST' } });
+  return handler(request, context);
 }
 
-export { handler as GET, post as POST };
+/** Password sign-ins pass the failed-attempt limits first; next-auth counts each password it really checks. */
+async function post(request: Request, context: Context) {
+  if (await isCredentialsCallback(context)) {
+    const form = new URLSearchParams(await request.clone().text());
+    await assertMayTrySignIn(accountOf(form.get('email')), clientAddress(request.headers));
+  }
+  return handler(request, context);
+}
+
+export const GET = route(get);
+export const POST = route(post, { body: 'form' });

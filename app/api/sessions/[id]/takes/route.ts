@@ -15,4 +15,4 @@ export const POST = route<Context>(async (request, { params }) => {
   const actor = await requireActor('take:upload');
   const takes = await receiveTakes(actor, await idParam(params, 'session'), request);
   return json({ takes }, 201);
-});
+}, { body: 'multipart' });
