@@ -13,4 +13,4 @@ export const GET = route<Context>(async (_request, { params }) => {
 export const POST = route<Context>(async (request, { params }) => {
   const actor = await requireActor('converter:check');
   return json(await receiveConverterCheck(actor, await idParam(params, 'recorder'), request), 201);
-});
+}, { body: 'multipart' });
