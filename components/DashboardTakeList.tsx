@@ -24,6 +24,7 @@ export function DashboardTakeList({ title, takes, empty, show }: { title: string
               </Link>
               {show === 'status' && <TakeStatusMark status={t.status} progress={t.progress} error={null} />}
               {show === 'verdict' && <VerdictMark verdict={t.verdict} />}
+              {show === 'verdict' && t.reason && <span className="basis-full text-sm">{t.reason}</span>}
               {show === 'reject' && (
                 <span className="text-sm">
                   <span className="font-semibold text-fail">■ Rejected</span>

@@ -5,6 +5,9 @@ import { useCallback, useMemo, useRef, useState } from 'react';
 import useSWR from 'swr';
 import type { DeliverySpec } from '@/dsp/spec';
 import { DecisionMark, VerdictMark } from '@/components/StatusMarks';
+import { TakeActions } from '@/components/TakeActions';
+import { can, mayRemoveTake } from '@/lib/auth/policy';
+import type { Role } from '@/models/User';
 import { describeFormat, formatBytes, formatDuration } from '@/lib/format';
 import { hearingCaution, timedMarkers } from '@/lib/review/reportView';
 import { takeCommentsKey, takeKey } from '@/lib/http/swrKeys';
@@ -14,6 +17,7 @@ import { DecisionPanel } from './DecisionPanel';
 import { MeasuresPanel } from './MeasuresPanel';
 import { LoudnessPlot, SpectrumPlot } from './Plots';
 import { TakeWorkspace, type PlayerHandle } from './TakeWorkspace';
+import { useTakeStepKeys } from './useTakeStepKeys';
 import type { TakeCommentView } from '@/lib/review/views';
 
 export interface Neighbours {
@@ -33,6 +37,7 @@ export function TakeReview({
   neighbours,
   canDecide,
   canComment,
+  viewer,
 }: {
   takeId: number;
   session: { id: number; title: string };
@@ -40,6 +45,7 @@ export function TakeReview({
   neighbours: Neighbours;
   canDecide: boolean;
   canComment: boolean;
+  viewer: { id: number; role: Role };
 }) {
   const { data: take, mutate } = useSWR<TakeDetail>(takeKey(takeId), { refreshInterval: (latest) => (busy(latest) ? 1500 : 0) });
   const { data: commentData, mutate: mutateComments } = useSWR<{ comments: TakeCommentView[] }>(takeCommentsKey(takeId));
@@ -50,8 +56,14 @@ export function TakeReview({
   const caution = useMemo(() => hearingCaution(report), [report]);
   const comments = useMemo(() => commentData?.comments ?? [], [commentData]);
   const onTime = useCallback((t: number) => setPlayhead(t), []);
+  useTakeStepKeys(neighbours.previous && `/takes/${neighbours.previous.id}`, neighbours.next && `/takes/${neighbours.next.id}`);
 
   if (!take) return <p className="text-muted">Loading the take…</p>;
+  const actions = (
+    <div className="mt-2">
+      <TakeActions take={take} canRemeasure={can(viewer.role, 'take:remeasure')} canRemove={mayRemoveTake(viewer, take)} onChanged={() => void mutate()} leaveTo={`/sessions/${session.id}`} />
+    </div>
+  );
 
   return (
     <article className="space-y-4">
@@ -64,14 +76,14 @@ export function TakeReview({
         </span>
         <span className="ml-auto flex gap-2">
           {neighbours.previous ? (
-            <Link href={`/takes/${neighbours.previous.id}`} className="tp-button-quiet" rel="prev" title={neighbours.previous.name}>
+            <Link href={`/takes/${neighbours.previous.id}`} className="tp-button-quiet" rel="prev" title={neighbours.previous.name} aria-keyshortcuts="ArrowLeft">
               ‹ Previous take
             </Link>
           ) : (
             <span className="tp-button-quiet opacity-50" aria-disabled="true">‹ Previous take</span>
           )}
           {neighbours.next ? (
-            <Link href={`/takes/${neighbours.next.id}`} className="tp-button-quiet" rel="next" title={neighbours.next.name}>
+            <Link href={`/takes/${neighbours.next.id}`} className="tp-button-quiet" rel="next" title={neighbours.next.name} aria-keyshortcuts="ArrowRight">
               Next take ›
             </Link>
           ) : (
@@ -89,6 +101,11 @@ export function TakeReview({
           <span>
             Decision: <DecisionMark decision={take.decision} />
           </span>
+          {take.reason && (
+            <span className="basis-full text-base text-ink" data-testid="verdict-reason">
+              Why: {take.reason}
+            </span>
+          )}
           <span className="font-mono">{describeFormat(take.format)}</span>
           <span className="font-mono">{formatDuration(take.durationSec)}</span>
           <span className="font-mono">{formatBytes(take.bytes)}</span>
@@ -97,6 +114,7 @@ export function TakeReview({
             Download the WAV
           </a>
         </p>
+        {take.status !== 'unreadable' && actions}
       </header>
 
       {busy(take) && (
@@ -116,7 +134,8 @@ export function TakeReview({
           <p className="text-lg font-semibold text-fail">
             <span aria-hidden="true">✕ </span>This file could not be read: {take.error ?? 'no reason was recorded.'}
           </p>
-          <p className="mt-2 text-sm text-muted">An engineer can measure it again from the session page, or upload the file once more.</p>
+          <p className="mt-2 text-sm text-muted">Measure it again, or remove it and upload the file once more.</p>
+          <div className="mt-3">{actions}</div>
         </section>
       )}
 

@@ -27,6 +27,7 @@ export function takeCells(t: TakeSummary) {
     format: describeFormat(t.format),
     duration: formatDuration(t.durationSec),
     verdict,
+    reason: t.reason,
     decision,
     truePeak: formatMeasure(t.truePeakDbtp, 1, 'dBTP'),
     loudness: formatMeasure(t.integratedLufs, 1, 'LUFS'),

@@ -29,7 +29,7 @@ export function reportHtml(data: ReportData, message: string | null, sender: str
       const note = [c.problem, c.note].filter(Boolean).join(' · ');
       return `<tr>
 <td style="${cell}">${e(c.name)}</td>
-<td style="${cell}white-space:nowrap;color:${verdictTone};font-weight:bold;">${c.verdict.mark} ${c.verdict.word}</td>
+<td style="${cell}"><span style="white-space:nowrap;color:${verdictTone};font-weight:bold;">${c.verdict.mark} ${c.verdict.word}</span>${c.reason ? `<br><span style="color:${INK};">${e(c.reason)}</span>` : ''}</td>
 <td style="${cell}white-space:nowrap;color:${TONE[t.decision]};font-weight:bold;">${c.decision.mark} ${c.decision.word}</td>
 <td style="${cell}white-space:nowrap;">${e(c.truePeak)}</td>
 <td style="${cell}white-space:nowrap;">${e(c.loudness)}</td>
@@ -75,7 +75,7 @@ export function reportText(data: ReportData, message: string | null, sender: str
   for (const t of data.takes) {
     const c = takeCells(t);
     lines.push(
-      `- ${c.name}: ${c.verdict.mark} ${c.verdict.word}, ${c.decision.word}; true peak ${c.truePeak}, integrated loudness ${c.loudness}, noise floor ${c.noiseFloor}, effective bits ${c.effectiveBits}, clipping events ${c.clips}${c.problem ? `; ${c.problem}` : ''}${c.note ? `; ${c.note}` : ''}`,
+      `- ${c.name}: ${c.verdict.mark} ${c.verdict.word}${c.reason ? ` (${c.reason})` : ''}, ${c.decision.word}; true peak ${c.truePeak}, integrated loudness ${c.loudness}, noise floor ${c.noiseFloor}, effective bits ${c.effectiveBits}, clipping events ${c.clips}${c.problem ? `; ${c.problem}` : ''}${c.note ? `; ${c.note}` : ''}`,
     );
   }
   lines.push('', REPORT_CAUTION, '', 'The same table is attached as a PDF and as a CSV file.');

@@ -120,8 +120,8 @@ export function reportPdf(data: ReportData): Promise<Buffer> {
     ...(v.none ? [{ shape: 'circle' as Shape, word: 'Not measured', n: v.none, color: MUTED }] : []),
   ]);
   summaryRow('Decisions', [
-    { shape: 'check', word: 'Approved', n: d.approved, color: TONE.approved },
-    { shape: 'cross', word: 'Rejected', n: d.rejected, color: TONE.rejected },
+    { shape: 'dot', word: 'Approved', n: d.approved, color: TONE.approved },
+    { shape: 'square', word: 'Rejected', n: d.rejected, color: TONE.rejected },
     { shape: 'circle', word: 'Pending', n: d.pending, color: TONE.pending },
   ]);
   doc.moveDown(0.8);
@@ -149,10 +149,11 @@ export function reportPdf(data: ReportData): Promise<Buffer> {
     for (const take of data.takes) {
       const c = takeCells(take);
       const name = pdfText(c.name);
-      const note = pdfText([c.problem, c.note].filter(Boolean).join(' · '));
+      const notes = [c.problem, c.note].filter(Boolean).join(' · ');
+      const note = pdfText([c.reason ? `Reason: ${c.reason}` : null, notes ? `Note: ${notes}` : null].filter(Boolean).join('   '));
       doc.font('Helvetica').fontSize(9);
       const nameH = doc.heightOfString(name, { width: COLUMNS[0].width - 6 });
-      const noteH = note ? doc.heightOfString(`Note: ${note}`, { width: width - 6 }) + 3 : 0;
+      const noteH = note ? doc.heightOfString(note, { width: width - 6 }) + 3 : 0;
       const rowH = Math.max(12, nameH) + noteH + 6;
       if (doc.y + rowH > bottom()) {
         doc.addPage();
@@ -179,7 +180,7 @@ export function reportPdf(data: ReportData): Promise<Buffer> {
       }
       let rowBottom = y + Math.max(12, nameH);
       if (note) {
-        doc.font('Helvetica').fontSize(9).fillColor(MUTED).text(`Note: ${note}`, left + 3, rowBottom + 2, { width: width - 6 });
+        doc.font('Helvetica').fontSize(9).fillColor(INK).text(note, left + 3, rowBottom + 2, { width: width - 6 });
         rowBottom += noteH;
       }
       doc.moveTo(left, rowBottom + 3).lineTo(left + width, rowBottom + 3).lineWidth(0.5).strokeColor(LINE).stroke();

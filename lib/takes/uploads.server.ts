@@ -181,7 +181,7 @@ async function recordTakes(actor: Actor, sessionId: number, files: StoredFile[],
     seen.set(f.sha256, f.originalName);
     const existing = await Take.findOne({ where: { sessionId, sha256: f.sha256 }, attributes: ['id', 'originalName'] });
     if (existing) {
-      throw new AppError('conflict:duplicate_take', `“${f.originalName}” is already in this session as “${existing.originalName}” (take ${existing.id}).`, {
+      throw new AppError('conflict:duplicate_take', `“${f.originalName}” is already in this session as “${existing.originalName}”.`, {
         extra: { existingTakeId: existing.id },
       });
     }

@@ -99,6 +99,7 @@ export default async function RecorderTrendsPage({ params, searchParams }: { par
                       <Link href={`/takes/${t.id}`} className="font-semibold text-accent underline-offset-2 hover:underline">
                         {t.originalName}
                       </Link>
+                      {t.reason && <div className="text-xs">{t.reason}</div>}
                       <div className="text-xs text-muted">{t.sessionTitle}</div>
                     </td>
                     <td className="px-3 py-2 font-mono">{formatDate(t.measuredAt)}</td>

@@ -51,7 +51,7 @@ export default async function SessionPage({ params }: { params: Promise<{ id: st
           Verdicts follow the session’s delivery spec ({session.deliverySpec?.name ?? 'Takeproof defaults'}). The studio’s and the broadcaster’s own delivery specs and local rules take precedence over Takeproof’s defaults.
         </p>
         {mayUpload && <TakeUploader sessionId={session.id} recorders={recorders} takesKey={takesKey} />}
-        <TakeTable takesKey={takesKey} />
+        <TakeTable takesKey={takesKey} viewer={{ id: actor.id, role: actor.role }} />
         <SessionReportPanel sessionId={session.id} maySend={can(actor.role, 'report:send')} />
       </article>
     </SwrProvider>

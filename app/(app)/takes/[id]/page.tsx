@@ -36,6 +36,7 @@ export default async function TakePage({ params }: { params: Promise<{ id: strin
         neighbours={neighbours}
         canDecide={can(actor.role, 'take:decide')}
         canComment={can(actor.role, 'take:comment')}
+        viewer={{ id: actor.id, role: actor.role }}
       />
     </SwrProvider>
   );
