@@ -20,10 +20,12 @@ interface Fixtures {
   inviteeId: number;
   deliveryId: number;
   outboxId: string;
+  /** A pending take the engineer uploaded, one per person, for the removal row. */
+  removable: Record<Persona, number>;
 }
 
 interface Row {
-  path: (f: Fixtures) => string;
+  path: (f: Fixtures, who: Persona) => string;
   body?: (f: Fixtures, who: Persona) => unknown;
   form?: (who: Persona) => FormData;
   /** Runs before each person's request (e.g. to wait until a take is measured again). */
@@ -68,6 +70,8 @@ const MATRIX: Record<string, Row> = {
   'GET /api/sessions/[id]/report.csv': { path: (f) => `/api/sessions/${f.sessionId}/report.csv`, expect: studioObject },
 
   'GET /api/takes/[id]': { path: (f) => `/api/takes/${f.takeId}`, expect: studioObject },
+  // The engineer uploaded each of these takes and nobody has decided on them: the uploader or a manager may remove one.
+  'DELETE /api/takes/[id]': { path: (f, who) => `/api/takes/${f.removable[who]}`, expect: { anonymous: 401, outsider: 404, engineer: 204, producer: 403, manager: 204 } },
   'POST /api/takes/[id]/remeasure': {
     path: (f) => `/api/takes/${f.takeId}/remeasure`,
     before: async (f) => void (await waitForTake(as.manager, f.takeId)),
@@ -136,6 +140,14 @@ beforeAll(async () => {
   const { body } = await uploadTakes(as.engineer, sessionId, [{ name: 'matrix.wav', bytes: makeWav({ seconds: 1, seed: 3999 }) }]);
   const takeId = body.takes[0].id;
   await waitForTake(as.engineer, takeId);
+  const removableUpload = await uploadTakes(
+    as.engineer,
+    sessionId,
+    PERSONAS.map((who) => ({ name: `matrix-remove-${who}.wav`, bytes: makeWav({ seconds: 0.2, seed: 4100 + PERSONAS.indexOf(who) }) })),
+  );
+  const removableIds: number[] = removableUpload.body.takes.map((t: { id: number }) => t.id);
+  for (const id of removableIds) await waitForTake(as.engineer, id);
+  const removable = Object.fromEntries(PERSONAS.map((who, i) => [who, removableIds[i]])) as Record<Persona, number>;
   const post = async (client: Client, url: string, json: unknown) => (await client.fetch(url, { method: 'POST', json })).json();
   const recorder = await post(as.manager, '/api/recorders', { label: `Matrix fixture ${unique('manager')}` });
   const spec = await post(as.manager, '/api/specs', { name: `Matrix fixture ${unique('manager')}` });
@@ -150,6 +162,7 @@ beforeAll(async () => {
     inviteeId: invited.member.id,
     deliveryId: sent.delivery.id,
     outboxId: outbox.messages?.[0]?.id ?? outbox[0]?.id,
+    removable,
   };
   for (const [k, v] of Object.entries(f)) if (v === undefined || v === null) throw new Error(`Fixture ${k} could not be made`);
 });
@@ -171,7 +184,7 @@ describe('access matrix', () => {
         if (row.form) init.body = row.form(who);
         else if (row.body) init.json = row.body(f, who);
         else if (method !== 'GET') init.json = {};
-        const response = await as[who].fetch(row.path(f), init);
+        const response = await as[who].fetch(row.path(f, who), init);
         got[who] = response.status;
         await response.arrayBuffer();
       }
