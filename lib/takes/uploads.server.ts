@@ -3,7 +3,7 @@ import busboy from 'busboy';
 import { createHash } from 'node:crypto';
 import { Readable, Transform, type TransformCallback } from 'node:stream';
 import type { ReadableStream as WebReadableStream } from 'node:stream/web';
-import { UniqueConstraintError } from 'sequelize';
+import { Op, UniqueConstraintError } from 'sequelize';
 import { AnalysisJob, Recorder, Take } from '@/models';
 import { audit } from '@/lib/audit/record.server';
 import { db } from '@/lib/db/connection.server';
@@ -14,7 +14,7 @@ import { findSession } from '@/lib/sessions/service.server';
 import { newTakeKey, storage } from '@/lib/storage/storage.server';
 import { type TakeSummary } from './views';
 import type { Actor } from '@/lib/auth/views';
-import { toTakeSummary } from './service.server';
+import { findTake, toTakeSummary } from './service.server';
 
 const WAV_MAGIC = new Set(['RIFF', 'RF64', 'BW64']);
 const MULTIPART_OVERHEAD = 1024 * 1024;
@@ -95,13 +95,22 @@ interface StoredFile {
 export async function receiveTakes(actor: Actor, sessionId: number, request: Request): Promise<TakeSummary[]> {
   const session = await findSession(actor, sessionId);
   if (session.status === 'closed') throw new AppError('conflict:session_closed', 'This session is closed. Reopen it to add takes.');
+  return receiveFiles(request, 50, (stored, recorderId) => recordTakes(actor, sessionId, stored, recorderId));
+}
+
+/**
+ * Streams the `file` parts of a multipart request into storage, hashing and checking each, then
+ * hands them to `record`. If a part is refused, the body is cut off or `record` throws, every
+ * file stored by this request is removed again.
+ */
+async function receiveFiles<T>(request: Request, maxFiles: number, record: (stored: StoredFile[], recorderId: number | null) => Promise<T>): Promise<T> {
   const contentType = request.headers.get('content-type') ?? '';
   if (!contentType.startsWith('multipart/form-data') || !request.body) {
     throw new AppError('invalid:upload', 'Send the takes as multipart/form-data with one or more `file` fields.');
   }
   const maxBytes = env().UPLOAD_MAX_BYTES;
   const declaredLength = Number(request.headers.get('content-length') ?? NaN);
-  if (Number.isFinite(declaredLength) && declaredLength > maxBytes * 50 + MULTIPART_OVERHEAD) {
+  if (Number.isFinite(declaredLength) && declaredLength > maxBytes * maxFiles + MULTIPART_OVERHEAD) {
     throw new AppError('too_large:upload', `This upload is larger than the ${formatBytes(maxBytes)} per file this studio accepts.`);
   }
 
@@ -122,7 +131,7 @@ export async function receiveTakes(actor: Actor, sessionId: number, request: Req
       try {
         // preservePath: keep the name as sent (it is only shown); busboy would otherwise cut it at the last slash.
         // defParamCharset: browsers send file names as UTF-8.
-        parser = busboy({ headers: { 'content-type': contentType }, preservePath: true, defParamCharset: 'utf8', limits: { files: 50, fields: 20, fieldSize: 1024 } });
+        parser = busboy({ headers: { 'content-type': contentType }, preservePath: true, defParamCharset: 'utf8', limits: { files: maxFiles, fields: 20, fieldSize: 1024 } });
       } catch {
         throw new AppError('invalid:upload', 'The multipart body could not be read.');
       }
@@ -163,7 +172,7 @@ export async function receiveTakes(actor: Actor, sessionId: number, request: Req
       source.pipe(parser);
     });
     if (stored.length === 0) throw new AppError('invalid:upload', 'No WAV file was found in the upload (use the field name `file`).');
-    return await recordTakes(actor, sessionId, stored, recorderId);
+    return await record(stored, recorderId);
   } catch (error) {
     await Promise.all(stored.map((f) => storage().delete(f.key)));
     throw error;
@@ -218,4 +227,42 @@ async function recordTakes(actor: Actor, sessionId: number, files: StoredFile[],
     if (error instanceof UniqueConstraintError) throw new AppError('conflict:duplicate_take', 'One of these files is already in this session.');
     throw error;
   }
+}
+
+/**
+ * Puts a new file under an existing take (multipart, one `file` part): the take keeps its id, its
+ * comments and its audit history, loses the old measurement and decision, and is measured again.
+ * The old file and its waveform file are deleted once the new one is recorded.
+ */
+export async function replaceTakeFile(actor: Actor, takeId: number, request: Request): Promise<TakeSummary> {
+  const take = await findTake(actor, takeId);
+  if (take.status === 'measuring') throw new AppError('conflict:take_busy', `“${take.originalName}” is being measured right now; replace its file once it is done.`);
+  const oldKeys = [take.storageKey, take.peaksKey].filter((key): key is string => !!key);
+  await receiveFiles(request, 1, async ([file]) => {
+    if (!file) throw new AppError('invalid:upload', 'No WAV file was found in the upload (use the field name `file`).');
+    const existing = await Take.findOne({ where: { sessionId: take.sessionId, sha256: file.sha256, id: { [Op.ne]: takeId } }, attributes: ['originalName'] });
+    if (existing) throw new AppError('conflict:duplicate_take', `“${file.originalName}” is already in this session as “${existing.originalName}”.`);
+    await db().transaction(async (transaction) => {
+      const locked = await Take.findByPk(takeId, { attributes: ['id', 'status'], lock: transaction.LOCK.UPDATE, transaction });
+      if (!locked) throw new AppError('not_found:take', 'This take was removed meanwhile.');
+      if (locked.status === 'measuring') throw new AppError('conflict:take_busy', `“${take.originalName}” is being measured right now; replace its file once it is done.`);
+      await take.update(
+        {
+          originalName: file.originalName, storageKey: file.key, bytes: file.bytes, sha256: file.sha256,
+          status: 'queued', progress: 0, error: null, report: null, peaksKey: null,
+          sampleRate: null, bitsPerSample: null, channels: null, encoding: null, durationSec: null,
+          effectiveBits: null, truePeakDbtp: null, integratedLufs: null, noiseFloorDbfs: null, clipEvents: null, belowFullScaleClipEvents: null,
+          rateMismatch: null, aliasingRisk: null, verdict: null, reason: null,
+          decision: 'pending', decidedById: null, decidedAt: null, decisionNote: null, measuredAt: null,
+        },
+        { transaction },
+      );
+      const [job] = await AnalysisJob.findOrCreate({ where: { takeId }, defaults: { takeId, workerId: null, heartbeatAt: null, lastError: null }, transaction });
+      await job.update({ state: 'queued', attempts: 0, workerId: null, heartbeatAt: null, lastError: null }, { transaction });
+      await audit(actor, 'take.replace', { type: 'take', id: takeId }, { sessionId: take.sessionId, previousName: take.originalName, name: file.originalName, previousSha256: take.sha256, sha256: file.sha256, bytes: file.bytes }, transaction);
+    });
+  });
+  // After the commit: a file left behind by a crash here shows up in `npm run check:storage`.
+  await Promise.all(oldKeys.map((key) => storage().delete(key)));
+  return toTakeSummary(await findTake(actor, takeId));
 }

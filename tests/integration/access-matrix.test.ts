@@ -22,6 +22,8 @@ interface Fixtures {
   outboxId: string;
   /** A pending take the engineer uploaded, one per person, for the removal row. */
   removable: Record<Persona, number>;
+  /** A take whose file each person tries to replace. */
+  replaceableId: number;
 }
 
 interface Row {
@@ -76,6 +78,16 @@ const MATRIX: Record<string, Row> = {
     path: (f) => `/api/takes/${f.takeId}/remeasure`,
     before: async (f) => void (await waitForTake(as.manager, f.takeId)),
     expect: { anonymous: 401, outsider: 404, engineer: 202, producer: 403, manager: 202 },
+  },
+  'PUT /api/takes/[id]/file': {
+    path: (f) => `/api/takes/${f.replaceableId}/file`,
+    form: (who) => {
+      const form = new FormData();
+      form.append('file', new Blob([new Uint8Array(makeWav({ seconds: 0.2, seed: 4200 + PERSONAS.indexOf(who) }))]), `replaced-by-${who}.wav`);
+      return form;
+    },
+    before: async (f) => void (await waitForTake(as.manager, f.replaceableId)),
+    expect: { anonymous: 401, outsider: 404, engineer: 200, producer: 403, manager: 200 },
   },
   'GET /api/takes/[id]/audio': { path: (f) => `/api/takes/${f.takeId}/audio`, expect: studioObject },
   'GET /api/takes/[id]/peaks': { path: (f) => `/api/takes/${f.takeId}/peaks`, expect: studioObject },
@@ -148,6 +160,8 @@ beforeAll(async () => {
   const removableIds: number[] = removableUpload.body.takes.map((t: { id: number }) => t.id);
   for (const id of removableIds) await waitForTake(as.engineer, id);
   const removable = Object.fromEntries(PERSONAS.map((who, i) => [who, removableIds[i]])) as Record<Persona, number>;
+  const replaceable = await uploadTakes(as.engineer, sessionId, [{ name: 'matrix-replace.wav', bytes: makeWav({ seconds: 0.2, seed: 4199 }) }]);
+  const replaceableId: number = replaceable.body.takes[0].id;
   const post = async (client: Client, url: string, json: unknown) => (await client.fetch(url, { method: 'POST', json })).json();
   const recorder = await post(as.manager, '/api/recorders', { label: `Matrix fixture ${unique('manager')}` });
   const spec = await post(as.manager, '/api/specs', { name: `Matrix fixture ${unique('manager')}` });
@@ -163,6 +177,7 @@ beforeAll(async () => {
     deliveryId: sent.delivery.id,
     outboxId: outbox.messages?.[0]?.id ?? outbox[0]?.id,
     removable,
+    replaceableId,
   };
   for (const [k, v] of Object.entries(f)) if (v === undefined || v === null) throw new Error(`Fixture ${k} could not be made`);
 });

@@ -24,14 +24,22 @@ function parseCsv(text: string): string[][] {
   let quoted = false;
   for (let i = 0; i < text.length; i++) {
     const c = text[i];
-    if (quoted) {
-      if (c === '"' && text[i + 1] === '"') (field += '"'), i++;
-      else if (c === '"') quoted = false;
-      else field += c;
-    } else if (c === '"') quoted = true;
-    else if (c === ',') row.push(field), (field = '');
-    else if (c === '\n') row.push(field.replace(/\r$/, '')), rows.push(row), (row = []), (field = '');
-    else field += c;
+    if (quoted && c === '"' && text[i + 1] === '"') {
+      field += '"';
+      i++;
+    } else if (c === '"') {
+      quoted = !quoted;
+    } else if (!quoted && c === ',') {
+      row.push(field);
+      field = '';
+    } else if (!quoted && c === '\n') {
+      row.push(field.replace(/\r$/, ''));
+      rows.push(row);
+      row = [];
+      field = '';
+    } else {
+      field += c;
+    }
   }
   return rows;
 }
@@ -138,6 +146,30 @@ describe('DELETE /api/takes/:id', () => {
     expect(refused.status).toBe(403);
     expect((await refused.json()).message).not.toMatch(/\d{3,}/);
     expect((await as.manager.fetch(`/api/takes/${id}`, { method: 'DELETE', headers: ORIGIN })).status).toBe(204);
+  });
+
+  it('replaces a take’s file: same take, comments and history kept, the new file measured, the old files deleted', async () => {
+    const id = await uploadTake(as.engineer, sessionId, 'harbour-wrong-file.wav', hotInterviewTake(305, 3));
+    await waitMeasured(as.engineer, id);
+    const old = await Take.findByPk(id, { attributes: ['storageKey', 'peaksKey'], rejectOnEmpty: true });
+    const comment = await as.producer.fetch(`/api/takes/${id}/comments`, { method: 'POST', headers: ORIGIN, json: { atSec: 1, body: 'Is this the right file?' } });
+    expect(comment.status).toBe(201);
+
+    const form = new FormData();
+    form.append('file', new Blob([new Uint8Array(makeWav({ seconds: 1, seed: 306, amplitude: 0.05 }))], { type: 'audio/wav' }), 'harbour-right-file.wav');
+    const replaced = await as.engineer.fetch(`/api/takes/${id}/file`, { method: 'PUT', headers: ORIGIN, body: form });
+    expect(replaced.status).toBe(200);
+    const body = await replaced.json();
+    expect(body.id).toBe(id);
+    expect(body.originalName).toBe('harbour-right-file.wav');
+
+    const measured = await waitMeasured(as.engineer, id);
+    expect(measured.durationSec).toBeCloseTo(1, 2);
+    expect(measured.reason ?? '').not.toMatch(/clip/i);
+    const { comments } = await (await as.producer.fetch(`/api/takes/${id}/comments`)).json();
+    expect(comments.map((c: { body: string }) => c.body)).toContain('Is this the right file?');
+    expect(await storage().stat(old.storageKey)).toBeNull();
+    expect(await storage().stat(old.peaksKey!)).toBeNull();
   });
 
   it('measures a take again on request, and it comes back with its verdict and reason', async () => {
