@@ -1,16 +1,21 @@
 'use client';
 
 import { useRef, useState } from 'react';
-import { useSWRConfig } from 'swr';
+import useSWR, { useSWRConfig } from 'swr';
 import { cleanFileName, formatBytes } from '@/lib/format';
+import { fileRefusal } from '@/lib/takes/fileCheck';
+import type { TakeSummary } from '@/lib/takes/views';
 import type { Option } from './SessionCreateForm';
+import { TakeStatusMark, VerdictMark } from './StatusMarks';
 
 interface Upload {
   id: number;
   file: File;
+  /** Bytes of the file sent so far (the multipart framing around it not counted). */
   sent: number;
   startedAt: number;
-  state: 'sending' | 'done' | 'failed' | 'cancelled';
+  state: 'checking' | 'sending' | 'done' | 'failed' | 'cancelled';
+  takeId?: number;
   message?: string;
   xhr?: XMLHttpRequest;
 }
@@ -29,8 +34,10 @@ function timeLeft(u: Upload): string {
  * Drop zone and file picker for many WAV takes at once. Each file goes up in its own request
  * (XMLHttpRequest, because fetch cannot report upload progress) with its own bar and cancel button.
  */
-export function TakeUploader({ sessionId, recorders, takesKey }: { sessionId: number; recorders: Option[]; takesKey: string }) {
+export function TakeUploader({ sessionId, recorders, takesKey, maxBytes }: { sessionId: number; recorders: Option[]; takesKey: string; maxBytes: number }) {
   const { mutate } = useSWRConfig();
+  // The same list the take table polls: an upload's line follows its take once it is stored.
+  const { data: listed } = useSWR<{ takes: TakeSummary[] }>(takesKey);
   const [uploads, setUploads] = useState<Upload[]>([]);
   const [dragging, setDragging] = useState(false);
   const [recorderId, setRecorderId] = useState('');
@@ -40,30 +47,37 @@ export function TakeUploader({ sessionId, recorders, takesKey }: { sessionId: nu
 
   function start(files: FileList | File[]) {
     for (const file of Array.from(files)) {
-      const upload: Upload = { id: nextUploadId++, file, sent: 0, startedAt: Date.now(), state: 'sending' };
-      const xhr = new XMLHttpRequest();
-      upload.xhr = xhr;
-      xhr.open('POST', `/api/sessions/${sessionId}/takes`);
-      xhr.responseType = 'json';
-      xhr.upload.onprogress = (e) => patch(upload.id, { sent: e.loaded });
-      xhr.onload = () => {
-        if (xhr.status === 201) {
-          patch(upload.id, { state: 'done', sent: file.size });
-          void mutate(takesKey);
-        } else {
-          const message = (xhr.response as { message?: string } | null)?.message ?? `The server answered ${xhr.status}.`;
-          patch(upload.id, { state: 'failed', message });
-        }
-      };
-      xhr.onerror = () => patch(upload.id, { state: 'failed', message: 'The connection dropped. Nothing was kept; try again.' });
-      xhr.onabort = () => patch(upload.id, { state: 'cancelled', message: 'Cancelled. Nothing was kept.' });
-      const form = new FormData();
-      if (recorderId) form.append('recorderId', recorderId);
-      // Multipart headers may not carry control characters, which some file systems allow in names.
-      form.append('file', file, cleanFileName(file.name));
-      xhr.send(form);
+      const upload: Upload = { id: nextUploadId++, file, sent: 0, startedAt: 0, state: 'checking' };
       setUploads((all) => [upload, ...all]);
+      void fileRefusal(file, maxBytes).then((refusal) => (refusal ? patch(upload.id, { state: 'failed', message: refusal }) : send(upload)));
     }
+  }
+
+  function send(upload: Upload) {
+    const { file } = upload;
+    const xhr = new XMLHttpRequest();
+    xhr.open('POST', `/api/sessions/${sessionId}/takes`);
+    xhr.responseType = 'json';
+    // `loaded` counts the multipart framing too: scale it to the file's own bytes.
+    xhr.upload.onprogress = (e) => patch(upload.id, { sent: e.total ? Math.min(file.size, Math.round((file.size * e.loaded) / e.total)) : 0 });
+    xhr.onload = () => {
+      if (xhr.status === 201) {
+        const takeId = (xhr.response as { takes?: { id: number }[] } | null)?.takes?.[0]?.id;
+        patch(upload.id, { state: 'done', sent: file.size, takeId });
+        void mutate(takesKey);
+      } else {
+        const message = (xhr.response as { message?: string } | null)?.message ?? `The server answered ${xhr.status}.`;
+        patch(upload.id, { state: 'failed', message });
+      }
+    };
+    xhr.onerror = () => patch(upload.id, { state: 'failed', message: 'The connection dropped. Nothing was kept; try again.' });
+    xhr.onabort = () => patch(upload.id, { state: 'cancelled', message: 'Cancelled. Nothing was kept.' });
+    const form = new FormData();
+    if (recorderId) form.append('recorderId', recorderId);
+    // Multipart headers may not carry control characters, which some file systems allow in names.
+    form.append('file', file, cleanFileName(file.name));
+    patch(upload.id, { state: 'sending', startedAt: Date.now(), xhr });
+    xhr.send(form);
   }
 
   return (
@@ -108,6 +122,8 @@ export function TakeUploader({ sessionId, recorders, takesKey }: { sessionId: nu
           accept=".wav,.bwf,audio/wav,audio/x-wav"
           multiple
           className="sr-only"
+          tabIndex={-1}
+          aria-hidden="true"
           aria-label="Choose WAV files to upload"
           data-testid="take-file-input"
           onChange={(e) => {
@@ -140,7 +156,8 @@ export function TakeUploader({ sessionId, recorders, takesKey }: { sessionId: nu
                 </div>
                 <p className="mt-1 text-xs">
                   {u.state === 'sending' && <span className="text-muted">Sending… {pct} % {timeLeft(u)}</span>}
-                  {u.state === 'done' && <span className="text-pass">✓ Uploaded — queued for measuring</span>}
+                  {u.state === 'checking' && <span className="text-muted">Checking the file…</span>}
+                  {u.state === 'done' && <UploadedTake take={listed?.takes.find((t) => t.id === u.takeId)} />}
                   {u.state === 'failed' && <span className="text-fail">✕ {u.message}</span>}
                   {u.state === 'cancelled' && <span className="text-muted">○ {u.message}</span>}
                 </p>
@@ -150,5 +167,17 @@ export function TakeUploader({ sessionId, recorders, takesKey }: { sessionId: nu
         </ul>
       )}
     </section>
+  );
+}
+
+/** An uploaded file's line once its take exists: live measuring status, then verdict and reason. */
+function UploadedTake({ take }: { take: TakeSummary | undefined }) {
+  if (!take || take.status === 'queued') return <span className="text-muted">◷ Uploaded — waiting to be measured</span>;
+  if (take.status !== 'measured') return <TakeStatusMark status={take.status} progress={take.progress} error={take.error} />;
+  return (
+    <span className="inline-flex flex-wrap items-center gap-x-2">
+      <VerdictMark verdict={take.verdict} />
+      {take.reason && <span>{take.reason}</span>}
+    </span>
   );
 }

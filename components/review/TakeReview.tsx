@@ -38,6 +38,7 @@ export function TakeReview({
   canDecide,
   canComment,
   viewer,
+  maxUploadBytes,
 }: {
   takeId: number;
   session: { id: number; title: string };
@@ -46,6 +47,8 @@ export function TakeReview({
   canDecide: boolean;
   canComment: boolean;
   viewer: { id: number; role: Role };
+  /** The studio's largest accepted file, bytes (for Replace file). */
+  maxUploadBytes: number;
 }) {
   const { data: take, mutate } = useSWR<TakeDetail>(takeKey(takeId), { refreshInterval: (latest) => (busy(latest) ? 1500 : 0) });
   const { data: commentData, mutate: mutateComments } = useSWR<{ comments: TakeCommentView[] }>(takeCommentsKey(takeId));
@@ -61,7 +64,14 @@ export function TakeReview({
   if (!take) return <p className="text-muted">Loading the take…</p>;
   const actions = (
     <div className="mt-2">
-      <TakeActions take={take} canRemeasure={can(viewer.role, 'take:remeasure')} canRemove={mayRemoveTake(viewer, take)} onChanged={() => void mutate()} leaveTo={`/sessions/${session.id}`} />
+      <TakeActions
+        take={take}
+        canRemeasure={can(viewer.role, 'take:remeasure')}
+        canRemove={mayRemoveTake(viewer, take)}
+        replace={can(viewer.role, 'take:upload') ? { maxBytes: maxUploadBytes } : undefined}
+        onChanged={() => void mutate()}
+        leaveTo={`/sessions/${session.id}`}
+      />
     </div>
   );
 

@@ -6,6 +6,7 @@ import { SwrProvider } from '@/components/SwrProvider';
 import { TakeTable } from '@/components/TakeTable';
 import { TakeUploader } from '@/components/TakeUploader';
 import { requireActor } from '@/lib/auth/guard.server';
+import { env } from '@/lib/env.server';
 import { can } from '@/lib/auth/policy';
 import { recorderOptions, specOptions } from '@/lib/studio/formOptions.server';
 import { loadPage } from '@/lib/http/pages.server';
@@ -50,7 +51,7 @@ export default async function SessionPage({ params }: { params: Promise<{ id: st
         <p className="max-w-prose text-xs text-muted">
           Verdicts follow the session’s delivery spec ({session.deliverySpec?.name ?? 'Takeproof defaults'}). The studio’s and the broadcaster’s own delivery specs and local rules take precedence over Takeproof’s defaults.
         </p>
-        {mayUpload && <TakeUploader sessionId={session.id} recorders={recorders} takesKey={takesKey} />}
+        {mayUpload && <TakeUploader sessionId={session.id} recorders={recorders} takesKey={takesKey} maxBytes={env().UPLOAD_MAX_BYTES} />}
         <TakeTable takesKey={takesKey} viewer={{ id: actor.id, role: actor.role }} />
         <SessionReportPanel sessionId={session.id} maySend={can(actor.role, 'report:send')} />
       </article>
