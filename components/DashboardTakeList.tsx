@@ -1,5 +1,5 @@
 import Link from 'next/link';
-import { TakeStatusMark, VerdictMark } from './StatusMarks';
+import { DecisionMark, TakeStatusMark, VerdictMark } from './StatusMarks';
 import type { DashboardTake } from '@/lib/overview/views';
 
 /** A short list of takes on the overview page, each linking to its review page. */
@@ -27,7 +27,7 @@ export function DashboardTakeList({ title, takes, empty, show }: { title: string
               {show === 'verdict' && t.reason && <span className="basis-full text-sm">{t.reason}</span>}
               {show === 'reject' && (
                 <span className="text-sm">
-                  <span className="font-semibold text-fail">■ Rejected</span>
+                  <DecisionMark decision="rejected" />
                   {t.decidedBy ? ` by ${t.decidedBy}` : ''}
                   {t.decisionNote ? ` — “${t.decisionNote}”` : ''}
                 </span>

@@ -5,10 +5,11 @@ import { useMemo, useState } from 'react';
 import useSWR from 'swr';
 import type { ApiError } from '@/lib/http/fetcher';
 import { describeFormat, formatDuration, formatMeasure } from '@/lib/format';
-import { DECISION_LABEL, MEASURE, VERDICT_LABEL } from '@/lib/glossary';
+import { MEASURE } from '@/lib/glossary';
+import { DECISION_STATUS, TAKE_STATUS, VERDICT_STATUS } from '@/lib/status';
 import { worstFirst } from '@/lib/takes/order';
 import type { TakeSummary } from '@/lib/takes/views';
-import { DecisionMark, TakeStatusMark, VerdictMark } from './StatusMarks';
+import { DecisionMark, StatusMark, TakeStatusMark, VerdictMark } from './StatusMarks';
 import { FormMessage } from './FormMessage';
 import { TakeActions } from './TakeActions';
 import { can, mayRemoveTake } from '@/lib/auth/policy';
@@ -85,7 +86,7 @@ export function TakeTable({ takesKey, viewer }: { takesKey: string; viewer: { id
             <option value="all">All</option>
             {(['pass', 'warn', 'fail'] as const).map((v) => (
               <option key={v} value={v}>
-                {VERDICT_LABEL[v].word}
+                {VERDICT_STATUS[v].word}
               </option>
             ))}
           </select>
@@ -96,7 +97,7 @@ export function TakeTable({ takesKey, viewer }: { takesKey: string; viewer: { id
             <option value="all">All</option>
             {(['pending', 'approved', 'rejected'] as const).map((d) => (
               <option key={d} value={d}>
-                {DECISION_LABEL[d].word}
+                {DECISION_STATUS[d].word}
               </option>
             ))}
           </select>
@@ -105,12 +106,12 @@ export function TakeTable({ takesKey, viewer }: { takesKey: string; viewer: { id
       {takes.length > 0 && (
         <p className="flex flex-wrap gap-x-5 gap-y-1 border-b border-line bg-sunken px-4 py-2 text-sm" data-testid="take-summary" aria-live="polite">
           <span>{takes.length} takes</span>
-          <span className="text-pass">{VERDICT_LABEL.pass.mark} {counts.pass} pass</span>
-          <span className="text-warn">{VERDICT_LABEL.warn.mark} {counts.warn} warn</span>
-          <span className="text-fail">{VERDICT_LABEL.fail.mark} {counts.fail} fail</span>
-          <span>{DECISION_LABEL.approved.mark} {counts.approved} approved</span>
-          <span>{DECISION_LABEL.rejected.mark} {counts.rejected} rejected</span>
-          {counts.waiting > 0 && <span className="text-muted">◷ {counts.waiting} still measuring</span>}
+          <StatusMark status={VERDICT_STATUS.fail}>{counts.fail} {VERDICT_STATUS.fail.word}</StatusMark>
+          <StatusMark status={VERDICT_STATUS.warn}>{counts.warn} {VERDICT_STATUS.warn.word}</StatusMark>
+          <StatusMark status={VERDICT_STATUS.pass}>{counts.pass} {VERDICT_STATUS.pass.word}</StatusMark>
+          <StatusMark status={DECISION_STATUS.approved}>{counts.approved} {DECISION_STATUS.approved.word}</StatusMark>
+          <StatusMark status={DECISION_STATUS.rejected}>{counts.rejected} {DECISION_STATUS.rejected.word}</StatusMark>
+          {counts.waiting > 0 && <StatusMark status={TAKE_STATUS.queued}>{counts.waiting} still being measured</StatusMark>}
         </p>
       )}
       <FormMessage error={error?.message} className="p-4" />

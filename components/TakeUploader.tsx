@@ -7,6 +7,7 @@ import { fileRefusal } from '@/lib/takes/fileCheck';
 import type { TakeSummary } from '@/lib/takes/views';
 import type { Option } from './SessionCreateForm';
 import { TakeStatusMark, VerdictMark } from './StatusMarks';
+import { TAKE_STATUS } from '@/lib/status';
 
 interface Upload {
   id: number;
@@ -172,7 +173,7 @@ export function TakeUploader({ sessionId, recorders, takesKey, maxBytes }: { ses
 
 /** An uploaded file's line once its take exists: live measuring status, then verdict and reason. */
 function UploadedTake({ take }: { take: TakeSummary | undefined }) {
-  if (!take || take.status === 'queued') return <span className="text-muted">◷ Uploaded — waiting to be measured</span>;
+  if (!take || take.status === 'queued') return <span className="text-muted">{TAKE_STATUS.queued.mark} Uploaded — waiting to be measured</span>;
   if (take.status !== 'measured') return <TakeStatusMark status={take.status} progress={take.progress} error={take.error} />;
   return (
     <span className="inline-flex flex-wrap items-center gap-x-2">

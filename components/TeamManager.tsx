@@ -11,13 +11,10 @@ import type { DeliveryView } from '@/lib/mail/views';
 import { ROLE_LABEL } from '@/lib/auth/policy';
 import type { Role } from '@/models/User';
 import { formatDateTime } from '@/lib/format';
+import { TONE_CLASS } from './StatusMarks';
+import { MEMBER_STATUS } from '@/lib/status';
 
 const KEY = '/api/users';
-const STATUS = {
-  active: { mark: '●', word: 'Active', tone: 'text-pass' },
-  invited: { mark: '○', word: 'Invited', tone: 'text-warn' },
-  deactivated: { mark: '✕', word: 'Deactivated', tone: 'text-muted' },
-} as const;
 
 function Notice({ notice }: { notice: { ok: boolean; text: string } | null }) {
   return <FormMessage error={notice && !notice.ok ? notice.text : null} notice={notice?.ok ? notice.text : null} testId="team-notice" className="mb-3 font-semibold" />;
@@ -122,7 +119,7 @@ export function TeamManager({ initial, selfId }: { initial: TeamMember[]; selfId
             </thead>
             <tbody>
               {users.map((u) => {
-                const s = STATUS[u.status];
+                const s = MEMBER_STATUS[u.status];
                 return (
                   <tr key={u.id} className="border-t border-line align-top">
                     <td className="px-4 py-2 font-semibold">
@@ -148,7 +145,7 @@ export function TeamManager({ initial, selfId }: { initial: TeamMember[]; selfId
                         ))}
                       </select>
                     </td>
-                    <td className={`px-4 py-2 font-semibold ${s.tone}`}>
+                    <td className={`px-4 py-2 font-semibold ${TONE_CLASS[s.tone]}`}>
                       <span aria-hidden="true">{s.mark} </span>
                       {s.word}
                       {u.status === 'invited' && u.invitationExpiresAt && (

@@ -19,6 +19,7 @@ import { LoudnessPlot, SpectrumPlot } from './Plots';
 import { TakeWorkspace, type PlayerHandle } from './TakeWorkspace';
 import { useTakeStepKeys } from './useTakeStepKeys';
 import type { TakeCommentView } from '@/lib/review/views';
+import { TAKE_STATUS } from '@/lib/status';
 
 export interface Neighbours {
   previous: { id: number; name: string } | null;
@@ -130,7 +131,7 @@ export function TakeReview({
       {busy(take) && (
         <section className="tp-card p-6" role="status" data-testid="measuring">
           <p className="text-lg font-semibold">
-            {take.status === 'queued' ? '◷ Waiting to be measured' : `Still measuring — ${Math.round(take.progress)} %`}
+            {take.status === 'queued' ? `${TAKE_STATUS.queued.mark} Waiting to be measured` : `${TAKE_STATUS.measuring.mark} Still measuring — ${Math.round(take.progress)} %`}
           </p>
           <div className="mt-3 h-2 w-full max-w-md overflow-hidden rounded bg-sunken" role="progressbar" aria-valuenow={Math.round(take.progress)} aria-valuemin={0} aria-valuemax={100} aria-label="Measuring">
             <div className="h-full bg-accent transition-[width]" style={{ width: `${take.progress}%` }} />

@@ -90,7 +90,7 @@ describe('the reason beside every verdict', () => {
   it('keeps the reason in step when the session is judged against another delivery spec', async () => {
     const before = await (await as.producer.fetch(`/api/takes/${quietId}`)).json();
     expect(before.reason ?? '').not.toMatch(/44\.1 kHz/);
-    const create = await as.manager.fetch('/api/specs', { method: 'POST', headers: ORIGIN, json: { name: `Reasons at 44.1 kHz ${Date.now()}`, requiredSampleRate: 44100 } });
+    const create = await as.manager.fetch('/api/specs', { method: 'POST', headers: ORIGIN, json: { name: `Reasons at 44.1 kHz ${Date.now()}`, thresholds: { requiredSampleRate: 44100 } } });
     expect(create.status).toBe(201);
     const spec = await create.json();
     const patch = await as.manager.fetch(`/api/sessions/${sessionId}`, { method: 'PATCH', headers: ORIGIN, json: { deliverySpecId: spec.id } });

@@ -14,6 +14,8 @@ import { idParam } from '@/lib/http/route.server';
 import { getSession } from '@/lib/sessions/service.server';
 import { sessionTakesKey } from '@/lib/http/swrKeys';
 import { listSessionTakes } from '@/lib/takes/service.server';
+import { StatusMark } from '@/components/StatusMarks';
+import { SESSION_STATUS } from '@/lib/status';
 
 export const metadata: Metadata = { title: 'Session' };
 
@@ -41,7 +43,7 @@ export default async function SessionPage({ params }: { params: Promise<{ id: st
             <div><dt className="inline">Room: </dt><dd className="inline text-ink">{session.room ?? '—'}</dd></div>
             <div><dt className="inline">Engineer: </dt><dd className="inline text-ink">{session.engineer?.name ?? '—'}</dd></div>
             <div><dt className="inline">Producer: </dt><dd className="inline text-ink">{session.producer?.name ?? '—'}</dd></div>
-            <div><dt className="inline">Status: </dt><dd className="inline text-ink">{session.status === 'open' ? '○ Open' : '● Closed'}</dd></div>
+            <div><dt className="inline">Status: </dt><dd className="inline text-ink"><StatusMark status={SESSION_STATUS[session.status]} className="font-normal" /></dd></div>
           </dl>
           {session.notes && <p className="mt-3 max-w-prose whitespace-pre-line">{session.notes}</p>}
         </div>
