@@ -6,7 +6,8 @@ import { isTyping } from './usePlayerKeys';
 
 /**
  * ← → open the previous or next take in the session table's order, unless the waveform used the
- * key to step to a finding first (it registers earlier and marks the event as handled).
+ * key to step to a finding (it marks the event as handled). The check waits until every listener
+ * has seen the key, whichever registered first.
  */
 export function useTakeStepKeys(previousHref: string | null, nextHref: string | null) {
   const router = useRouter();
@@ -15,8 +16,9 @@ export function useTakeStepKeys(previousHref: string | null, nextHref: string | 
       if (event.defaultPrevented || event.altKey || event.ctrlKey || event.metaKey || event.shiftKey || isTyping(event.target)) return;
       const href = event.key === 'ArrowRight' ? nextHref : event.key === 'ArrowLeft' ? previousHref : null;
       if (!href) return;
-      event.preventDefault();
-      router.push(href);
+      setTimeout(() => {
+        if (!event.defaultPrevented) router.push(href);
+      }, 0);
     };
     window.addEventListener('keydown', down);
     return () => window.removeEventListener('keydown', down);

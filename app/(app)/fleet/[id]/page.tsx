@@ -9,7 +9,7 @@ import { DEFAULT_ALERT_SETTINGS } from '@/lib/fleet/alerts';
 import { FLEET_PERIODS, PERIOD_LABEL, parsePeriod } from '@/lib/fleet/views';
 import { loadPage } from '@/lib/http/pages.server';
 import { idParam } from '@/lib/http/route.server';
-import { formatDate, formatMeasure } from '@/lib/format';
+import { formatDateTime, formatMeasure } from '@/lib/format';
 import { MEASURE, labelWithUnit } from '@/lib/glossary';
 import { RECORDER_STATUS, ALERT_STATUS } from '@/lib/status';
 
@@ -103,7 +103,7 @@ export default async function RecorderTrendsPage({ params, searchParams }: { par
                       {t.reason && <div className="text-xs">{t.reason}</div>}
                       <div className="text-xs text-muted">{t.sessionTitle}</div>
                     </td>
-                    <td className="px-3 py-2 font-mono">{formatDate(t.measuredAt)}</td>
+                    <td className="whitespace-nowrap px-3 py-2 font-mono">{formatDateTime(t.measuredAt)}</td>
                     <td className="px-3 py-2 font-mono">{formatMeasure(t.noiseFloorDbfs)}</td>
                     <td className="px-3 py-2 font-mono">{t.effectiveBits ?? '—'}</td>
                     <td className="px-3 py-2 font-mono">{formatMeasure(t.integratedLufs)}</td>
