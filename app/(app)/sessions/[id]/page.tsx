@@ -23,7 +23,7 @@ export default async function SessionPage({ params }: { params: Promise<{ id: st
   const { actor, session, takes, recorders, specs } = await loadPage(async () => {
     const actor = await requireActor('session:view');
     const session = await getSession(actor, await idParam(params, 'session'));
-    return { actor, session, takes: await listSessionTakes(actor, session.id), recorders: await recorderOptions(actor), specs: await specOptions(actor) };
+    return { actor, session, takes: await listSessionTakes(actor, session.id), recorders: await recorderOptions(actor), specs: await specOptions(actor, session.deliverySpec?.id ?? null) };
   });
   const takesKey = sessionTakesKey(session.id);
   const mayUpload = can(actor.role, 'take:upload') && session.status === 'open';
