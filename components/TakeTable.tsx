@@ -149,7 +149,11 @@ export function TakeTable({ takesKey, viewer }: { takesKey: string; viewer: { id
                         {t.reason}
                       </span>
                     )}
-                    <span className="block whitespace-nowrap text-xs text-muted">{describeFormat(t.format)}</span>
+                    {t.status === 'unreadable' ? (
+                      <span className="block text-xs text-fail">{t.error ?? 'The file could not be read.'}</span>
+                    ) : (
+                      <span className="block whitespace-nowrap text-xs text-muted">{describeFormat(t.format)}</span>
+                    )}
                   </td>
                   <td className="px-2 py-2">{t.recorderLabel ?? '—'}</td>
                   <td className="whitespace-nowrap px-2 py-2 text-right font-mono">{formatDuration(t.durationSec)}</td>

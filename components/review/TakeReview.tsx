@@ -8,8 +8,8 @@ import { DecisionMark, VerdictMark } from '@/components/StatusMarks';
 import { TakeActions } from '@/components/TakeActions';
 import { can, mayRemoveTake } from '@/lib/auth/policy';
 import type { Role } from '@/models/User';
-import { describeFormat, formatBytes, formatDuration } from '@/lib/format';
-import { hearingCaution, timedMarkers } from '@/lib/review/reportView';
+import { channelShortName, describeFormat, formatBytes, formatDuration } from '@/lib/format';
+import { hearingCaution, timedMarkers, untimedFindings } from '@/lib/review/reportView';
 import { takeCommentsKey, takeKey } from '@/lib/http/swrKeys';
 import type { TakeDetail } from '@/lib/takes/views';
 import { CommentsPanel } from './CommentsPanel';
@@ -58,6 +58,7 @@ export function TakeReview({
   const report = take?.status === 'measured' ? take.report : null;
   const markers = useMemo(() => (report ? timedMarkers(report) : []), [report]);
   const caution = useMemo(() => hearingCaution(report), [report]);
+  const untimed = useMemo(() => (report ? untimedFindings(report) : []), [report]);
   const comments = useMemo(() => commentData?.comments ?? [], [commentData]);
   const onTime = useCallback((t: number) => setPlayhead(t), []);
   useTakeStepKeys(neighbours.previous && `/takes/${neighbours.previous.id}`, neighbours.next && `/takes/${neighbours.next.id}`);
@@ -152,7 +153,18 @@ export function TakeReview({
 
       {report && (
         <>
-          <TakeWorkspace takeId={take.id} durationSec={take.durationSec ?? report.file.durationSec} channels={report.file.channels} markers={markers} comments={comments} caution={caution} onTime={onTime} ref={playerRef} />
+          <TakeWorkspace
+            takeId={take.id}
+            durationSec={take.durationSec ?? report.file.durationSec}
+            channels={report.file.channels}
+            lanes={report.channels.map((c, i) => ({ name: c.name ?? channelShortName(i, report.file.channels), silent: c.silent }))}
+            markers={markers}
+            untimed={untimed}
+            comments={comments}
+            caution={caution}
+            onTime={onTime}
+            ref={playerRef}
+          />
           <div className="grid gap-4 lg:grid-cols-[minmax(0,1fr)_24rem]">
             <div className="min-w-0 space-y-4">
               <MeasuresPanel report={report} spec={spec} />

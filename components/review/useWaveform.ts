@@ -30,7 +30,8 @@ export interface WaveformOptions {
   onRegionClick: (regionId: string, startSec: number) => void;
 }
 
-const laneHeight = (channels: number) => (channels > 1 ? 88 : 140);
+/** Height of one channel's lane, px. */
+export const laneHeight = (channels: number) => (channels > 1 ? 88 : 140);
 
 /** One region per timed finding, coloured by severity and labelled; comments as thin markers. */
 function drawRegions(regions: Regions, { markers, comments, colors, channels }: { markers: TimedMarker[]; comments: TakeCommentView[]; colors: ThemeColors; channels: number }) {
