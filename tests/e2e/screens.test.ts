@@ -91,6 +91,9 @@ describe('the main pages at 1280×720', () => {
     const box = await reason.boundingBox();
     expect(box).not.toBeNull();
     expect(box!.y + box!.height).toBeLessThanOrEqual(LAPTOP.height);
+    // Beside the waveform: each lane named after its channel, and the findings that have no moment in time.
+    await expect(page.getByTestId('lane-name').allTextContents()).resolves.toEqual(['L', 'R']);
+    await expect(page.getByTestId('untimed-findings').textContent()).resolves.toMatch(/Noise floor/);
     await context.close();
   });
 
