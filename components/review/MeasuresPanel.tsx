@@ -27,7 +27,7 @@ export function MeasuresPanel({ report, spec }: { report: AnalysisReport; spec: 
       </dl>
       {other.length > 0 && (
         <>
-          <h3 className="mt-4 font-semibold">All findings without a time</h3>
+          <h3 className="mt-4 font-semibold">Findings for the whole take</h3>
           <ul className="mt-1 space-y-1 text-sm">
             {other.map((f, i) => (
               <li key={i} className="flex gap-2">

@@ -162,7 +162,7 @@ export function TakeWorkspace({ takeId, durationSec, channels, lanes, markers, u
         {untimed.length > 0 && (
           <section className="tp-card p-4" aria-labelledby="untimed-heading">
             <h2 id="untimed-heading" className="text-lg font-semibold">
-              For the whole take
+              Findings for the whole take
             </h2>
             <ul className="mt-2 space-y-1.5 text-sm" data-testid="untimed-findings">
               {untimed.map((f, i) => (
