@@ -107,7 +107,7 @@ export function TakeWorkspace({ takeId, durationSec, channels, lanes, markers, u
               −
             </button>
             <span className="w-20 text-center text-xs text-muted" data-testid="zoom-level">
-              {ZOOM_STEPS[zoomIndex] === 0 ? 'Whole take' : `${ZOOM_STEPS[zoomIndex]} px/s`}
+              {ZOOM_STEPS[zoomIndex] === 1 ? 'Whole take' : `× ${ZOOM_STEPS[zoomIndex]}`}
             </span>
             <button type="button" className="tp-button-quiet px-2.5" onClick={() => setZoomIndex((z) => Math.min(ZOOM_STEPS.length - 1, z + 1))} disabled={zoomIndex === ZOOM_STEPS.length - 1} aria-label="Zoom in">
               +

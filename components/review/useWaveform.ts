@@ -10,7 +10,13 @@ import { SEVERITY } from './marks';
 import type { ThemeColors } from './useThemeColors';
 
 /** Zoom levels in pixels per second; 0 fits the whole take. */
-export const ZOOM_STEPS = [0, 20, 50, 100, 200, 500, 1000];
+/** Zoom as a multiple of the width that shows the whole take, so short and long takes both zoom in usefully (1: whole take). */
+export const ZOOM_STEPS = [1, 2, 4, 8, 16, 32, 64];
+
+/** Pixels per second for a zoom factor: 0 lets the player fit the whole take. */
+function pxPerSec(factor: number, container: HTMLElement | null, durationSec: number): number {
+  return factor <= 1 || !container || durationSec <= 0 ? 0 : (factor * container.clientWidth) / durationSec;
+}
 
 type Regions = ReturnType<(typeof RegionsPlugin)['create']>;
 
@@ -98,7 +104,7 @@ export function useWaveform({ takeId, durationSec, channels, peaks, colors, volu
   const [failure, setFailure] = useState<string | null>(null);
 
   // What the player starts with; read when it is built, not reasons to build it again.
-  const startSettings = useEffectEvent(() => ({ palette: colors, startVolume: volume, minPxPerSec: ZOOM_STEPS[zoomIndex] }));
+  const startSettings = useEffectEvent(() => ({ palette: colors, startVolume: volume, minPxPerSec: pxPerSec(ZOOM_STEPS[zoomIndex], containerRef.current, durationSec) }));
   const timeMoved = useEffectEvent((seconds: number) => onTime(seconds));
   const regionClicked = useEffectEvent((id: string, start: number) => onRegionClick(id, start));
   const haveColors = colors !== null;
@@ -194,8 +200,8 @@ export function useWaveform({ takeId, durationSec, channels, peaks, colors, volu
   }, [volume]);
 
   useEffect(() => {
-    if (ready) playerRef.current?.zoom(ZOOM_STEPS[zoomIndex]);
-  }, [zoomIndex, ready]);
+    if (ready) playerRef.current?.zoom(pxPerSec(ZOOM_STEPS[zoomIndex], containerRef.current, durationSec));
+  }, [zoomIndex, ready, durationSec]);
 
   return {
     containerRef,
