@@ -282,12 +282,18 @@ export function measureRows(report: AnalysisReport, spec: DeliverySpec): Measure
         : 'Correlation near +1 means the channels agree; near −1 means they cancel each other when summed to mono.',
     });
   } else {
+    const silentTracks = report.channels.filter((c) => c.silent).length;
     add({
       key: 'stereo',
       title: file.channels === 1 ? 'Channel' : 'Tracks',
       value: file.channels === 1 ? 'mono take' : `${file.channels} tracks`,
       findings: pick('silent-channel'),
-      explanation: file.channels === 1 ? 'The channel carries signal.' : `Each of the ${file.channels} tracks carries signal of its own.`,
+      explanation:
+        file.channels === 1
+          ? 'The channel carries signal.'
+          : silentTracks > 0
+            ? `${file.channels - silentTracks} of the ${file.channels} tracks carry signal; the others are unused.`
+            : `Each of the ${file.channels} tracks carries signal of its own.`,
     });
   }
 

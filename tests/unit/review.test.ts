@@ -106,6 +106,17 @@ describe('measureRows', () => {
     expect(tracks.explanation).not.toMatch(/two-channel/);
   });
 
+  it('says an unused track of a location recording is unused, and still passes the Tracks row', () => {
+    const poly = report((r) => {
+      r.file = { ...r.file, channels: 4, layout: 'poly' };
+      r.channels = Array.from({ length: 4 }, (_, i) => ({ ...r.channels[0], silent: i === 3 }));
+      r.stereo = null;
+    });
+    const tracks = measureRows(poly, DEFAULT_SPEC).find((r) => r.key === 'stereo')!;
+    expect(tracks.mark).toBe('pass');
+    expect(tracks.explanation).toBe('3 of the 4 tracks carry signal; the others are unused.');
+  });
+
   it('gives a clean take a pass on every applicable measure and n/a for a missing tone', () => {
     const marks = measureRows(report(), DEFAULT_SPEC).map((r) => [r.key, r.mark]);
     expect(marks).toEqual([
