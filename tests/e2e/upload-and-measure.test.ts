@@ -24,7 +24,7 @@ describe('an engineer uploads takes after a session', () => {
     await page.getByLabel('Title').fill('Harbour Lights — pickups');
     await page.getByRole('button', { name: 'Create session' }).click();
     await page.waitForURL(/\/sessions\/\d+$/);
-    await expect(page.getByText('No takes yet.').isVisible()).resolves.toBe(true);
+    await page.getByText('No takes yet.').waitFor();
 
     await page.getByTestId('take-file-input').setInputFiles(SAMPLES);
     // Each upload's line turns into its take's live status, then its verdict, without a reload.
