@@ -29,6 +29,8 @@ const nextConfig = {
   distDir: process.env.NEXT_DIST_DIR || '.next',
   reactStrictMode: true,
   poweredByHeader: false,
+  // forbidden() answers a page a person's role may not see with HTTP 403 and app/forbidden.tsx.
+  experimental: { authInterrupts: true },
   serverExternalPackages: ['sequelize', 'mariadb', 'piscina', 'pdfkit', 'smtp-server', 'nodemailer'],
   outputFileTracingRoot: import.meta.dirname,
   async headers() {

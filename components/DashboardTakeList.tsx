@@ -1,5 +1,5 @@
 import Link from 'next/link';
-import { TakeStatusMark, VerdictMark } from './StatusMarks';
+import { DecisionMark, TakeStatusMark, VerdictMark } from './StatusMarks';
 import type { DashboardTake } from '@/lib/overview/views';
 
 /** A short list of takes on the overview page, each linking to its review page. */
@@ -24,9 +24,10 @@ export function DashboardTakeList({ title, takes, empty, show }: { title: string
               </Link>
               {show === 'status' && <TakeStatusMark status={t.status} progress={t.progress} error={null} />}
               {show === 'verdict' && <VerdictMark verdict={t.verdict} />}
+              {show === 'verdict' && t.reason && <span className="basis-full text-sm">{t.reason}</span>}
               {show === 'reject' && (
                 <span className="text-sm">
-                  <span className="font-semibold text-fail">■ Rejected</span>
+                  <DecisionMark decision="rejected" />
                   {t.decidedBy ? ` by ${t.decidedBy}` : ''}
                   {t.decisionNote ? ` — “${t.decisionNote}”` : ''}
                 </span>

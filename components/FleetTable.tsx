@@ -10,6 +10,8 @@ import { Sparkline } from './Sparkline';
 import { FormMessage } from './FormMessage';
 import { LastCheckCell } from './converter/LastCheckCell';
 import { formatMeasure } from '@/lib/format';
+import { StatusMark } from './StatusMarks';
+import { ALERT_STATUS, RECORDER_STATUS, statusText } from '@/lib/status';
 
 
 type SortKey = 'label' | 'takes' | 'medianFloorDbfs' | 'clippedShare' | 'minEffectiveBits' | 'overTakes' | 'rateMismatchTakes' | 'aliasingTakes' | 'rejectRate' | 'converterCheck' | 'alerts';
@@ -111,7 +113,7 @@ export function FleetTable({ initialPeriod }: { initialPeriod: FleetPeriod }) {
                     </Link>
                     <div className="text-xs text-muted">
                       {r.makeModel ?? 'Make not recorded'}
-                      {!r.active && ' · ○ Retired'}
+                      {!r.active && ` · ${statusText(RECORDER_STATUS.retired)}`}
                     </div>
                   </td>
                   <td className="px-3 py-2 font-mono">{r.takes}</td>
@@ -127,10 +129,10 @@ export function FleetTable({ initialPeriod }: { initialPeriod: FleetPeriod }) {
                   </td>
                   <td className="px-3 py-2">
                     {r.alerts.length === 0 ? (
-                      <span className="text-muted">● None</span>
+                      <StatusMark status={ALERT_STATUS.none} className="font-normal" />
                     ) : (
                       <span className={r.alerts.some((a) => a.severity === 'fail') ? 'font-semibold text-fail' : 'font-semibold text-warn'} title={r.alerts.map((a) => a.title).join('; ')}>
-                        ▲ {r.alerts.length} {r.alerts.length === 1 ? 'alert' : 'alerts'}
+                        {ALERT_STATUS[r.alerts.some((a) => a.severity === 'fail') ? 'fail' : 'warn'].mark} {r.alerts.length} {r.alerts.length === 1 ? 'alert' : 'alerts'}
                       </span>
                     )}
                   </td>

@@ -7,6 +7,8 @@ import { type ApiError } from '@/lib/http/fetcher';
 import { sessionsKey } from '@/lib/http/swrKeys';
 import type { SessionSummary } from '@/lib/sessions/views';
 import { FormMessage } from './FormMessage';
+import { StatusMark } from './StatusMarks';
+import { SESSION_STATUS } from '@/lib/status';
 
 /** The studio's sessions with search and an open/closed filter. */
 export function SessionList() {
@@ -64,7 +66,7 @@ export function SessionList() {
                   <td className="px-4 py-2 font-mono">{s.recordedOn ?? '—'}</td>
                   <td className="px-4 py-2">{s.room ?? '—'}</td>
                   <td className="px-4 py-2 font-mono">{s.takeCount}</td>
-                  <td className="px-4 py-2">{s.status === 'open' ? '○ Open' : '● Closed'}</td>
+                  <td className="px-4 py-2"><StatusMark status={SESSION_STATUS[s.status]} className="font-normal" /></td>
                 </tr>
               ))}
             </tbody>

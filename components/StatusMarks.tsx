@@ -1,29 +1,25 @@
-import { DECISION_LABEL, VERDICT_LABEL } from '@/lib/glossary';
+import { DECISION_STATUS, TAKE_STATUS, VERDICT_STATUS, type StatusLook, type Tone } from '@/lib/status';
 import type { Decision, TakeStatus, Verdict } from '@/models/Take';
 
-// Every status pairs a colour with a shape and a word, so it reads without colour too.
-const VERDICT_TONE = { pass: 'text-pass', warn: 'text-warn', fail: 'text-fail' } as const;
-const DECISION_TONE = { pending: 'text-muted', approved: 'text-pass', rejected: 'text-fail' } as const;
+/** The page colour of each tone; always beside a mark and a word. */
+export const TONE_CLASS: Record<Tone, string> = { pass: 'text-pass', warn: 'text-warn', fail: 'text-fail', muted: 'text-muted', accent: 'text-accent' };
 
-export function VerdictMark({ verdict }: { verdict: Verdict | null }) {
-  if (!verdict) return <span className="text-muted">—</span>;
-  const v = VERDICT_LABEL[verdict];
+/** Any status of lib/status.ts: its mark, its word, its tone. */
+export function StatusMark({ status, className = '', children }: { status: StatusLook; className?: string; children?: React.ReactNode }) {
   return (
-    <span className={`inline-flex items-center gap-1 font-semibold ${VERDICT_TONE[verdict]}`}>
-      <span aria-hidden="true">{v.mark}</span>
-      {v.word}
+    <span className={`inline-flex items-center gap-1 font-semibold ${TONE_CLASS[status.tone]} ${className}`}>
+      <span aria-hidden="true">{status.mark}</span>
+      {children ?? status.word}
     </span>
   );
 }
 
+export function VerdictMark({ verdict }: { verdict: Verdict | null }) {
+  return <StatusMark status={VERDICT_STATUS[verdict ?? 'none']} />;
+}
+
 export function DecisionMark({ decision }: { decision: Decision }) {
-  const d = DECISION_LABEL[decision];
-  return (
-    <span className={`inline-flex items-center gap-1 font-semibold ${DECISION_TONE[decision]}`}>
-      <span aria-hidden="true">{d.mark}</span>
-      {d.word}
-    </span>
-  );
+  return <StatusMark status={DECISION_STATUS[decision]} />;
 }
 
 /** Where a take is in its measurement, with live progress while it is measured. */
@@ -38,13 +34,9 @@ export function TakeStatusMark({ status, progress, error }: { status: TakeStatus
       </span>
     );
   }
-  if (status === 'queued') return <span className="text-muted">◷ Queued</span>;
-  if (status === 'unreadable') {
-    return (
-      <span className="font-semibold text-fail" title={error ?? undefined}>
-        ✕ Unreadable
-      </span>
-    );
-  }
-  return <span className="text-muted">Measured</span>;
+  return (
+    <span title={status === 'unreadable' ? (error ?? undefined) : undefined}>
+      <StatusMark status={TAKE_STATUS[status]} className={status === 'unreadable' ? '' : 'font-normal'} />
+    </span>
+  );
 }

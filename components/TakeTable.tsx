@@ -5,10 +5,15 @@ import { useMemo, useState } from 'react';
 import useSWR from 'swr';
 import type { ApiError } from '@/lib/http/fetcher';
 import { describeFormat, formatDuration, formatMeasure } from '@/lib/format';
-import { DECISION_LABEL, MEASURE, VERDICT_LABEL } from '@/lib/glossary';
+import { MEASURE } from '@/lib/glossary';
+import { DECISION_STATUS, TAKE_STATUS, VERDICT_STATUS } from '@/lib/status';
+import { worstFirst } from '@/lib/takes/order';
 import type { TakeSummary } from '@/lib/takes/views';
-import { DecisionMark, TakeStatusMark, VerdictMark } from './StatusMarks';
+import { DecisionMark, StatusMark, TakeStatusMark, VerdictMark } from './StatusMarks';
 import { FormMessage } from './FormMessage';
+import { TakeActions } from './TakeActions';
+import { can, mayRemoveTake } from '@/lib/auth/policy';
+import type { Role } from '@/models/User';
 
 type SortKey = 'originalName' | 'recorderLabel' | 'durationSec' | 'effectiveBits' | 'truePeakDbtp' | 'integratedLufs' | 'noiseFloorDbfs' | 'clipEvents' | 'verdict' | 'decision';
 
@@ -25,11 +30,10 @@ const COLUMNS: { key: SortKey; label: string; numeric?: boolean }[] = [
   { key: 'decision', label: 'Decision' },
 ];
 
-const VERDICT_ORDER = { fail: 0, warn: 1, pass: 2 } as const;
-
 function compare(a: TakeSummary, b: TakeSummary, key: SortKey): number {
-  const va = key === 'verdict' ? (a.verdict ? VERDICT_ORDER[a.verdict] : 9) : a[key];
-  const vb = key === 'verdict' ? (b.verdict ? VERDICT_ORDER[b.verdict] : 9) : b[key];
+  if (key === 'verdict') return worstFirst(a, b);
+  const va = a[key];
+  const vb = b[key];
   if (va == null && vb == null) return 0;
   if (va == null) return 1;
   if (vb == null) return -1;
@@ -37,11 +41,11 @@ function compare(a: TakeSummary, b: TakeSummary, key: SortKey): number {
 }
 
 /** The session's takes, sortable and filterable; polls while any take is still being measured. */
-export function TakeTable({ takesKey }: { takesKey: string }) {
-  const { data, error } = useSWR<{ takes: TakeSummary[] }, ApiError>(takesKey, {
+export function TakeTable({ takesKey, viewer }: { takesKey: string; viewer: { id: number; role: Role } }) {
+  const { data, error, mutate } = useSWR<{ takes: TakeSummary[] }, ApiError>(takesKey, {
     refreshInterval: (latest) => (latest?.takes.some((t) => t.status === 'queued' || t.status === 'measuring') ? 1500 : 0),
   });
-  const [sort, setSort] = useState<{ key: SortKey; descending: boolean }>({ key: 'originalName', descending: false });
+  const [sort, setSort] = useState<{ key: SortKey; descending: boolean }>({ key: 'verdict', descending: false });
   const [filter, setFilter] = useState({ text: '', verdict: 'all', decision: 'all' });
   const takes = useMemo(() => data?.takes ?? [], [data]);
 
@@ -53,7 +57,7 @@ export function TakeTable({ takesKey }: { takesKey: string }) {
         (filter.verdict === 'all' || t.verdict === filter.verdict) &&
         (filter.decision === 'all' || t.decision === filter.decision),
     );
-    rows.sort((a, b) => compare(a, b, sort.key) * (sort.descending ? -1 : 1));
+    rows.sort((a, b) => compare(a, b, sort.key) * (sort.descending ? -1 : 1) || worstFirst(a, b));
     return rows;
   }, [takes, filter, sort]);
 
@@ -82,7 +86,7 @@ export function TakeTable({ takesKey }: { takesKey: string }) {
             <option value="all">All</option>
             {(['pass', 'warn', 'fail'] as const).map((v) => (
               <option key={v} value={v}>
-                {VERDICT_LABEL[v].word}
+                {VERDICT_STATUS[v].word}
               </option>
             ))}
           </select>
@@ -93,7 +97,7 @@ export function TakeTable({ takesKey }: { takesKey: string }) {
             <option value="all">All</option>
             {(['pending', 'approved', 'rejected'] as const).map((d) => (
               <option key={d} value={d}>
-                {DECISION_LABEL[d].word}
+                {DECISION_STATUS[d].word}
               </option>
             ))}
           </select>
@@ -102,12 +106,12 @@ export function TakeTable({ takesKey }: { takesKey: string }) {
       {takes.length > 0 && (
         <p className="flex flex-wrap gap-x-5 gap-y-1 border-b border-line bg-sunken px-4 py-2 text-sm" data-testid="take-summary" aria-live="polite">
           <span>{takes.length} takes</span>
-          <span className="text-pass">{VERDICT_LABEL.pass.mark} {counts.pass} pass</span>
-          <span className="text-warn">{VERDICT_LABEL.warn.mark} {counts.warn} warn</span>
-          <span className="text-fail">{VERDICT_LABEL.fail.mark} {counts.fail} fail</span>
-          <span>{DECISION_LABEL.approved.mark} {counts.approved} approved</span>
-          <span>{DECISION_LABEL.rejected.mark} {counts.rejected} rejected</span>
-          {counts.waiting > 0 && <span className="text-muted">◷ {counts.waiting} still measuring</span>}
+          <StatusMark status={VERDICT_STATUS.fail}>{counts.fail} {VERDICT_STATUS.fail.word}</StatusMark>
+          <StatusMark status={VERDICT_STATUS.warn}>{counts.warn} {VERDICT_STATUS.warn.word}</StatusMark>
+          <StatusMark status={VERDICT_STATUS.pass}>{counts.pass} {VERDICT_STATUS.pass.word}</StatusMark>
+          <StatusMark status={DECISION_STATUS.approved}>{counts.approved} {DECISION_STATUS.approved.word}</StatusMark>
+          <StatusMark status={DECISION_STATUS.rejected}>{counts.rejected} {DECISION_STATUS.rejected.word}</StatusMark>
+          {counts.waiting > 0 && <StatusMark status={TAKE_STATUS.queued}>{counts.waiting} still being measured</StatusMark>}
         </p>
       )}
       <FormMessage error={error?.message} className="p-4" />
@@ -122,37 +126,52 @@ export function TakeTable({ takesKey }: { takesKey: string }) {
                 {COLUMNS.map((c) => {
                   const active = sort.key === c.key;
                   return (
-                    <th key={c.key} scope="col" className={`px-3 py-2 font-semibold ${c.numeric ? 'text-right' : ''}`} aria-sort={active ? (sort.descending ? 'descending' : 'ascending') : 'none'}>
-                      <button type="button" className="inline-flex items-center gap-1 hover:text-ink" onClick={() => setSort({ key: c.key, descending: active ? !sort.descending : false })}>
+                    <th key={c.key} scope="col" className={`px-2 py-2 align-bottom font-semibold ${c.numeric ? 'text-right' : ''}`} aria-sort={active ? (sort.descending ? 'descending' : 'ascending') : 'none'}>
+                      <button type="button" className={`inline-flex items-end gap-1 hover:text-ink ${c.numeric ? 'text-right' : 'text-left'}`} onClick={() => setSort({ key: c.key, descending: active ? !sort.descending : false })}>
                         {c.label}
                         <span aria-hidden="true">{active ? (sort.descending ? '▼' : '▲') : '↕'}</span>
                       </button>
                     </th>
                   );
                 })}
-                <th scope="col" className="px-3 py-2 font-semibold">Format</th>
-                <th scope="col" className="px-3 py-2 font-semibold">Status</th>
+                <th scope="col" className="px-2 py-2 font-semibold">Status</th>
               </tr>
             </thead>
             <tbody>
               {shown.map((t) => (
                 <tr key={t.id} className="border-t border-line" data-testid={`take-row-${t.id}`}>
-                  <td className="max-w-64 truncate px-3 py-2" title={t.originalName}>
-                    <Link href={`/takes/${t.id}`} className="font-semibold text-accent hover:underline">
+                  <td className="max-w-72 px-2 py-2">
+                    <Link href={`/takes/${t.id}`} className="block truncate font-semibold text-accent hover:underline" title={t.originalName}>
                       {t.originalName}
                     </Link>
+                    {t.reason && (
+                      <span className="block text-xs" data-testid="reason">
+                        {t.reason}
+                      </span>
+                    )}
+                    {t.status === 'unreadable' ? (
+                      <span className="block text-xs text-fail">{t.error ?? 'The file could not be read.'}</span>
+                    ) : (
+                      <span className="block whitespace-nowrap text-xs text-muted">{describeFormat(t.format)}</span>
+                    )}
                   </td>
-                  <td className="px-3 py-2">{t.recorderLabel ?? '—'}</td>
-                  <td className="px-3 py-2 text-right font-mono">{formatDuration(t.durationSec)}</td>
-                  <td className="px-3 py-2 text-right font-mono">{t.effectiveBits ?? '—'}</td>
-                  <td className="px-3 py-2 text-right font-mono">{formatMeasure(t.truePeakDbtp, 1, 'dBTP')}</td>
-                  <td className="px-3 py-2 text-right font-mono">{formatMeasure(t.integratedLufs, 1, 'LUFS')}</td>
-                  <td className="px-3 py-2 text-right font-mono">{formatMeasure(t.noiseFloorDbfs, 1, 'dBFS')}</td>
-                  <td className="px-3 py-2 text-right font-mono">{t.clipEvents ?? '—'}</td>
-                  <td className="px-3 py-2" data-testid="verdict"><VerdictMark verdict={t.verdict} /></td>
-                  <td className="px-3 py-2" data-testid="decision"><DecisionMark decision={t.decision} /></td>
-                  <td className="whitespace-nowrap px-3 py-2 text-muted">{describeFormat(t.format)}</td>
-                  <td className="px-3 py-2" data-testid="status"><TakeStatusMark status={t.status} progress={t.progress} error={t.error} /></td>
+                  <td className="px-2 py-2">{t.recorderLabel ?? '—'}</td>
+                  <td className="whitespace-nowrap px-2 py-2 text-right font-mono">{formatDuration(t.durationSec)}</td>
+                  <td className="whitespace-nowrap px-2 py-2 text-right font-mono">{t.effectiveBits ?? '—'}</td>
+                  <td className="whitespace-nowrap px-2 py-2 text-right font-mono">{formatMeasure(t.truePeakDbtp, 1, 'dBTP')}</td>
+                  <td className="whitespace-nowrap px-2 py-2 text-right font-mono">{formatMeasure(t.integratedLufs, 1, 'LUFS')}</td>
+                  <td className="whitespace-nowrap px-2 py-2 text-right font-mono">{formatMeasure(t.noiseFloorDbfs, 1, 'dBFS')}</td>
+                  <td className="whitespace-nowrap px-2 py-2 text-right font-mono">{t.clipEvents ?? '—'}</td>
+                  <td className="whitespace-nowrap px-2 py-2" data-testid="verdict"><VerdictMark verdict={t.verdict} /></td>
+                  <td className="whitespace-nowrap px-2 py-2" data-testid="decision"><DecisionMark decision={t.decision} /></td>
+                  <td className="px-2 py-2" data-testid="status">
+                    <TakeStatusMark status={t.status} progress={t.progress} error={t.error} />
+                    {t.status === 'unreadable' && (
+                      <div className="mt-1">
+                        <TakeActions take={t} canRemeasure={can(viewer.role, 'take:remeasure')} canRemove={mayRemoveTake(viewer, t)} onChanged={() => void mutate()} compact />
+                      </div>
+                    )}
+                  </td>
                 </tr>
               ))}
             </tbody>

@@ -1,22 +1,36 @@
 'use client';
 
 import { useRef, useState } from 'react';
-import { useSWRConfig } from 'swr';
+import useSWR, { useSWRConfig } from 'swr';
 import * as tus from 'tus-js-client';
 import { cleanFileName, formatBytes } from '@/lib/format';
+import { fileRefusal } from '@/lib/takes/fileCheck';
+import type { TakeSummary } from '@/lib/takes/views';
 import type { Option } from './SessionCreateForm';
+import { TakeStatusMark, VerdictMark } from './StatusMarks';
+import { TAKE_STATUS } from '@/lib/status';
 
 interface Upload {
   id: number;
   file: File;
+  /** Bytes of the file sent so far (the multipart framing around it not counted). */
   sent: number;
   startedAt: number;
-  state: 'sending' | 'done' | 'failed' | 'cancelled';
+  state: 'checking' | 'sending' | 'done' | 'failed' | 'cancelled';
+  takeId?: number;
   message?: string;
   cancel?: () => void;
 }
 
 let nextUploadId = 1;
+
+function timeLeft(u: Upload): string {
+  const elapsed = (Date.now() - u.startedAt) / 1000;
+  if (u.sent === 0 || elapsed < 0.5) return '';
+  const rate = u.sent / elapsed;
+  const rest = (u.file.size - u.sent) / rate;
+  return `${formatBytes(rate)}/s · ${rest < 60 ? `${Math.ceil(rest)} s` : `${Math.ceil(rest / 60)} min`} left`;
+}
 
 /** Files from this size on go up as resumable (tus) uploads, in parts of RESUMABLE_PART_BYTES. */
 const RESUMABLE_FROM_BYTES = 64 * 1024 * 1024;
@@ -33,21 +47,24 @@ function messageOf(error: Error): string {
   }
 }
 
-function timeLeft(u: Upload): string {
-  const elapsed = (Date.now() - u.startedAt) / 1000;
-  if (u.sent === 0 || elapsed < 0.5) return '';
-  const rate = u.sent / elapsed;
-  const rest = (u.file.size - u.sent) / rate;
-  return `${formatBytes(rate)}/s · ${rest < 60 ? `${Math.ceil(rest)} s` : `${Math.ceil(rest / 60)} min`} left`;
+/** The new take's id from an upload's answer (`{ takes: [{ id }] }`, as an object or as JSON text). */
+function takeIdOf(answer: unknown): number | undefined {
+  try {
+    const body = (typeof answer === 'string' ? JSON.parse(answer) : answer) as { takes?: { id: number }[] } | null;
+    return body?.takes?.[0]?.id;
+  } catch {
+    return undefined;
+  }
 }
 
 /**
- * Drop zone and file picker for many WAV takes at once. Each file goes up on its own, with its own bar
- * and cancel button: a small one in one request (XMLHttpRequest, because fetch cannot report upload
- * progress), a large one as a resumable upload.
+ * Drop zone and file picker for many WAV takes at once. Each file goes up in its own request
+ * (XMLHttpRequest, because fetch cannot report upload progress) with its own bar and cancel button.
  */
-export function TakeUploader({ sessionId, recorders, takesKey }: { sessionId: number; recorders: Option[]; takesKey: string }) {
+export function TakeUploader({ sessionId, recorders, takesKey, maxBytes }: { sessionId: number; recorders: Option[]; takesKey: string; maxBytes: number }) {
   const { mutate } = useSWRConfig();
+  // The same list the take table polls: an upload's line follows its take once it is stored.
+  const { data: listed } = useSWR<{ takes: TakeSummary[] }>(takesKey);
   const [uploads, setUploads] = useState<Upload[]>([]);
   const [dragging, setDragging] = useState(false);
   const [recorderId, setRecorderId] = useState('');
@@ -55,12 +72,25 @@ export function TakeUploader({ sessionId, recorders, takesKey }: { sessionId: nu
 
   const patch = (id: number, change: Partial<Upload>) => setUploads((all) => all.map((u) => (u.id === id ? { ...u, ...change } : u)));
 
+  function start(files: FileList | File[]) {
+    for (const file of Array.from(files)) {
+      const upload: Upload = { id: nextUploadId++, file, sent: 0, startedAt: 0, state: 'checking' };
+      setUploads((all) => [upload, ...all]);
+      void fileRefusal(file, maxBytes).then((refusal) => {
+        if (refusal) patch(upload.id, { state: 'failed', message: refusal });
+        else if (file.size >= RESUMABLE_FROM_BYTES) startResumable(upload);
+        else send(upload);
+      });
+    }
+  }
+
   /**
    * A large file goes up with the tus protocol: a dropped connection is retried from the last byte the
    * server holds, and choosing the same file again after a reload continues the earlier upload.
    */
   function startResumable(upload: Upload) {
     const { file } = upload;
+    patch(upload.id, { state: 'sending', startedAt: Date.now() });
     const resumable = new tus.Upload(file, {
       endpoint: `/api/sessions/${sessionId}/uploads`,
       chunkSize: RESUMABLE_PART_BYTES,
@@ -68,8 +98,8 @@ export function TakeUploader({ sessionId, recorders, takesKey }: { sessionId: nu
       removeFingerprintOnSuccess: true,
       metadata: { filename: cleanFileName(file.name), ...(recorderId ? { recorderId } : {}) },
       onProgress: (sent) => patch(upload.id, { sent }),
-      onSuccess: () => {
-        patch(upload.id, { state: 'done', sent: file.size });
+      onSuccess: ({ lastResponse }) => {
+        patch(upload.id, { state: 'done', sent: file.size, takeId: takeIdOf(lastResponse.getBody()) });
         void mutate(takesKey);
       },
       onError: (error) => patch(upload.id, { state: 'failed', message: messageOf(error) }),
@@ -84,36 +114,32 @@ export function TakeUploader({ sessionId, recorders, takesKey }: { sessionId: nu
     });
   }
 
-  function start(files: FileList | File[]) {
-    for (const file of Array.from(files)) {
-      const upload: Upload = { id: nextUploadId++, file, sent: 0, startedAt: Date.now(), state: 'sending' };
-      setUploads((all) => [upload, ...all]);
-      if (file.size >= RESUMABLE_FROM_BYTES) {
-        startResumable(upload);
-        continue;
+  function send(upload: Upload) {
+    const { file } = upload;
+    const xhr = new XMLHttpRequest();
+    xhr.open('POST', `/api/sessions/${sessionId}/takes`);
+    xhr.responseType = 'json';
+    // `loaded` counts the multipart framing too: scale it to the file's own bytes.
+    xhr.upload.onprogress = (e) => patch(upload.id, { sent: e.total ? Math.min(file.size, Math.round((file.size * e.loaded) / e.total)) : 0 });
+    xhr.onload = () => {
+      if (xhr.status === 201) {
+        const takeId = takeIdOf(xhr.response);
+        patch(upload.id, { state: 'done', sent: file.size, takeId });
+        void mutate(takesKey);
+      } else {
+        const message = (xhr.response as { message?: string } | null)?.message ?? `The server answered ${xhr.status}.`;
+        patch(upload.id, { state: 'failed', message });
       }
-      const xhr = new XMLHttpRequest();
-      upload.cancel = () => xhr.abort();
-      xhr.open('POST', `/api/sessions/${sessionId}/takes`);
-      xhr.responseType = 'json';
-      xhr.upload.onprogress = (e) => patch(upload.id, { sent: e.loaded });
-      xhr.onload = () => {
-        if (xhr.status === 201) {
-          patch(upload.id, { state: 'done', sent: file.size });
-          void mutate(takesKey);
-        } else {
-          const message = (xhr.response as { message?: string } | null)?.message ?? `The server answered ${xhr.status}.`;
-          patch(upload.id, { state: 'failed', message });
-        }
-      };
-      xhr.onerror = () => patch(upload.id, { state: 'failed', message: 'The connection dropped. Nothing was kept; try again.' });
-      xhr.onabort = () => patch(upload.id, { state: 'cancelled', message: 'Cancelled. Nothing was kept.' });
-      const form = new FormData();
-      if (recorderId) form.append('recorderId', recorderId);
-      // Multipart headers may not carry control characters, which some file systems allow in names.
-      form.append('file', file, cleanFileName(file.name));
-      xhr.send(form);
-    }
+    };
+    xhr.onerror = () => patch(upload.id, { state: 'failed', message: 'The connection dropped. Nothing was kept; try again.' });
+    xhr.onabort = () => patch(upload.id, { state: 'cancelled', message: 'Cancelled. Nothing was kept.' });
+    const form = new FormData();
+    if (recorderId) form.append('recorderId', recorderId);
+    // Multipart headers may not carry control characters, which some file systems allow in names.
+    form.append('file', file, cleanFileName(file.name));
+    upload.cancel = () => xhr.abort();
+    patch(upload.id, { state: 'sending', startedAt: Date.now() });
+    xhr.send(form);
   }
 
   return (
@@ -158,6 +184,8 @@ export function TakeUploader({ sessionId, recorders, takesKey }: { sessionId: nu
           accept=".wav,.bwf,audio/wav,audio/x-wav"
           multiple
           className="sr-only"
+          tabIndex={-1}
+          aria-hidden="true"
           aria-label="Choose WAV files to upload"
           data-testid="take-file-input"
           onChange={(e) => {
@@ -190,7 +218,8 @@ export function TakeUploader({ sessionId, recorders, takesKey }: { sessionId: nu
                 </div>
                 <p className="mt-1 text-xs">
                   {u.state === 'sending' && <span className="text-muted">Sending… {pct} % {timeLeft(u)}</span>}
-                  {u.state === 'done' && <span className="text-pass">✓ Uploaded — queued for measuring</span>}
+                  {u.state === 'checking' && <span className="text-muted">Checking the file…</span>}
+                  {u.state === 'done' && <UploadedTake take={listed?.takes.find((t) => t.id === u.takeId)} />}
                   {u.state === 'failed' && <span className="text-fail">✕ {u.message}</span>}
                   {u.state === 'cancelled' && <span className="text-muted">○ {u.message}</span>}
                 </p>
@@ -200,5 +229,17 @@ export function TakeUploader({ sessionId, recorders, takesKey }: { sessionId: nu
         </ul>
       )}
     </section>
+  );
+}
+
+/** An uploaded file's line once its take exists: live measuring status, then verdict and reason. */
+function UploadedTake({ take }: { take: TakeSummary | undefined }) {
+  if (!take || take.status === 'queued') return <span className="text-muted">{TAKE_STATUS.queued.mark} Uploaded — waiting to be measured</span>;
+  if (take.status !== 'measured') return <TakeStatusMark status={take.status} progress={take.progress} error={take.error} />;
+  return (
+    <span className="inline-flex flex-wrap items-center gap-x-2">
+      <VerdictMark verdict={take.verdict} />
+      {take.reason && <span>{take.reason}</span>}
+    </span>
   );
 }

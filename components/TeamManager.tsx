@@ -11,13 +11,10 @@ import type { DeliveryView } from '@/lib/mail/views';
 import { ROLE_LABEL } from '@/lib/auth/policy';
 import type { Role } from '@/models/User';
 import { formatDateTime } from '@/lib/format';
+import { TONE_CLASS } from './StatusMarks';
+import { MEMBER_STATUS } from '@/lib/status';
 
 const KEY = '/api/users';
-const STATUS = {
-  active: { mark: '●', word: 'Active', tone: 'text-pass' },
-  invited: { mark: '○', word: 'Invited', tone: 'text-warn' },
-  deactivated: { mark: '✕', word: 'Deactivated', tone: 'text-muted' },
-} as const;
 
 function Notice({ notice }: { notice: { ok: boolean; text: string } | null }) {
   return <FormMessage error={notice && !notice.ok ? notice.text : null} notice={notice?.ok ? notice.text : null} testId="team-notice" className="mb-3 font-semibold" />;
@@ -67,20 +64,62 @@ function InviteForm({ onDone }: { onDone: (text: string, ok: boolean) => Promise
   );
 }
 
+/** A member's role: choose, then apply (arrow keys through the list change nothing yet). */
+function RoleChooser({ member, onApply }: { member: TeamMember; onApply: (role: Role) => Promise<boolean> }) {
+  const [draft, setDraft] = useState<Role>(member.role);
+  const [saved, setSaved] = useState<Role>(member.role);
+  // A refused change (or one made elsewhere) shows the stored role again.
+  if (saved !== member.role) {
+    setSaved(member.role);
+    setDraft(member.role);
+  }
+  return (
+    <div className="flex flex-wrap items-center gap-2">
+      <label className="sr-only" htmlFor={`role-${member.id}`}>
+        Role of {member.name}
+      </label>
+      <select id={`role-${member.id}`} className="tp-input w-40" value={draft} onChange={(e) => setDraft(e.target.value as Role)}>
+        {Object.entries(ROLE_LABEL).map(([value, label]) => (
+          <option key={value} value={value}>
+            {label}
+          </option>
+        ))}
+      </select>
+      {draft !== member.role && (
+        <button
+          type="button"
+          className="tp-button-quiet"
+          onClick={async () => {
+            if (!(await onApply(draft))) setDraft(member.role);
+          }}
+        >
+          Apply<span className="sr-only"> role for {member.name}</span>
+        </button>
+      )}
+    </div>
+  );
+}
+
 /** The studio's people: role changes, deactivation, invitations. */
 export function TeamManager({ initial, selfId }: { initial: TeamMember[]; selfId: number }) {
   const { data, mutate } = useSWR<{ users: TeamMember[] }, ApiError>(KEY, swrFetcher, { fallbackData: { users: initial } });
   const [notice, setNotice] = useState<{ ok: boolean; text: string } | null>(null);
   const [busy, setBusy] = useState<number | null>(null);
+  const [confirming, setConfirming] = useState<number | null>(null);
   const users = data?.users ?? initial;
 
-  async function act(id: number, run: () => Promise<string>) {
+  /** Runs one change of a row; resolves whether it was made. */
+  async function act(id: number, run: () => Promise<string>): Promise<boolean> {
+    // A busy row ignores clicks instead of disabling the control that has the focus.
+    if (busy !== null) return false;
     setBusy(id);
     setNotice(null);
     try {
       setNotice({ ok: true, text: await run() });
+      return true;
     } catch (e) {
       setNotice({ ok: false, text: (e as ApiError).message });
+      return false;
     } finally {
       setBusy(null);
       await mutate();
@@ -122,7 +161,7 @@ export function TeamManager({ initial, selfId }: { initial: TeamMember[]; selfId
             </thead>
             <tbody>
               {users.map((u) => {
-                const s = STATUS[u.status];
+                const s = MEMBER_STATUS[u.status];
                 return (
                   <tr key={u.id} className="border-t border-line align-top">
                     <td className="px-4 py-2 font-semibold">
@@ -131,24 +170,9 @@ export function TeamManager({ initial, selfId }: { initial: TeamMember[]; selfId
                     </td>
                     <td className="break-all px-4 py-2">{u.email}</td>
                     <td className="px-4 py-2">
-                      <label className="sr-only" htmlFor={`role-${u.id}`}>
-                        Role of {u.name}
-                      </label>
-                      <select
-                        id={`role-${u.id}`}
-                        className="tp-input w-40"
-                        value={u.role}
-                        disabled={busy === u.id}
-                        onChange={(e) => patch(u, { role: e.target.value }, `${u.name} is now ${ROLE_LABEL[e.target.value as Role].toLowerCase()}.`)}
-                      >
-                        {Object.entries(ROLE_LABEL).map(([value, label]) => (
-                          <option key={value} value={value}>
-                            {label}
-                          </option>
-                        ))}
-                      </select>
+                      <RoleChooser member={u} onApply={(role) => patch(u, { role }, `${u.name} is now ${ROLE_LABEL[role].toLowerCase()}.`)} />
                     </td>
-                    <td className={`px-4 py-2 font-semibold ${s.tone}`}>
+                    <td className={`px-4 py-2 font-semibold ${TONE_CLASS[s.tone]}`}>
                       <span aria-hidden="true">{s.mark} </span>
                       {s.word}
                       {u.status === 'invited' && u.invitationExpiresAt && (
@@ -163,17 +187,36 @@ export function TeamManager({ initial, selfId }: { initial: TeamMember[]; selfId
                     <td className="px-4 py-2">
                       <div className="flex flex-wrap gap-2">
                         {u.status === 'invited' && (
-                          <button type="button" className="tp-button-quiet" disabled={busy === u.id} onClick={() => resend(u)}>
+                          <button type="button" className="tp-button-quiet" aria-disabled={busy === u.id} onClick={() => resend(u)}>
                             Resend invitation
                           </button>
                         )}
-                        {u.status === 'active' && (
-                          <button type="button" className="tp-button-quiet" disabled={busy === u.id} onClick={() => patch(u, { active: false }, `${u.name} can no longer sign in.`)}>
+                        {u.status === 'active' && u.id !== confirming && (
+                          <button type="button" className="tp-button-quiet" aria-disabled={busy === u.id} onClick={() => setConfirming(u.id)}>
                             Deactivate
                           </button>
                         )}
+                        {u.status === 'active' && u.id === confirming && (
+                          <span role="group" aria-label={`Deactivate ${u.name}?`} className="flex flex-wrap items-center gap-2">
+                            <span>{u.name} will no longer be able to sign in.</span>
+                            <button
+                              type="button"
+                              className="tp-button-quiet text-fail"
+                              autoFocus
+                              onClick={() => {
+                                setConfirming(null);
+                                void patch(u, { active: false }, `${u.name} can no longer sign in.`);
+                              }}
+                            >
+                              Yes, deactivate
+                            </button>
+                            <button type="button" className="tp-button-quiet" onClick={() => setConfirming(null)}>
+                              Keep active
+                            </button>
+                          </span>
+                        )}
                         {u.status === 'deactivated' && (
-                          <button type="button" className="tp-button-quiet" disabled={busy === u.id} onClick={() => patch(u, { active: true }, `${u.name} can sign in again.`)}>
+                          <button type="button" className="tp-button-quiet" aria-disabled={busy === u.id} onClick={() => patch(u, { active: true }, `${u.name} can sign in again.`)}>
                             Reactivate
                           </button>
                         )}

@@ -23,11 +23,14 @@ export function formatDate(instant: string | Date): string {
   return new Date(instant).toISOString().slice(0, 10);
 }
 
-/** A size in B, KB, MB or GB (binary multiples, as file managers show them). */
+/**
+ * A size in B, KiB, MiB or GiB: binary multiples named as such (IEC 80000-13), the one byte unit
+ * of pages, messages and reports, so a file's size and the studio's limit always compare.
+ */
 export function formatBytes(n: number): string {
-  if (n >= 1024 ** 3) return `${(n / 1024 ** 3).toFixed(2)} GB`;
-  if (n >= 1024 ** 2) return `${(n / 1024 ** 2).toFixed(1)} MB`;
-  if (n >= 1024) return `${Math.round(n / 1024)} KB`;
+  if (n >= 1024 ** 3) return `${(n / 1024 ** 3).toFixed(2)} GiB`;
+  if (n >= 1024 ** 2) return `${(n / 1024 ** 2).toFixed(1)} MiB`;
+  if (n >= 1024) return `${Math.round(n / 1024)} KiB`;
   return `${n} B`;
 }
 

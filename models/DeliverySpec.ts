@@ -10,6 +10,8 @@ export class DeliverySpec extends Model<InferAttributes<DeliverySpec>, InferCrea
   declare name: string;
   declare description: string | null;
   declare thresholds: Thresholds;
+  /** Set when a manager archives the spec: no longer offered for new sessions, still used by old ones. */
+  declare archivedAt: CreationOptional<Date | null>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 }
@@ -22,6 +24,7 @@ export function initDeliverySpec(sequelize: Sequelize) {
       name: { type: DataTypes.STRING(120), allowNull: false },
       description: { type: DataTypes.TEXT, allowNull: true },
       thresholds: { type: DataTypes.JSON, allowNull: false },
+      archivedAt: { type: DataTypes.DATE, allowNull: true },
       createdAt: DataTypes.DATE,
       updatedAt: DataTypes.DATE,
     },

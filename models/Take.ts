@@ -39,6 +39,8 @@ export class Take extends Model<InferAttributes<Take>, InferCreationAttributes<T
   declare rateMismatch: CreationOptional<boolean | null>;
   declare aliasingRisk: CreationOptional<boolean | null>;
   declare verdict: Verdict | null;
+  /** The verdict's one-line reason (the most important warning or failure); null for a pass. */
+  declare reason: CreationOptional<string | null>;
   declare decision: CreationOptional<Decision>;
   declare decidedById: number | null;
   declare decidedAt: Date | null;
@@ -80,6 +82,7 @@ export function initTake(sequelize: Sequelize) {
       rateMismatch: { type: DataTypes.BOOLEAN, allowNull: true },
       aliasingRisk: { type: DataTypes.BOOLEAN, allowNull: true },
       verdict: { type: DataTypes.ENUM(...VERDICTS), allowNull: true },
+      reason: { type: DataTypes.STRING(200), allowNull: true },
       decision: { type: DataTypes.ENUM(...DECISIONS), allowNull: false, defaultValue: 'pending' },
       decidedAt: { type: DataTypes.DATE, allowNull: true },
       decisionNote: { type: DataTypes.TEXT, allowNull: true },

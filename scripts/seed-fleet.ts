@@ -159,6 +159,16 @@ async function main() {
       const fails = bits < 20 || fullScale + belowFs > 0 || floor > -60;
       const warns = tp > -1 || rateMismatch || aliasing || Math.abs(lufs + 23) > 1;
       const verdict = fails ? 'fail' : warns ? 'warn' : 'pass';
+      // The reason a judged take would carry, worded like the engine's one-line summaries.
+      const reason =
+        fullScale + belowFs > 0 ? `${fullScale + belowFs} clipping event${fullScale + belowFs > 1 ? 's' : ''}`
+        : bits < 20 ? `Only ${bits} bits used`
+        : floor > -60 ? `Noise floor ${floor.toFixed(1)} dBFS, above the -60.0 dBFS limit`
+        : tp > -1 ? `True peak ${tp.toFixed(1)} dBTP, above the -1.0 dBTP limit`
+        : rateMismatch ? 'Recorded at another sample rate than the header declares'
+        : aliasing ? 'Strong energy up to Nyquist: possible aliasing'
+        : warns ? `Loudness ${lufs.toFixed(1)} LUFS, off the -23.0 LUFS target`
+        : null;
       const u = random();
       const decision = u < 0.3 ? 'pending' : u < (verdict === 'fail' ? 0.65 : 0.92) ? 'approved' : 'rejected';
       const measuredAt = new Date(at);
@@ -191,6 +201,7 @@ async function main() {
         rateMismatch,
         aliasingRisk: aliasing,
         verdict,
+        reason,
         decision,
         decidedById: null,
         decidedAt: decision === 'pending' ? null : measuredAt,

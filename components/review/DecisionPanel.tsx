@@ -10,6 +10,7 @@ import { decisionSchema } from '@/lib/review/schema';
 import type { TakeDetail } from '@/lib/takes/views';
 import { formatDateTime } from '@/lib/format';
 import { FormMessage } from '@/components/FormMessage';
+import { DECISION_STATUS } from '@/lib/status';
 
 /** The producer's decision on the take: shown to everyone, made by producers and managers. */
 export function DecisionPanel({ take, canDecide, onDecided }: { take: TakeDetail; canDecide: boolean; onDecided: (take: TakeDetail) => void }) {
@@ -68,14 +69,14 @@ export function DecisionPanel({ take, canDecide, onDecided }: { take: TakeDetail
           </FormField>
           <div className="flex flex-wrap gap-2">
             <button type="button" className="tp-button" disabled={busy || !measured} onClick={() => send('approved')}>
-              <span aria-hidden="true">●</span> Approve for the edit
+              <span aria-hidden="true">{DECISION_STATUS.approved.mark}</span> Approve for the edit
             </button>
             <button type="button" className="tp-button-quiet border-fail text-fail" disabled={busy} onClick={() => send('rejected')}>
-              <span aria-hidden="true">■</span> Reject
+              <span aria-hidden="true">{DECISION_STATUS.rejected.mark}</span> Reject
             </button>
             {take.decision !== 'pending' && (
               <button type="button" className="tp-button-quiet" disabled={busy} onClick={() => send('pending')}>
-                <span aria-hidden="true">○</span> Reopen
+                <span aria-hidden="true">{DECISION_STATUS.pending.mark}</span> Reopen
               </button>
             )}
           </div>

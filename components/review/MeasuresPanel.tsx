@@ -15,19 +15,19 @@ export function MeasuresPanel({ report, spec }: { report: AnalysisReport; spec: 
       <p className="text-xs text-muted">Judged against “{spec.name}”.</p>
       <dl className="mt-3 divide-y divide-line" data-testid="measures">
         {rows.map((row) => (
-          <div key={row.key} className="flex gap-3 py-2.5" data-testid={`measure-${row.key}`}>
-            <MeasureMark mark={row.mark} />
-            <div className="min-w-0">
-              <dt className="font-semibold">{row.title}</dt>
-              <dd className="font-mono text-sm">{row.value}</dd>
-              <dd className="text-sm text-muted">{row.explanation}</dd>
-            </div>
+          <div key={row.key} className="grid grid-cols-[4.75rem_minmax(0,1fr)] gap-x-3 py-2.5" data-testid={`measure-${row.key}`}>
+            <dt className="col-span-2 flex gap-3">
+              <MeasureMark mark={row.mark} />
+              <span className="font-semibold">{row.title}</span>
+            </dt>
+            <dd className="col-start-2 font-mono text-sm">{row.value}</dd>
+            <dd className="col-start-2 text-sm text-muted">{row.explanation}</dd>
           </div>
         ))}
       </dl>
       {other.length > 0 && (
         <>
-          <h3 className="mt-4 font-semibold">All findings without a time</h3>
+          <h3 className="mt-4 font-semibold">Findings for the whole take</h3>
           <ul className="mt-1 space-y-1 text-sm">
             {other.map((f, i) => (
               <li key={i} className="flex gap-2">

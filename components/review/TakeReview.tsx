@@ -5,8 +5,11 @@ import { useCallback, useMemo, useRef, useState } from 'react';
 import useSWR from 'swr';
 import type { DeliverySpec } from '@/dsp/spec';
 import { DecisionMark, VerdictMark } from '@/components/StatusMarks';
-import { describeFormat, formatBytes, formatDuration } from '@/lib/format';
-import { hearingCaution, timedMarkers } from '@/lib/review/reportView';
+import { TakeActions } from '@/components/TakeActions';
+import { can, mayRemoveTake } from '@/lib/auth/policy';
+import type { Role } from '@/models/User';
+import { channelShortName, describeFormat, formatBytes, formatDuration } from '@/lib/format';
+import { hearingCaution, timedMarkers, untimedFindings } from '@/lib/review/reportView';
 import { takeCommentsKey, takeKey } from '@/lib/http/swrKeys';
 import type { TakeDetail } from '@/lib/takes/views';
 import { CommentsPanel } from './CommentsPanel';
@@ -14,7 +17,9 @@ import { DecisionPanel } from './DecisionPanel';
 import { MeasuresPanel } from './MeasuresPanel';
 import { LoudnessPlot, SpectrumPlot } from './Plots';
 import { TakeWorkspace, type PlayerHandle } from './TakeWorkspace';
+import { useTakeStepKeys } from './useTakeStepKeys';
 import type { TakeCommentView } from '@/lib/review/views';
+import { TAKE_STATUS } from '@/lib/status';
 
 export interface Neighbours {
   previous: { id: number; name: string } | null;
@@ -33,6 +38,8 @@ export function TakeReview({
   neighbours,
   canDecide,
   canComment,
+  viewer,
+  maxUploadBytes,
 }: {
   takeId: number;
   session: { id: number; title: string };
@@ -40,6 +47,9 @@ export function TakeReview({
   neighbours: Neighbours;
   canDecide: boolean;
   canComment: boolean;
+  viewer: { id: number; role: Role };
+  /** The studio's largest accepted file, bytes (for Replace file). */
+  maxUploadBytes: number;
 }) {
   const { data: take, mutate } = useSWR<TakeDetail>(takeKey(takeId), { refreshInterval: (latest) => (busy(latest) ? 1500 : 0) });
   const { data: commentData, mutate: mutateComments } = useSWR<{ comments: TakeCommentView[] }>(takeCommentsKey(takeId));
@@ -48,10 +58,24 @@ export function TakeReview({
   const report = take?.status === 'measured' ? take.report : null;
   const markers = useMemo(() => (report ? timedMarkers(report) : []), [report]);
   const caution = useMemo(() => hearingCaution(report), [report]);
+  const untimed = useMemo(() => (report ? untimedFindings(report) : []), [report]);
   const comments = useMemo(() => commentData?.comments ?? [], [commentData]);
   const onTime = useCallback((t: number) => setPlayhead(t), []);
+  useTakeStepKeys(neighbours.previous && `/takes/${neighbours.previous.id}`, neighbours.next && `/takes/${neighbours.next.id}`);
 
   if (!take) return <p className="text-muted">Loading the take…</p>;
+  const actions = (
+    <div className="mt-2">
+      <TakeActions
+        take={take}
+        canRemeasure={can(viewer.role, 'take:remeasure')}
+        canRemove={mayRemoveTake(viewer, take)}
+        replace={can(viewer.role, 'take:upload') ? { maxBytes: maxUploadBytes } : undefined}
+        onChanged={() => void mutate()}
+        leaveTo={`/sessions/${session.id}`}
+      />
+    </div>
+  );
 
   return (
     <article className="space-y-4">
@@ -64,14 +88,14 @@ export function TakeReview({
         </span>
         <span className="ml-auto flex gap-2">
           {neighbours.previous ? (
-            <Link href={`/takes/${neighbours.previous.id}`} className="tp-button-quiet" rel="prev" title={neighbours.previous.name}>
+            <Link href={`/takes/${neighbours.previous.id}`} className="tp-button-quiet" rel="prev" title={neighbours.previous.name} aria-keyshortcuts="ArrowLeft">
               ‹ Previous take
             </Link>
           ) : (
             <span className="tp-button-quiet opacity-50" aria-disabled="true">‹ Previous take</span>
           )}
           {neighbours.next ? (
-            <Link href={`/takes/${neighbours.next.id}`} className="tp-button-quiet" rel="next" title={neighbours.next.name}>
+            <Link href={`/takes/${neighbours.next.id}`} className="tp-button-quiet" rel="next" title={neighbours.next.name} aria-keyshortcuts="ArrowRight">
               Next take ›
             </Link>
           ) : (
@@ -89,6 +113,11 @@ export function TakeReview({
           <span>
             Decision: <DecisionMark decision={take.decision} />
           </span>
+          {take.reason && (
+            <span className="basis-full text-base text-ink" data-testid="verdict-reason">
+              Why: {take.reason}
+            </span>
+          )}
           <span className="font-mono">{describeFormat(take.format)}</span>
           <span className="font-mono">{formatDuration(take.durationSec)}</span>
           <span className="font-mono">{formatBytes(take.bytes)}</span>
@@ -97,12 +126,13 @@ export function TakeReview({
             Download the WAV
           </a>
         </p>
+        {take.status !== 'unreadable' && actions}
       </header>
 
       {busy(take) && (
         <section className="tp-card p-6" role="status" data-testid="measuring">
           <p className="text-lg font-semibold">
-            {take.status === 'queued' ? '◷ Waiting to be measured' : `Still measuring — ${Math.round(take.progress)} %`}
+            {take.status === 'queued' ? `${TAKE_STATUS.queued.mark} Waiting to be measured` : `${TAKE_STATUS.measuring.mark} Still measuring — ${Math.round(take.progress)} %`}
           </p>
           <div className="mt-3 h-2 w-full max-w-md overflow-hidden rounded bg-sunken" role="progressbar" aria-valuenow={Math.round(take.progress)} aria-valuemin={0} aria-valuemax={100} aria-label="Measuring">
             <div className="h-full bg-accent transition-[width]" style={{ width: `${take.progress}%` }} />
@@ -116,13 +146,25 @@ export function TakeReview({
           <p className="text-lg font-semibold text-fail">
             <span aria-hidden="true">✕ </span>This file could not be read: {take.error ?? 'no reason was recorded.'}
           </p>
-          <p className="mt-2 text-sm text-muted">An engineer can measure it again from the session page, or upload the file once more.</p>
+          <p className="mt-2 text-sm text-muted">Measure it again, or remove it and upload the file once more.</p>
+          <div className="mt-3">{actions}</div>
         </section>
       )}
 
       {report && (
         <>
-          <TakeWorkspace takeId={take.id} durationSec={take.durationSec ?? report.file.durationSec} channels={report.file.channels} markers={markers} comments={comments} caution={caution} onTime={onTime} ref={playerRef} />
+          <TakeWorkspace
+            takeId={take.id}
+            durationSec={take.durationSec ?? report.file.durationSec}
+            channels={report.file.channels}
+            lanes={report.channels.map((c, i) => ({ name: c.name ?? channelShortName(i, report.file.channels), silent: c.silent }))}
+            markers={markers}
+            untimed={untimed}
+            comments={comments}
+            caution={caution}
+            onTime={onTime}
+            ref={playerRef}
+          />
           <div className="grid gap-4 lg:grid-cols-[minmax(0,1fr)_24rem]">
             <div className="min-w-0 space-y-4">
               <MeasuresPanel report={report} spec={spec} />

@@ -1,14 +1,17 @@
 'use client';
 
 import { useImperativeHandle, useState, type Ref } from 'react';
-import { channelShortName, formatClock } from '@/lib/format';
+import { formatClock } from '@/lib/format';
+import type { Finding } from '@/dsp/types';
+import { CHECK_LABEL } from '@/lib/review/reportView';
 import { cueTime, stepMarker, type TimedMarker } from '@/lib/review/reportView';
 import type { TakeCommentView } from '@/lib/review/views';
 import { FindingsList } from './FindingsList';
+import { SeverityMark } from './marks';
 import { usePeaks } from './usePeaks';
 import { usePlayerKeys } from './usePlayerKeys';
 import { useThemeColors } from './useThemeColors';
-import { useWaveform, ZOOM_STEPS } from './useWaveform';
+import { laneHeight, useWaveform, ZOOM_STEPS } from './useWaveform';
 
 /** Monitors start quiet; a take that clips or overs starts quieter still. */
 const START_VOLUME = 0.3;
@@ -23,7 +26,11 @@ export interface WorkspaceProps {
   takeId: number;
   durationSec: number;
   channels: number;
+  /** Each channel's lane: its track or loudspeaker name, and whether it carries no programme. */
+  lanes: { name: string; silent: boolean }[];
   markers: TimedMarker[];
+  /** Findings that belong to the whole take rather than a moment (bit depth, bandwidth, a dead track). */
+  untimed: Finding[];
   comments: TakeCommentView[];
   caution: string | null;
   /** Called with the playhead time whenever it moves (the comment form uses it). */
@@ -32,7 +39,7 @@ export interface WorkspaceProps {
 }
 
 /** The waveform with its marked regions, transport and zoom, and the list of timed findings. */
-export function TakeWorkspace({ takeId, durationSec, channels, markers, comments, caution, onTime, ref }: WorkspaceProps) {
+export function TakeWorkspace({ takeId, durationSec, channels, lanes, markers, untimed, comments, caution, onTime, ref }: WorkspaceProps) {
   const colors = useThemeColors();
   const { peaks, error: peaksError } = usePeaks(takeId, durationSec);
   const [time, setTime] = useState(0);
@@ -100,7 +107,7 @@ export function TakeWorkspace({ takeId, durationSec, channels, markers, comments
               −
             </button>
             <span className="w-20 text-center text-xs text-muted" data-testid="zoom-level">
-              {ZOOM_STEPS[zoomIndex] === 0 ? 'Whole take' : `${ZOOM_STEPS[zoomIndex]} px/s`}
+              {ZOOM_STEPS[zoomIndex] === 1 ? 'Whole take' : `× ${ZOOM_STEPS[zoomIndex]}`}
             </span>
             <button type="button" className="tp-button-quiet px-2.5" onClick={() => setZoomIndex((z) => Math.min(ZOOM_STEPS.length - 1, z + 1))} disabled={zoomIndex === ZOOM_STEPS.length - 1} aria-label="Zoom in">
               +
@@ -123,19 +130,53 @@ export function TakeWorkspace({ takeId, durationSec, channels, markers, comments
         )}
         {channels > 1 && (
           <p className="mb-1 text-xs text-muted">
-            One lane per channel, top to bottom: {Array.from({ length: channels }, (_, i) => channelShortName(i, channels)).join(', ')}.
+            One lane per channel, top to bottom: {lanes.map((lane) => lane.name).join(', ')}.
           </p>
         )}
-        <div className="rounded-md border border-line bg-sunken">
+        <div className="relative rounded-md border border-line bg-sunken">
           <div ref={containerRef} data-testid="waveform" aria-label="Waveform of the take; click to move the playhead" />
+          {channels > 1 && (
+            <ol className="pointer-events-none absolute inset-x-0 top-0" aria-hidden="true">
+              {lanes.map((lane, i) => (
+                <li
+                  key={i}
+                  className={`absolute left-1 rounded px-1 text-xs font-semibold ${lane.silent ? 'bg-surface text-fail' : 'bg-surface/80 text-muted'}`}
+                  style={{ top: i * laneHeight(channels) + 2 }}
+                  data-testid="lane-name"
+                >
+                  {lane.name}
+                  {lane.silent && ' · ⊘ no programme'}
+                </li>
+              ))}
+            </ol>
+          )}
           <div ref={timelineRef} aria-hidden="true" />
         </div>
         {!ready && !failure && <p className="mt-2 text-sm text-muted">Drawing the waveform…</p>}
         <p className="mt-2 text-xs text-muted">
-          Keys: <kbd>Space</kbd> play or pause · <kbd>←</kbd> <kbd>→</kbd> previous or next finding. Time axis in minutes:seconds.
+          Keys: <kbd>Space</kbd> play or pause · <kbd>←</kbd> <kbd>→</kbd> previous or next finding, then the previous or next take. Time axis in minutes:seconds.
         </p>
       </section>
-      <FindingsList markers={markers} selected={selected} onPick={(index) => goTo(index, true)} />
+      <div className="min-w-0 space-y-4">
+        <FindingsList markers={markers} selected={selected} onPick={(index) => goTo(index, true)} />
+        {untimed.length > 0 && (
+          <section className="tp-card p-4" aria-labelledby="untimed-heading">
+            <h2 id="untimed-heading" className="text-lg font-semibold">
+              Findings for the whole take
+            </h2>
+            <ul className="mt-2 space-y-1.5 text-sm" data-testid="untimed-findings">
+              {untimed.map((f, i) => (
+                <li key={i} className="flex gap-2">
+                  <SeverityMark severity={f.severity} />
+                  <span>
+                    <span className="font-semibold">{CHECK_LABEL[f.check]}:</span> {f.summary ?? f.message}
+                  </span>
+                </li>
+              ))}
+            </ul>
+          </section>
+        )}
+      </div>
     </div>
   );
 }

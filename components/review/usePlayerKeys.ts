@@ -3,7 +3,7 @@
 import { useEffect, useEffectEvent } from 'react';
 
 /** Keys in these elements belong to the element, not to the player. */
-function isTyping(target: EventTarget | null): boolean {
+export function isTyping(target: EventTarget | null): boolean {
   const el = target as HTMLElement | null;
   if (!el || !el.tagName) return false;
   return el.isContentEditable || ['INPUT', 'TEXTAREA', 'SELECT'].includes(el.tagName);

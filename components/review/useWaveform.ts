@@ -10,7 +10,13 @@ import { SEVERITY } from './marks';
 import type { ThemeColors } from './useThemeColors';
 
 /** Zoom levels in pixels per second; 0 fits the whole take. */
-export const ZOOM_STEPS = [0, 20, 50, 100, 200, 500, 1000];
+/** Zoom as a multiple of the width that shows the whole take, so short and long takes both zoom in usefully (1: whole take). */
+export const ZOOM_STEPS = [1, 2, 4, 8, 16, 32, 64];
+
+/** Pixels per second for a zoom factor: 0 lets the player fit the whole take. */
+function pxPerSec(factor: number, container: HTMLElement | null, durationSec: number): number {
+  return factor <= 1 || !container || durationSec <= 0 ? 0 : (factor * container.clientWidth) / durationSec;
+}
 
 type Regions = ReturnType<(typeof RegionsPlugin)['create']>;
 
@@ -30,15 +36,35 @@ export interface WaveformOptions {
   onRegionClick: (regionId: string, startSec: number) => void;
 }
 
-const laneHeight = (channels: number) => (channels > 1 ? 88 : 140);
+/** Height of one channel's lane, px. */
+export const laneHeight = (channels: number) => (channels > 1 ? 88 : 140);
+
+/** Findings on one lane closer than this share of the take share one label ("✕ Clip R +2"), so labels never stack over the region. */
+const LABEL_GROUP_SHARE = 1 / 40;
 
 /** One region per timed finding, coloured by severity and labelled; comments as thin markers. */
-function drawRegions(regions: Regions, { markers, comments, colors, channels }: { markers: TimedMarker[]; comments: TakeCommentView[]; colors: ThemeColors; channels: number }) {
+function drawRegions(
+  regions: Regions,
+  { markers, comments, colors, channels, durationSec }: { markers: TimedMarker[]; comments: TakeCommentView[]; colors: ThemeColors; channels: number; durationSec: number },
+) {
   regions.clearRegions();
   const tone = { fail: 'fail', warn: 'warn', info: 'accent' } as const;
+  const lastLabel = new Map<number, { startSec: number; label: HTMLSpanElement; text: string; names: string[] }>();
   for (const m of markers) {
+    const lane = channels > 1 && m.channel != null ? m.channel : -1;
+    const group = lastLabel.get(lane);
+    if (group && m.startSec - group.startSec < durationSec * LABEL_GROUP_SHARE) {
+      group.names.push(m.label);
+      group.label.textContent = `${group.text} +${group.names.length - 1}`;
+      group.label.title = group.names.join(', ');
+      const region = regions.addRegion({ id: m.id, start: m.startSec, end: m.endSec, color: colors.alpha(tone[m.severity], 0.28), drag: false, resize: false, ...(lane >= 0 ? { channelIdx: lane } : {}) });
+      region.element?.setAttribute('data-severity', m.severity);
+      region.element?.setAttribute('data-kind', m.kind);
+      continue;
+    }
     const label = document.createElement('span');
     label.textContent = `${SEVERITY[m.severity].shape} ${m.label}`;
+    lastLabel.set(lane, { startSec: m.startSec, label, text: label.textContent, names: [m.label] });
     label.className = 'tp-region-label';
     label.style.cssText = `display:inline-block;margin:2px;padding:0 4px;border-radius:3px;font-size:11px;font-weight:600;white-space:nowrap;background:${colors.surface};color:${colors[tone[m.severity]]};border:1px solid ${colors[tone[m.severity]]}`;
     const region = regions.addRegion({
@@ -78,7 +104,7 @@ export function useWaveform({ takeId, durationSec, channels, peaks, colors, volu
   const [failure, setFailure] = useState<string | null>(null);
 
   // What the player starts with; read when it is built, not reasons to build it again.
-  const startSettings = useEffectEvent(() => ({ palette: colors, startVolume: volume, minPxPerSec: ZOOM_STEPS[zoomIndex] }));
+  const startSettings = useEffectEvent(() => ({ palette: colors, startVolume: volume, minPxPerSec: pxPerSec(ZOOM_STEPS[zoomIndex], containerRef.current, durationSec) }));
   const timeMoved = useEffectEvent((seconds: number) => onTime(seconds));
   const regionClicked = useEffectEvent((id: string, start: number) => onRegionClick(id, start));
   const haveColors = colors !== null;
@@ -166,16 +192,16 @@ export function useWaveform({ takeId, durationSec, channels, peaks, colors, volu
   }, [colors, ready, channels]);
 
   useEffect(() => {
-    if (ready && regionsRef.current && colors) drawRegions(regionsRef.current, { markers, comments, colors, channels });
-  }, [ready, markers, comments, colors, channels]);
+    if (ready && regionsRef.current && colors) drawRegions(regionsRef.current, { markers, comments, colors, channels, durationSec });
+  }, [ready, markers, comments, colors, channels, durationSec]);
 
   useEffect(() => {
     playerRef.current?.setVolume(volume);
   }, [volume]);
 
   useEffect(() => {
-    if (ready) playerRef.current?.zoom(ZOOM_STEPS[zoomIndex]);
-  }, [zoomIndex, ready]);
+    if (ready) playerRef.current?.zoom(pxPerSec(ZOOM_STEPS[zoomIndex], containerRef.current, durationSec));
+  }, [zoomIndex, ready, durationSec]);
 
   return {
     containerRef,

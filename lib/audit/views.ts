@@ -7,6 +7,8 @@ export interface AuditEntry {
   actor: { id: number; name: string } | null;
   subjectType: string;
   subjectId: number | null;
+  /** What the object is called now (a take's file name, a session's title), or was called when it was removed. */
+  subjectName: string | null;
   detail: Record<string, unknown> | null;
 }
 

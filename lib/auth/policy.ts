@@ -14,6 +14,10 @@ export const CAPABILITIES = {
   'session:edit': ['engineer', 'producer', 'manager'],
   'take:upload': ['engineer', 'manager'],
   'take:remeasure': ['engineer', 'manager'],
+  /** Removes a take this person uploaded, while nobody has decided on it yet. */
+  'take:remove': ['engineer', 'manager'],
+  /** Removes any take of the studio, decided or not. */
+  'take:purge': ['manager'],
   'take:decide': ['producer', 'manager'],
   'take:comment': ['producer', 'manager', 'engineer'],
   'report:send': ['producer', 'manager'],
@@ -37,6 +41,12 @@ export function can(role: Role, capability: Capability): boolean {
 /** The roles that have `capability`, e.g. to find the people who may still manage the team. */
 export function rolesWith(capability: Capability): Role[] {
   return [...CAPABILITIES[capability]];
+}
+
+/** Whether this person may remove this take: their own upload before any decision, or any take with `take:purge`. */
+export function mayRemoveTake(actor: { id: number; role: Role }, take: { uploadedById: number | null; decision: string }): boolean {
+  if (can(actor.role, 'take:purge')) return true;
+  return can(actor.role, 'take:remove') && take.uploadedById === actor.id && take.decision === 'pending';
 }
 
 /** How each role is named on pages and in e-mails. */

@@ -1,4 +1,5 @@
 import 'server-only';
+import { worstFirst } from '@/lib/takes/order';
 import { QueryTypes } from 'sequelize';
 import { DEFAULT_SPEC } from '@/dsp/spec';
 import { DeliverySpec, Recorder } from '@/models';
@@ -250,19 +251,19 @@ export async function recorderTrends(actor: Actor, recorderId: number, period: F
   }));
 }
 
-/** A recorder's latest measured takes (summary columns only). */
+/** A recorder's latest measured takes (summary columns only), worst verdict first. */
 export async function recorderRecentTakes(actor: Actor, recorderId: number, limit = 20): Promise<RecentTake[]> {
   await findRecorder(actor, recorderId);
   const rows = await db().query<Record<string, unknown>>(
     `SELECT t.id, t.originalName, t.measuredAt, t.noiseFloorDbfs, t.effectiveBits, t.integratedLufs, t.truePeakDbtp, t.clipEvents,
-            t.belowFullScaleClipEvents, t.rateMismatch, t.verdict, t.decision, s.title AS sessionTitle
+            t.belowFullScaleClipEvents, t.rateMismatch, t.verdict, t.reason, t.decision, s.title AS sessionTitle
        FROM takes t JOIN recording_sessions s ON s.id = t.sessionId
       WHERE t.studioId = :studioId AND t.recorderId = :recorderId AND t.status = 'measured'
       ORDER BY t.measuredAt DESC, t.id DESC
       LIMIT :limit`,
     { type: QueryTypes.SELECT, replacements: { studioId: actor.studioId, recorderId, limit } },
   );
-  return rows.map((r) => ({
+  const takes: RecentTake[] = rows.map((r) => ({
     id: Number(r.id),
     originalName: String(r.originalName),
     sessionTitle: String(r.sessionTitle),
@@ -275,8 +276,10 @@ export async function recorderRecentTakes(actor: Actor, recorderId: number, limi
     belowFullScaleClipEvents: num(r.belowFullScaleClipEvents),
     rateMismatch: r.rateMismatch == null ? null : Boolean(Number(r.rateMismatch)),
     verdict: (r.verdict as RecentTake['verdict']) ?? null,
+    reason: r.verdict === 'pass' || r.reason == null ? null : String(r.reason),
     decision: r.decision as RecentTake['decision'],
   }));
+  return takes.sort(worstFirst);
 }
 
 /** Everything the recorder page of the fleet shows: the recorder, its weekly trends, latest takes and open alerts. */

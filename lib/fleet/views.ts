@@ -58,6 +58,7 @@ export interface RecentTake {
   belowFullScaleClipEvents: number | null;
   rateMismatch: boolean | null;
   verdict: 'pass' | 'warn' | 'fail' | null;
+  reason: string | null;
   decision: 'pending' | 'approved' | 'rejected';
 }
 

@@ -36,6 +36,7 @@ export async function fetchJson<T>(url: string, init?: RequestInit & { json?: un
     throw new ApiError(0, 'network:offline', 'Takeproof could not be reached. Check the connection and try again.');
   }
   if (!response.ok) throw await toApiError(response);
+  if (response.status === 204) return undefined as T;
   return (await response.json()) as T;
 }
 

@@ -16,6 +16,7 @@ function toRow(t: WithSession, at: Date | null): DashboardTake {
     status: t.status,
     progress: t.progress,
     verdict: t.verdict,
+    reason: t.verdict === 'pass' ? null : t.reason,
     decidedBy: t.decidedBy?.name ?? null,
     decisionNote: t.decisionNote,
     at: (at ?? t.createdAt).toISOString(),
@@ -50,7 +51,7 @@ export async function recentRejects(actor: Actor): Promise<DashboardTake[]> {
   db();
   const takes = (await Take.findAll({
     where: { studioId: actor.studioId, decision: 'rejected' },
-    include: [...withSession, { model: User, as: 'decidedBy', attributes: ['name'] }], attributes, order: [['decidedAt', 'DESC']], limit: 10,
+    include: [...withSession, { model: User, as: 'decidedBy', attributes: ['name'] }], attributes, order: [['verdict', 'DESC'], ['decidedAt', 'DESC']], limit: 10,
   })) as WithSession[];
   return takes.map((t) => toRow(t, t.decidedAt));
 }

@@ -9,6 +9,7 @@ export interface DashboardTake {
   status: Take['status'];
   progress: number;
   verdict: Take['verdict'];
+  reason: string | null;
   decidedBy: string | null;
   decisionNote: string | null;
   at: string;

@@ -5,7 +5,7 @@
 import type { SessionSummary } from '@/lib/sessions/views';
 import type { TakeSummary } from '@/lib/takes/views';
 import { describeFormat, formatDuration, formatMeasure } from '@/lib/format';
-import { DECISION_LABEL, VERDICT_LABEL } from '@/lib/glossary';
+import { DECISION_STATUS, VERDICT_STATUS, statusText } from '@/lib/status';
 
 export interface ReportData {
   studio: string;
@@ -16,17 +16,20 @@ export interface ReportData {
     decision: { approved: number; rejected: number; pending: number };
   };
   generatedAt: Date;
+  /** The session's page in Takeproof, for the link back from the e-mail. */
+  sessionUrl: string;
 }
 
 /** Display text of one take's cells, shared by the e-mail and the PDF. */
 export function takeCells(t: TakeSummary) {
-  const verdict = VERDICT_LABEL[t.verdict ?? 'none'];
-  const decision = DECISION_LABEL[t.decision];
+  const verdict = VERDICT_STATUS[t.verdict ?? 'none'];
+  const decision = DECISION_STATUS[t.decision];
   return {
     name: t.originalName,
     format: describeFormat(t.format),
     duration: formatDuration(t.durationSec),
     verdict,
+    reason: t.reason,
     decision,
     truePeak: formatMeasure(t.truePeakDbtp, 1, 'dBTP'),
     loudness: formatMeasure(t.integratedLufs, 1, 'LUFS'),
@@ -55,8 +58,8 @@ export function summaryLines(data: ReportData): string[] {
   const v = data.counts.verdict;
   const d = data.counts.decision;
   return [
-    `Verdicts: ✓ Pass ${v.pass} · ▲ Warn ${v.warn} · ✕ Fail ${v.fail}${v.none ? ` · ○ Not measured ${v.none}` : ''}`,
-    `Decisions: Approved ${d.approved} · Rejected ${d.rejected} · Pending ${d.pending}`,
+    `Verdicts: ${statusText(VERDICT_STATUS.fail)} ${v.fail} · ${statusText(VERDICT_STATUS.warn)} ${v.warn} · ${statusText(VERDICT_STATUS.pass)} ${v.pass}${v.none ? ` · ${statusText(VERDICT_STATUS.none)} ${v.none}` : ''}`,
+    `Decisions: ${statusText(DECISION_STATUS.approved)} ${d.approved} · ${statusText(DECISION_STATUS.rejected)} ${d.rejected} · ${statusText(DECISION_STATUS.pending)} ${d.pending}`,
   ];
 }
 

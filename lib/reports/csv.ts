@@ -1,5 +1,6 @@
 import type { TakeSummary } from '@/lib/takes/views';
-import { DECISION_LABEL, MEASURE, VERDICT_LABEL, labelWithUnit } from '@/lib/glossary';
+import { MEASURE, labelWithUnit } from '@/lib/glossary';
+import { DECISION_STATUS, VERDICT_STATUS } from '@/lib/status';
 
 type Cell = string | number | null;
 
@@ -30,6 +31,7 @@ export const CSV_HEADER = [
   labelWithUnit('noiseFloor'),
   MEASURE.clipEvents.label,
   'Verdict',
+  'Reason',
   'Decision',
   'Decided by',
   'Note',
@@ -53,8 +55,9 @@ export function takesCsv(takes: TakeSummary[]): string {
         round(t.integratedLufs, 1),
         round(t.noiseFloorDbfs, 1),
         t.clipEvents,
-        VERDICT_LABEL[t.verdict ?? 'none'].word,
-        DECISION_LABEL[t.decision].word,
+        VERDICT_STATUS[t.verdict ?? 'none'].word,
+        t.reason,
+        DECISION_STATUS[t.decision].word,
         t.decidedBy,
         t.decisionNote,
       ]),

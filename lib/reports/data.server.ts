@@ -1,4 +1,5 @@
 import 'server-only';
+import { env } from '@/lib/env.server';
 import { getSession } from '@/lib/sessions/service.server';
 import { studioName } from '@/lib/studio/studio.server';
 import { listSessionTakes } from '@/lib/takes/service.server';
@@ -14,5 +15,6 @@ export async function loadReport(actor: Actor, sessionId: number): Promise<Repor
     counts.verdict[t.verdict ?? 'none']++;
     counts.decision[t.decision]++;
   }
-  return { studio: await studioName(actor), session, takes, counts, generatedAt: new Date() };
+  const sessionUrl = `${env().NEXTAUTH_URL.replace(/\/+$/, '')}/sessions/${session.id}`;
+  return { studio: await studioName(actor), session, takes, counts, generatedAt: new Date(), sessionUrl };
 }

@@ -1,5 +1,5 @@
 import { MEASURE } from '@/lib/glossary';
-import { REPORT_CAUTION } from './labels';
+import { REPORT_CAUTION, REPORT_TONE } from './labels';
 import { sessionDetails, summaryLines, takeCells } from './content';
 import type { ReportData } from './content';
 import { formatDateTime } from '@/lib/format';
@@ -12,7 +12,6 @@ export function escapeHtml(text: string): string {
 const INK = '#1b2430';
 const MUTED = '#505a68';
 const LINE = '#cfc9bd';
-const TONE = { pass: '#1a6636', warn: '#855400', fail: '#aa221c', none: MUTED, approved: '#1a6636', rejected: '#aa221c', pending: MUTED } as const;
 
 const cell = `padding:6px 8px;border-bottom:1px solid ${LINE};text-align:left;vertical-align:top;`;
 
@@ -25,12 +24,11 @@ export function reportHtml(data: ReportData, message: string | null, sender: str
   const rows = data.takes
     .map((t) => {
       const c = takeCells(t);
-      const verdictTone = TONE[t.verdict ?? 'none'];
       const note = [c.problem, c.note].filter(Boolean).join(' · ');
       return `<tr>
 <td style="${cell}">${e(c.name)}</td>
-<td style="${cell}white-space:nowrap;color:${verdictTone};font-weight:bold;">${c.verdict.mark} ${c.verdict.word}</td>
-<td style="${cell}white-space:nowrap;color:${TONE[t.decision]};font-weight:bold;">${c.decision.mark} ${c.decision.word}</td>
+<td style="${cell}"><span style="white-space:nowrap;color:${REPORT_TONE[c.verdict.tone]};font-weight:bold;">${c.verdict.mark} ${c.verdict.word}</span>${c.reason ? `<br><span style="color:${INK};">${e(c.reason)}</span>` : ''}</td>
+<td style="${cell}white-space:nowrap;color:${REPORT_TONE[c.decision.tone]};font-weight:bold;">${c.decision.mark} ${c.decision.word}</td>
 <td style="${cell}white-space:nowrap;">${e(c.truePeak)}</td>
 <td style="${cell}white-space:nowrap;">${e(c.loudness)}</td>
 <td style="${cell}white-space:nowrap;">${e(c.noiseFloor)}</td>
@@ -47,7 +45,8 @@ export function reportHtml(data: ReportData, message: string | null, sender: str
 <html lang="en"><head><meta charset="utf-8"><title>${e(data.session.title)}</title></head>
 <body style="margin:0;padding:16px;background:#ffffff;color:${INK};font-family:Arial,Helvetica,sans-serif;font-size:14px;line-height:1.45;">
 <p style="margin:0 0 4px;color:${MUTED};">${e(data.studio)} · Session report</p>
-<h1 style="margin:0 0 12px;font-size:22px;">${e(data.session.title)}</h1>
+<h1 style="margin:0 0 4px;font-size:22px;">${e(data.session.title)}</h1>
+<p style="margin:0 0 12px;"><a href="${e(data.sessionUrl)}" style="color:#1d4f91;">Open this session in Takeproof</a></p>
 ${message ? `<div style="margin:0 0 16px;padding:10px 12px;border-left:4px solid ${LINE};white-space:pre-line;"><p style="margin:0 0 4px;color:${MUTED};">Message from ${e(sender)}:</p>${e(message)}</div>` : ''}
 <table role="presentation" style="border-collapse:collapse;margin:0 0 16px;">${details}</table>
 <h2 style="font-size:16px;margin:0 0 6px;">Summary</h2>
@@ -67,7 +66,7 @@ ${rows}
 
 /** The plain-text alternative of the same e-mail. */
 export function reportText(data: ReportData, message: string | null, sender: string): string {
-  const lines = [`${data.studio} · Session report`, data.session.title, ''];
+  const lines = [`${data.studio} · Session report`, data.session.title, `Open this session in Takeproof: ${data.sessionUrl}`, ''];
   if (message) lines.push(`Message from ${sender}:`, message, '');
   for (const [k, v] of sessionDetails(data)) lines.push(`${k}: ${v}`);
   lines.push('', ...summaryLines(data), '', 'Takes:');
@@ -75,7 +74,7 @@ export function reportText(data: ReportData, message: string | null, sender: str
   for (const t of data.takes) {
     const c = takeCells(t);
     lines.push(
-      `- ${c.name}: ${c.verdict.mark} ${c.verdict.word}, ${c.decision.word}; true peak ${c.truePeak}, integrated loudness ${c.loudness}, noise floor ${c.noiseFloor}, effective bits ${c.effectiveBits}, clipping events ${c.clips}${c.problem ? `; ${c.problem}` : ''}${c.note ? `; ${c.note}` : ''}`,
+      `- ${c.name}: ${c.verdict.mark} ${c.verdict.word}${c.reason ? ` (${c.reason})` : ''}, ${c.decision.mark} ${c.decision.word}; true peak ${c.truePeak}, integrated loudness ${c.loudness}, noise floor ${c.noiseFloor}, effective bits ${c.effectiveBits}, clipping events ${c.clips}${c.problem ? `; ${c.problem}` : ''}${c.note ? `; ${c.note}` : ''}`,
     );
   }
   lines.push('', REPORT_CAUTION, '', 'The same table is attached as a PDF and as a CSV file.');

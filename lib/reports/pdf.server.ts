@@ -1,7 +1,8 @@
 import 'server-only';
 import PDFDocument from 'pdfkit';
 import { MEASURE } from '@/lib/glossary';
-import { REPORT_CAUTION } from './labels';
+import { REPORT_CAUTION, REPORT_TONE } from './labels';
+import { DECISION_STATUS, VERDICT_STATUS, type Shape, type StatusLook } from '@/lib/status';
 import { sessionDetails, takeCells } from './content';
 import type { ReportData } from './content';
 import { formatDateTime } from '@/lib/format';
@@ -9,7 +10,7 @@ import { formatDateTime } from '@/lib/format';
 // The PDF uses the built-in Helvetica, whose encoding is Windows-1252: other characters are
 // spelled out or simplified so nothing turns into garbage.
 const WIN_ANSI_EXTRA = '€‚ƒ„…†‡ˆ‰Š‹ŒŽ‘’“”•–—˜™š›œžŸ';
-const REPLACE: Record<string, string> = { '−': '-', '‐': '-', '‑': '-', '≤': '<=', '≥': '>=', 'Ł': 'L', 'ł': 'l', 'Đ': 'D', 'đ': 'd', 'ı': 'i', '✓': '', '▲': '', '✕': '', '○': '', '●': '', '■': '' };
+const REPLACE: Record<string, string> = { '−': '-', '‐': '-', '‑': '-', '≤': '<=', '≥': '>=', 'Ł': 'L', 'ł': 'l', 'Đ': 'D', 'đ': 'd', 'ı': 'i', ...Object.fromEntries([...Object.values(VERDICT_STATUS), ...Object.values(DECISION_STATUS)].map((status) => [status.mark, ''])) };
 
 export function pdfText(text: string): string {
   let out = '';
@@ -29,13 +30,7 @@ export function pdfText(text: string): string {
 const INK = '#1b2430';
 const MUTED = '#505a68';
 const LINE = '#cfc9bd';
-const TONE = { pass: '#1a6636', warn: '#855400', fail: '#aa221c', none: MUTED, approved: '#1a6636', rejected: '#aa221c', pending: MUTED } as const;
-
-type Shape = 'check' | 'triangle' | 'cross' | 'circle' | 'dot' | 'square';
-const VERDICT_SHAPE: Record<string, Shape> = { pass: 'check', warn: 'triangle', fail: 'cross', none: 'circle' };
-const DECISION_SHAPE: Record<string, Shape> = { approved: 'dot', rejected: 'square', pending: 'circle' };
-
-/** Draws a small status shape (8 pt), so status never depends on colour. */
+/** Draws a verdict's or decision's shape (8 pt), so status never depends on colour (Helvetica has no glyphs for them). */
 function shape(doc: PDFKit.PDFDocument, kind: Shape, x: number, y: number, color: string) {
   doc.save().lineWidth(1.4).strokeColor(color).fillColor(color);
   if (kind === 'check') doc.moveTo(x, y + 4).lineTo(x + 3, y + 7.5).lineTo(x + 8, y).stroke();
@@ -43,7 +38,9 @@ function shape(doc: PDFKit.PDFDocument, kind: Shape, x: number, y: number, color
   else if (kind === 'cross') doc.moveTo(x, y).lineTo(x + 7.5, y + 7.5).moveTo(x + 7.5, y).lineTo(x, y + 7.5).stroke();
   else if (kind === 'dot') doc.circle(x + 4, y + 4, 3.4).fill();
   else if (kind === 'square') doc.rect(x + 0.5, y + 0.5, 7, 7).fill();
-  else doc.circle(x + 4, y + 4, 3.4).stroke();
+  else if (kind === 'dottedRing') doc.circle(x + 4, y + 4, 3.4).dash(1, { space: 1.2 }).stroke().undash();
+  else if (kind === 'ring') doc.circle(x + 4, y + 4, 3.4).stroke();
+  else throw new Error(`The PDF draws no ${kind} shape`);
   doc.restore();
 }
 
@@ -99,13 +96,13 @@ export function reportPdf(data: ReportData): Promise<Buffer> {
 
   // Summary: counts by verdict and by decision, each with its shape and word.
   doc.font('Helvetica-Bold').fontSize(12).fillColor(INK).text('Summary', left, doc.y);
-  const summaryRow = (label: string, items: { shape: Shape; word: string; n: number; color: string }[]) => {
+  const summaryRow = (label: string, items: { status: StatusLook; n: number }[]) => {
     const y = doc.y + 4;
     doc.font('Helvetica').fontSize(10).fillColor(MUTED).text(label, left, y, { lineBreak: false });
     let x = left + 70;
     for (const it of items) {
-      shape(doc, it.shape, x, y + 1, it.color);
-      const t = `${it.word} ${it.n}`;
+      shape(doc, it.status.shape, x, y + 1, REPORT_TONE[it.status.tone]);
+      const t = `${it.status.word} ${it.n}`;
       doc.fillColor(INK).text(t, x + 12, y, { lineBreak: false });
       x += 12 + doc.widthOfString(t) + 18;
     }
@@ -114,15 +111,15 @@ export function reportPdf(data: ReportData): Promise<Buffer> {
   const v = data.counts.verdict;
   const d = data.counts.decision;
   summaryRow('Verdicts', [
-    { shape: 'check', word: 'Pass', n: v.pass, color: TONE.pass },
-    { shape: 'triangle', word: 'Warn', n: v.warn, color: TONE.warn },
-    { shape: 'cross', word: 'Fail', n: v.fail, color: TONE.fail },
-    ...(v.none ? [{ shape: 'circle' as Shape, word: 'Not measured', n: v.none, color: MUTED }] : []),
+    { status: VERDICT_STATUS.fail, n: v.fail },
+    { status: VERDICT_STATUS.warn, n: v.warn },
+    { status: VERDICT_STATUS.pass, n: v.pass },
+    ...(v.none ? [{ status: VERDICT_STATUS.none, n: v.none }] : []),
   ]);
   summaryRow('Decisions', [
-    { shape: 'check', word: 'Approved', n: d.approved, color: TONE.approved },
-    { shape: 'cross', word: 'Rejected', n: d.rejected, color: TONE.rejected },
-    { shape: 'circle', word: 'Pending', n: d.pending, color: TONE.pending },
+    { status: DECISION_STATUS.approved, n: d.approved },
+    { status: DECISION_STATUS.rejected, n: d.rejected },
+    { status: DECISION_STATUS.pending, n: d.pending },
   ]);
   doc.moveDown(0.8);
 
@@ -149,10 +146,11 @@ export function reportPdf(data: ReportData): Promise<Buffer> {
     for (const take of data.takes) {
       const c = takeCells(take);
       const name = pdfText(c.name);
-      const note = pdfText([c.problem, c.note].filter(Boolean).join(' · '));
+      const notes = [c.problem, c.note].filter(Boolean).join(' · ');
+      const note = pdfText([c.reason ? `Reason: ${c.reason}` : null, notes ? `Note: ${notes}` : null].filter(Boolean).join('   '));
       doc.font('Helvetica').fontSize(9);
       const nameH = doc.heightOfString(name, { width: COLUMNS[0].width - 6 });
-      const noteH = note ? doc.heightOfString(`Note: ${note}`, { width: width - 6 }) + 3 : 0;
+      const noteH = note ? doc.heightOfString(note, { width: width - 6 }) + 3 : 0;
       const rowH = Math.max(12, nameH) + noteH + 6;
       if (doc.y + rowH > bottom()) {
         doc.addPage();
@@ -164,12 +162,11 @@ export function reportPdf(data: ReportData): Promise<Buffer> {
       for (const col of COLUMNS) {
         const w = col.width - 6;
         if (col.key === 'verdict') {
-          const key = take.verdict ?? 'none';
-          shape(doc, VERDICT_SHAPE[key], x + 3, y + 1, TONE[key]);
-          doc.fillColor(TONE[key]).font('Helvetica-Bold').text(c.verdict.word, x + 15, y, { width: w - 12, lineBreak: false });
+          shape(doc, c.verdict.shape, x + 3, y + 1, REPORT_TONE[c.verdict.tone]);
+          doc.fillColor(REPORT_TONE[c.verdict.tone]).font('Helvetica-Bold').text(c.verdict.word, x + 15, y, { width: w - 12, lineBreak: false });
         } else if (col.key === 'decision') {
-          shape(doc, DECISION_SHAPE[take.decision], x + 3, y + 1, TONE[take.decision]);
-          doc.fillColor(TONE[take.decision]).font('Helvetica-Bold').text(c.decision.word, x + 15, y, { width: w - 12, lineBreak: false });
+          shape(doc, c.decision.shape, x + 3, y + 1, REPORT_TONE[c.decision.tone]);
+          doc.fillColor(REPORT_TONE[c.decision.tone]).font('Helvetica-Bold').text(c.decision.word, x + 15, y, { width: w - 12, lineBreak: false });
         } else if (col.key === 'name') {
           doc.fillColor(INK).font('Helvetica').text(name, x + 3, y, { width: w });
         } else {
@@ -179,7 +176,7 @@ export function reportPdf(data: ReportData): Promise<Buffer> {
       }
       let rowBottom = y + Math.max(12, nameH);
       if (note) {
-        doc.font('Helvetica').fontSize(9).fillColor(MUTED).text(`Note: ${note}`, left + 3, rowBottom + 2, { width: width - 6 });
+        doc.font('Helvetica').fontSize(9).fillColor(INK).text(note, left + 3, rowBottom + 2, { width: width - 6 });
         rowBottom += noteH;
       }
       doc.moveTo(left, rowBottom + 3).lineTo(left + width, rowBottom + 3).lineWidth(0.5).strokeColor(LINE).stroke();

@@ -195,7 +195,12 @@ export function measureRows(report: AnalysisReport, spec: DeliverySpec): Measure
   const pick = (...checks: Finding['check'][]) => f.filter((x) => checks.includes(x.check));
   const file = report.file;
   const rows: MeasureRow[] = [];
-  const add = (row: Omit<MeasureRow, 'mark'> & { mark?: Mark }) => rows.push({ ...row, mark: row.mark ?? markOf(row.findings) });
+  // The sentence says what this row's own findings found; only a row without a warning or failure
+  // explains the measure in its own words.
+  const add = (row: Omit<MeasureRow, 'mark'> & { mark?: Mark }) => {
+    const problems = row.findings.filter((x) => x.severity !== 'info');
+    rows.push({ ...row, mark: row.mark ?? markOf(row.findings), explanation: problems.length ? problems.map((x) => x.message).join(' ') : row.explanation });
+  };
 
   const declared = file.encoding === 'float' ? `${file.bitsPerSample}-bit float` : `${file.bitsPerSample}-bit`;
   const used = report.resolution.effectiveBits;
@@ -207,7 +212,7 @@ export function measureRows(report: AnalysisReport, spec: DeliverySpec): Measure
     findings: formatFindings,
     explanation:
       used > 0 && used < file.bitsPerSample && file.encoding === 'pcm'
-        ? `The file has room for ${file.bitsPerSample} bits but the audio only uses ${used}, so it holds no more detail than a ${used}-bit recording.`
+        ? `The file has room for ${file.bitsPerSample} bits and the audio uses ${used}, which the delivery spec accepts.`
         : 'The file’s declared format and the resolution its audio really uses agree.',
   });
 
@@ -252,8 +257,8 @@ export function measureRows(report: AnalysisReport, spec: DeliverySpec): Measure
     value: `${bw.effectiveHz != null ? `audio up to ${formatKhz(bw.effectiveHz)}` : '—'} of ${formatKhz(file.sampleRate / 2)} possible${bw.impliedSourceRate ? ` · probably made at ${formatKhz(bw.impliedSourceRate)}` : ''}${bw.aliasingRisk ? ' · aliasing risk' : ''}`,
     findings: pick('bandwidth', 'aliasing'),
     explanation: bw.impliedSourceRate
-      ? 'The highest frequencies are missing, as if the take was recorded at a lower sample rate and converted up afterwards.'
-      : 'How high the recorded frequencies reach; a take cut off well below the file’s limit sounds dull.',
+      ? 'The band limit points to a take made at a lower sample rate; the Format row judges that.'
+      : 'How high the recorded frequencies reach; this take’s reach is within what the delivery spec accepts.',
   });
 
   const worstDc = report.channels.reduce((m, c) => (Math.abs(c.dcOffset) > Math.abs(m) ? c.dcOffset : m), 0);
@@ -277,7 +282,19 @@ export function measureRows(report: AnalysisReport, spec: DeliverySpec): Measure
         : 'Correlation near +1 means the channels agree; near −1 means they cancel each other when summed to mono.',
     });
   } else {
-    add({ key: 'stereo', title: 'Channels', value: file.channels === 1 ? 'mono take' : `${file.channels} channels`, findings: pick('silent-channel'), explanation: 'Stereo checks apply to two-channel takes only.' });
+    const silentTracks = report.channels.filter((c) => c.silent).length;
+    add({
+      key: 'stereo',
+      title: file.channels === 1 ? 'Channel' : 'Tracks',
+      value: file.channels === 1 ? 'mono take' : `${file.channels} tracks`,
+      findings: pick('silent-channel'),
+      explanation:
+        file.channels === 1
+          ? 'The channel carries signal.'
+          : silentTracks > 0
+            ? `${file.channels - silentTracks} of the ${file.channels} tracks carry signal; the others are unused.`
+            : `Each of the ${file.channels} tracks carries signal of its own.`,
+    });
   }
 
   const dropoutCount = report.dropoutCount ?? report.dropouts.length;

@@ -1,6 +1,5 @@
 import 'server-only';
 import type { Readable } from 'node:stream';
-import { Op } from 'sequelize';
 import { PEAKS_HEADER_BYTES, PEAKS_LEVEL_ENTRY_BYTES, PEAKS_MAGIC, PEAKS_SCALE, pickPeaksLevel, readPeaksHeader, toWaveformPeaks, type PeaksLevel } from '@/dsp/peaksFile';
 import { Take, TakeComment, User } from '@/models';
 import { audit } from '@/lib/audit/record.server';
@@ -9,6 +8,7 @@ import { AppError } from '@/lib/errors';
 import type { CommentInput, DecisionInput } from './schema';
 import { storage } from '@/lib/storage/storage.server';
 import { findTake, getTake } from '@/lib/takes/service.server';
+import { worstFirst } from '@/lib/takes/order';
 import type { TakeDetail } from '@/lib/takes/views';
 import type { Actor } from '@/lib/auth/views';
 import type { TakeCommentView, TakePeaks } from './views';
@@ -125,16 +125,11 @@ export async function addComment(actor: Actor, takeId: number, input: CommentInp
   return toCommentView(row);
 }
 
-/** The takes before and after this one in its session (upload order). */
+/** The takes before and after this one in the order of the session's take table (worst first). */
 export async function sessionNeighbours(actor: Actor, take: { id: number; sessionId: number }) {
-  const where = { sessionId: take.sessionId, studioId: actor.studioId };
-  const attributes = ['id', 'originalName', 'sessionId'];
-  const [previous, next, position, count] = await Promise.all([
-    Take.findOne({ where: { ...where, id: { [Op.lt]: take.id } }, attributes, order: [['id', 'DESC']] }),
-    Take.findOne({ where: { ...where, id: { [Op.gt]: take.id } }, attributes, order: [['id', 'ASC']] }),
-    Take.count({ where: { ...where, id: { [Op.lte]: take.id } } }),
-    Take.count({ where }),
-  ]);
-  const ref = (t: Take | null) => (t ? { id: t.id, name: t.originalName } : null);
-  return { previous: ref(previous), next: ref(next), position, count };
+  const takes = await Take.findAll({ where: { sessionId: take.sessionId, studioId: actor.studioId }, attributes: ['id', 'originalName', 'verdict'] });
+  const ordered = takes.map((t) => ({ id: t.id, originalName: t.originalName, verdict: t.verdict })).sort(worstFirst);
+  const index = ordered.findIndex((t) => t.id === take.id);
+  const ref = (t: (typeof ordered)[number] | undefined) => (t ? { id: t.id, name: t.originalName } : null);
+  return { previous: ref(ordered[index - 1]), next: ref(ordered[index + 1]), position: index + 1, count: ordered.length };
 }

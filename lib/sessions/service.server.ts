@@ -80,15 +80,20 @@ export async function getSession(actor: Actor, id: number): Promise<SessionSumma
   return toSummary(session, counts.get(id) ?? 0);
 }
 
-/** Checks that referenced people and spec belong to the actor's studio. */
-async function checkReferences(actor: Actor, input: Partial<CreateSessionInput>) {
+/**
+ * Checks that referenced people and spec belong to the actor's studio, and that a newly chosen
+ * spec is not archived (`currentSpecId`: the spec the session already has, which it may keep).
+ */
+async function checkReferences(actor: Actor, input: Partial<CreateSessionInput>, currentSpecId: number | null = null) {
   const fields: Record<string, string[]> = {};
   for (const key of ['engineerId', 'producerId'] as const) {
     const id = input[key];
     if (id != null && !(await User.findOne({ where: { id, studioId: actor.studioId } }))) fields[key] = ['No such person in this studio'];
   }
-  if (input.deliverySpecId != null && !(await DeliverySpec.findOne({ where: { id: input.deliverySpecId, studioId: actor.studioId } }))) {
-    fields.deliverySpecId = ['No such delivery spec in this studio'];
+  if (input.deliverySpecId != null) {
+    const spec = await DeliverySpec.findOne({ where: { id: input.deliverySpecId, studioId: actor.studioId }, attributes: ['id', 'archivedAt'] });
+    if (!spec) fields.deliverySpecId = ['No such delivery spec in this studio'];
+    else if (spec.archivedAt && spec.id !== currentSpecId) fields.deliverySpecId = ['This delivery spec is archived; choose a current one'];
   }
   if (Object.keys(fields).length) throw new AppError('invalid:session', 'Some fields need attention.', { fields });
 }
@@ -118,7 +123,7 @@ export async function createSession(actor: Actor, input: CreateSessionInput): Pr
 
 export async function updateSession(actor: Actor, id: number, patch: UpdateSessionInput): Promise<SessionSummary> {
   const session = await findSession(actor, id);
-  await checkReferences(actor, patch);
+  await checkReferences(actor, patch, session.deliverySpecId);
   const changes = Object.fromEntries(Object.entries(patch).filter(([, v]) => v !== undefined));
   if (Object.keys(changes).length === 0) return getSession(actor, id);
   await db().transaction(async (transaction) => {

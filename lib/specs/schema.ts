@@ -2,8 +2,18 @@ import { z } from 'zod';
 import { deliverySpecSchema } from '@/dsp/spec';
 import { THRESHOLD_BY_KEY, type ThresholdKey } from './fields';
 
-/** A spec's thresholds as stored (dsp/spec.ts without the name): the one source of ranges. */
-export const thresholdsSchema = deliverySpecSchema.omit({ name: true });
+/** Sample rates a recorder really records at, Hz (AES5 and the consumer and telephony rates). */
+export const STANDARD_SAMPLE_RATES = [8000, 11025, 16000, 22050, 24000, 32000, 44100, 48000, 88200, 96000, 176400, 192000, 352800, 384000] as const;
+
+/** A spec's thresholds as stored (dsp/spec.ts without the name, a required rate one of the standard rates): the one source of ranges. */
+const RATE_MESSAGE = `Choose a standard sample rate (${STANDARD_SAMPLE_RATES.join(', ')} Hz), or leave it empty for any rate`;
+
+export const thresholdsSchema = deliverySpecSchema.omit({ name: true }).extend({
+  requiredSampleRate: z
+    .number()
+    .refine((rate) => (STANDARD_SAMPLE_RATES as readonly number[]).includes(rate), { message: RATE_MESSAGE })
+    .nullable(),
+});
 
 const description = z
   .string()
@@ -26,6 +36,8 @@ export const updateSpecSchema = z.object({
   description,
   /** Only the thresholds sent change; the rest keep their stored values. */
   thresholds: thresholdsSchema.partial().optional(),
+  /** Archive (hide from new sessions) or restore the spec. */
+  archived: z.boolean().optional(),
 });
 export type UpdateSpecInput = z.infer<typeof updateSpecSchema>;
 
@@ -54,7 +66,7 @@ export const specErrorMap: z.core.$ZodErrorMap = (issue) => {
   const unit = field.unit ? ` ${field.unit}` : '';
   if (field.kind === 'boolean') return 'Choose on or off';
   if (field.kind === 'bitDepth') return 'Choose 16, 24 or 32 bits, or leave it empty for any bit depth';
-  if (field.kind === 'rate') return 'Enter a whole number of Hz above 0, or leave it empty for any rate';
+  if (field.kind === 'rate') return RATE_MESSAGE;
   const { min, max } = range(field.key);
   const between = min !== undefined && max !== undefined ? `Use a value from ${fmt(min)} to ${fmt(max)}${unit}` : undefined;
   if (issue.code === 'invalid_type') {

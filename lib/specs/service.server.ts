@@ -38,6 +38,7 @@ function toView(record: DeliverySpec, sessionCount: number): SpecView {
     description: record.description,
     thresholds: storedThresholds(record),
     sessionCount,
+    archived: record.archivedAt != null,
     createdAt: record.createdAt.toISOString(),
     updatedAt: record.updatedAt.toISOString(),
   };
@@ -45,7 +46,7 @@ function toView(record: DeliverySpec, sessionCount: number): SpecView {
 
 export async function listSpecs(actor: Actor): Promise<SpecView[]> {
   db();
-  const specs = await DeliverySpec.findAll({ where: { studioId: actor.studioId }, order: [['name', 'ASC'], ['id', 'ASC']] });
+  const specs = await DeliverySpec.findAll({ where: { studioId: actor.studioId }, order: [['archivedAt', 'ASC'], ['name', 'ASC'], ['id', 'ASC']] });
   const counts = await sessionCounts(actor.studioId, specs.map((s) => s.id));
   return specs.map((s) => toView(s, counts.get(s.id) ?? 0));
 }
@@ -92,6 +93,7 @@ export async function updateSpec(actor: Actor, id: number, patch: UpdateSpecInpu
       {
         ...(patch.name !== undefined ? { name: patch.name } : {}),
         ...(patch.description !== undefined ? { description: patch.description } : {}),
+        ...(patch.archived !== undefined ? { archivedAt: patch.archived ? (spec.archivedAt ?? new Date()) : null } : {}),
         thresholds,
       },
       { transaction },

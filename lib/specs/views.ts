@@ -8,6 +8,8 @@ export interface SpecView {
   /** Every threshold, Takeproof's defaults filling any the stored spec lacks. */
   thresholds: Thresholds;
   sessionCount: number;
+  /** Archived: not offered for new sessions; sessions that use it keep it. */
+  archived: boolean;
   createdAt: string;
   updatedAt: string;
 }

@@ -1,13 +1,18 @@
 import 'server-only';
+import { Op } from 'sequelize';
 import { ensureDb } from '@/lib/db/connection.server';
 import { DeliverySpec, Recorder, User } from '@/models';
 import type { Role } from '@/models/User';
 import type { Actor } from '@/lib/auth/views';
 
-/** The studio's delivery specs and people, as choices for forms. */
-export async function specOptions(actor: Actor) {
+/** The studio's delivery specs that are not archived (and `keepId`, a session's own spec even if archived), as choices for forms. */
+export async function specOptions(actor: Actor, keepId: number | null = null) {
   ensureDb();
-  const specs = await DeliverySpec.findAll({ where: { studioId: actor.studioId }, attributes: ['id', 'name'], order: [['name', 'ASC']] });
+  const specs = await DeliverySpec.findAll({
+    where: { studioId: actor.studioId, [Op.or]: [{ archivedAt: null }, ...(keepId ? [{ id: keepId }] : [])] },
+    attributes: ['id', 'name'],
+    order: [['name', 'ASC']],
+  });
   return specs.map((s) => ({ id: s.id, name: s.name }));
 }
 

@@ -5,9 +5,12 @@ import { db } from '@/lib/db/connection.server';
 import { AppError } from '@/lib/errors';
 import { findSession } from '@/lib/sessions/service.server';
 import type { AnalysisReport } from '@/dsp/types';
+import { worstFirst } from './order';
 import type { TakeDetail, TakeSummary } from './views';
 import type { Actor } from '@/lib/auth/views';
 import { jsonColumn } from '@/lib/db/jsonColumn';
+import { mayRemoveTake } from '@/lib/auth/policy';
+import { storage } from '@/lib/storage/storage.server';
 
 type WithRefs = Take & { recorder?: { label: string } | null; decidedBy?: { name: string } | null };
 
@@ -18,6 +21,7 @@ export function toTakeSummary(take: Take): TakeSummary {
     sessionId: t.sessionId,
     recorderId: t.recorderId,
     recorderLabel: t.recorder?.label ?? null,
+    uploadedById: t.uploadedById,
     originalName: t.originalName,
     bytes: Number(t.bytes),
     sha256: t.sha256,
@@ -32,6 +36,7 @@ export function toTakeSummary(take: Take): TakeSummary {
     noiseFloorDbfs: t.noiseFloorDbfs,
     clipEvents: t.clipEvents,
     verdict: t.verdict,
+    reason: t.verdict === 'pass' ? null : t.reason,
     decision: t.decision,
     decidedBy: t.decidedBy?.name ?? null,
     decidedAt: t.decidedAt ? t.decidedAt.toISOString() : null,
@@ -67,11 +72,11 @@ export async function getTake(actor: Actor, id: number): Promise<TakeDetail> {
   return toTakeDetail(await findTake(actor, id, true));
 }
 
-/** The takes of one session in upload order, without their reports. */
+/** The takes of one session, worst verdict first, without their reports. */
 export async function listSessionTakes(actor: Actor, sessionId: number): Promise<TakeSummary[]> {
   await findSession(actor, sessionId);
-  const takes = await Take.findAll({ where: { sessionId }, include: refs, attributes: { exclude: ['report'] }, order: [['id', 'ASC']] });
-  return takes.map(toTakeSummary);
+  const takes = await Take.findAll({ where: { sessionId }, include: refs, attributes: { exclude: ['report'] } });
+  return takes.map(toTakeSummary).sort(worstFirst);
 }
 
 /** Queues a take to be measured again (e.g. after a worker fault or a new analyzer version). */
@@ -87,4 +92,29 @@ export async function remeasureTake(actor: Actor, id: number): Promise<TakeSumma
     await audit(actor, 'take.remeasure', { type: 'take', id }, null, transaction);
   });
   return toTakeSummary(await findTake(actor, id));
+}
+
+/**
+ * Removes a take with its comments, its measuring job, its stored file and its waveform file; the
+ * same file may then be uploaded again. The uploader may remove their own take until somebody
+ * decides on it; a studio manager may remove any. A take being measured is left alone until done.
+ */
+export async function removeTake(actor: Actor, id: number): Promise<void> {
+  const take = await findTake(actor, id);
+  if (!mayRemoveTake(actor, take)) {
+    throw new AppError(
+      'forbidden:take',
+      take.decision === 'pending' ? 'Only the engineer who uploaded this take, or a studio manager, can remove it.' : 'This take has a decision; only a studio manager can remove it now.',
+    );
+  }
+  const keys = [take.storageKey, take.peaksKey].filter((key): key is string => !!key);
+  await db().transaction(async (transaction) => {
+    // Read again under a row lock, so a worker cannot start measuring it in between.
+    const locked = await Take.findByPk(id, { attributes: ['id', 'status'], lock: transaction.LOCK.UPDATE, transaction });
+    if (locked?.status === 'measuring') throw new AppError('conflict:take_busy', `“${take.originalName}” is being measured right now; remove it once it is done.`);
+    await take.destroy({ transaction });
+    await audit(actor, 'take.remove', { type: 'take', id }, { sessionId: take.sessionId, name: take.originalName, sha256: take.sha256, decision: take.decision }, transaction);
+  });
+  // After the commit: a file left behind by a crash here shows up in `npm run check:storage`.
+  await Promise.all(keys.map((key) => storage().delete(key)));
 }

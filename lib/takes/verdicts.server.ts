@@ -1,6 +1,6 @@
 import 'server-only';
 import type { Transaction } from 'sequelize';
-import { judgeReport, verdictOf } from '@/dsp/findings';
+import { judgeReport, reasonOf, verdictOf } from '@/dsp/findings';
 import type { DeliverySpec as Spec } from '@/dsp/spec';
 import type { AnalysisReport } from '@/dsp/types';
 import { RecordingSession, Take } from '@/models';
@@ -13,6 +13,7 @@ export function measuredFields(report: AnalysisReport, spec: Spec) {
   return {
     report: { ...report, findings },
     verdict: verdictOf(findings),
+    reason: reasonOf(findings),
     sampleRate: report.file.sampleRate,
     bitsPerSample: report.file.bitsPerSample,
     channels: report.file.channels,
@@ -36,8 +37,8 @@ export async function rejudgeSession(sessionId: number, transaction?: Transactio
   for (const take of takes) {
     const report = jsonColumn<AnalysisReport | null>(take.report);
     if (!report) continue;
-    const { report: judged, verdict } = measuredFields(report, spec);
-    await take.update({ report: judged, verdict }, { transaction });
+    const { report: judged, verdict, reason } = measuredFields(report, spec);
+    await take.update({ report: judged, verdict, reason }, { transaction });
   }
   return takes.length;
 }

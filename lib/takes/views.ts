@@ -7,6 +7,7 @@ export interface TakeSummary {
   sessionId: number;
   recorderId: number | null;
   recorderLabel: string | null;
+  uploadedById: number | null;
   originalName: string;
   bytes: number;
   sha256: string;
@@ -21,6 +22,8 @@ export interface TakeSummary {
   noiseFloorDbfs: number | null;
   clipEvents: number | null;
   verdict: Verdict | null;
+  /** Why the verdict is what it is, in one line; null for a pass or an unmeasured take. */
+  reason: string | null;
   decision: Decision;
   decidedBy: string | null;
   decidedAt: string | null;

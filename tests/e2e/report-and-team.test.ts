@@ -88,6 +88,7 @@ describe('inviting a person through the team page', () => {
 
     // The last manager cannot demote themselves: the page says so in plain words.
     await page.getByLabel('Role of Maren Lindqvist').selectOption('producer');
+    await page.getByRole('button', { name: 'Apply role for Maren Lindqvist' }).click();
     await page.waitForFunction(() => document.querySelector('[data-testid=team-notice]')?.getAttribute('role') === 'alert');
     await expect(notice.textContent()).resolves.toBe('✕ The studio needs at least one active manager. Make someone else a manager first.');
     await expect(page.getByLabel('Role of Maren Lindqvist').inputValue()).resolves.toBe('manager');

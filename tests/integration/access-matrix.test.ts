@@ -22,10 +22,14 @@ interface Fixtures {
   inviteeId: number;
   deliveryId: number;
   outboxId: string;
+  /** A pending take the engineer uploaded, one per person, for the removal row. */
+  removable: Record<Persona, number>;
+  /** A take whose file each person tries to replace. */
+  replaceableId: number;
 }
 
 interface Row {
-  path: (f: Fixtures) => string;
+  path: (f: Fixtures, who: Persona) => string;
   body?: (f: Fixtures, who: Persona) => unknown;
   form?: (who: Persona) => FormData;
   /** An `application/x-www-form-urlencoded` body (next-auth's own forms). */
@@ -74,10 +78,22 @@ const MATRIX: Record<string, Row> = {
   'GET /api/sessions/[id]/report.csv': { path: (f) => `/api/sessions/${f.sessionId}/report.csv`, expect: studioObject },
 
   'GET /api/takes/[id]': { path: (f) => `/api/takes/${f.takeId}`, expect: studioObject },
+  // The engineer uploaded each of these takes and nobody has decided on them: the uploader or a manager may remove one.
+  'DELETE /api/takes/[id]': { path: (f, who) => `/api/takes/${f.removable[who]}`, expect: { anonymous: 401, outsider: 404, engineer: 204, producer: 403, manager: 204 } },
   'POST /api/takes/[id]/remeasure': {
     path: (f) => `/api/takes/${f.takeId}/remeasure`,
     before: async (f) => void (await waitForTake(as.manager, f.takeId)),
     expect: { anonymous: 401, outsider: 404, engineer: 202, producer: 403, manager: 202 },
+  },
+  'PUT /api/takes/[id]/file': {
+    path: (f) => `/api/takes/${f.replaceableId}/file`,
+    form: (who) => {
+      const form = new FormData();
+      form.append('file', new Blob([new Uint8Array(makeWav({ seconds: 0.2, seed: 4200 + PERSONAS.indexOf(who) }))]), `replaced-by-${who}.wav`);
+      return form;
+    },
+    before: async (f) => void (await waitForTake(as.manager, f.replaceableId)),
+    expect: { anonymous: 401, outsider: 404, engineer: 200, producer: 403, manager: 200 },
   },
   'GET /api/takes/[id]/audio': { path: (f) => `/api/takes/${f.takeId}/audio`, expect: studioObject },
   'GET /api/takes/[id]/peaks': { path: (f) => `/api/takes/${f.takeId}/peaks`, expect: studioObject },
@@ -170,6 +186,16 @@ beforeAll(async () => {
   const { body } = await uploadTakes(as.engineer, sessionId, [{ name: 'matrix.wav', bytes: makeWav({ seconds: 1, seed: 3999 }) }]);
   const takeId = body.takes[0].id;
   await waitForTake(as.engineer, takeId);
+  const removableUpload = await uploadTakes(
+    as.engineer,
+    sessionId,
+    PERSONAS.map((who) => ({ name: `matrix-remove-${who}.wav`, bytes: makeWav({ seconds: 0.2, seed: 4100 + PERSONAS.indexOf(who) }) })),
+  );
+  const removableIds: number[] = removableUpload.body.takes.map((t: { id: number }) => t.id);
+  for (const id of removableIds) await waitForTake(as.engineer, id);
+  const removable = Object.fromEntries(PERSONAS.map((who, i) => [who, removableIds[i]])) as Record<Persona, number>;
+  const replaceable = await uploadTakes(as.engineer, sessionId, [{ name: 'matrix-replace.wav', bytes: makeWav({ seconds: 0.2, seed: 4199 }) }]);
+  const replaceableId: number = replaceable.body.takes[0].id;
   const post = async (client: Client, url: string, json: unknown) => (await client.fetch(url, { method: 'POST', json })).json();
   const recorder = await post(as.manager, '/api/recorders', { label: `Matrix fixture ${unique('manager')}`, makeModel: `Matrix model ${unique('manager')}` });
   const checkForm = new FormData();
@@ -188,6 +214,8 @@ beforeAll(async () => {
     inviteeId: invited.member.id,
     deliveryId: sent.delivery.id,
     outboxId: outbox.messages?.[0]?.id ?? outbox[0]?.id,
+    removable,
+    replaceableId,
   };
   for (const [k, v] of Object.entries(f)) if (v === undefined || v === null) throw new Error(`Fixture ${k} could not be made`);
 });
@@ -205,7 +233,7 @@ describe('access matrix', () => {
       const got: Record<string, number> = {};
       for (const who of PERSONAS) {
         await row.before?.(f);
-        const response = await as[who].fetch(row.path(f), requestOf(row, method, who));
+        const response = await as[who].fetch(row.path(f, who), requestOf(row, method, who));
         got[who] = response.status;
         await response.arrayBuffer();
       }
@@ -239,7 +267,7 @@ describe('access matrix: changes come only from Takeproof’s own pages', () => 
         };
         const send = async (label: string, headers: Record<string, string>, body?: string) => {
           const { body: properBody, type } = proper();
-          const response = await fetch(BASE_URL + row.path(f), {
+          const response = await fetch(BASE_URL + row.path(f, who), {
             method,
             redirect: 'manual',
             headers: { ...(type ? { 'content-type': type } : {}), cookie: as[who].cookieHeader(), ...headers },

@@ -98,7 +98,12 @@ describe('GET /api/audit', () => {
     expect(page.status).toBe(200);
     const html = await page.text();
     expect(html).toContain('Audit log');
-    expect(html).toContain(`session #${created[0]}`);
-    expect(html).not.toContain(`session #${created[1]}<`);
+    // In words: the object by its title, the action as a phrase, never a code or a database id.
+    expect(html).toContain(`“Audit probe ${stamp} #0”`);
+    expect(html).not.toContain(`“Audit probe ${stamp} #1”`);
+    expect(html).toContain('Changed a session');
+    expect(html).toContain('changed notes');
+    expect(html).not.toContain('>session.update<');
+    expect(html).not.toContain(`#${created[0]}<`);
   });
 });

@@ -18,6 +18,7 @@ interface TakeRow {
   originalName: string;
   status: string;
   verdict: string | null;
+  reason: string | null;
   decision: string;
   truePeakDbtp: number | null;
   integratedLufs: number | null;
@@ -117,6 +118,9 @@ describe('sending a session report', () => {
     for (const name of TAKE_NAMES) expect(html).toContain(name);
     expect(html).toMatch(/delivery specs and local rules take precedence/);
     expect(mail.text).toContain(TAKE_NAMES[0]);
+    // The e-mail links back to the session's page.
+    expect(html).toMatch(new RegExp(`href="https?://[^"]+/sessions/${sessionId}"`));
+    expect(mail.text).toMatch(new RegExp(`https?://\\S+/sessions/${sessionId}\\b`));
 
     const takes = await takesOf(sessionId);
     expect(takes).toHaveLength(2);
@@ -128,8 +132,10 @@ describe('sending a session report', () => {
     }
     // Status always has a word (and a mark) beside any colour.
     for (const t of takes) {
-      const word = { pass: '✓ Pass', warn: '▲ Warn', fail: '✕ Fail' }[t.verdict ?? ''] ?? '○ Not measured';
+      const word = { pass: '✓ Pass', warn: '▲ Warn', fail: '✕ Fail' }[t.verdict ?? ''] ?? '◌ Not measured';
       expect(html).toContain(word);
+      // A warning or failure says why, beside its verdict.
+      if (t.reason) expect(html).toContain(t.reason.replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;').replace(/"/g, '&quot;').replace(/'/g, '&#39;'));
     }
 
     const pdf = mail.attachments.find((a) => a.contentType === 'application/pdf');
@@ -153,6 +159,7 @@ describe('sending a session report', () => {
       // A name that a spreadsheet would run as a formula is defused with a leading apostrophe.
       expect(row[col('Take')]).toBe(t.originalName.startsWith('=') ? `'${t.originalName}` : t.originalName);
       expect(row[col('Verdict')]).toBe({ pass: 'Pass', warn: 'Warn', fail: 'Fail' }[t.verdict ?? ''] ?? 'Not measured');
+      expect(row[col('Reason')]).toBe(t.reason ?? '');
       expect(row[col('Decision')]).toBe({ pending: 'Pending', approved: 'Approved', rejected: 'Rejected' }[t.decision]);
       expect(row[col('Sample rate (Hz)')]).toBe(String(t.format.sampleRate));
       const tp = row[col('True peak (dBTP)')];
@@ -162,7 +169,7 @@ describe('sending a session report', () => {
       if (t.integratedLufs == null) expect(lufs).toBe('');
       else expect(Number(lufs)).toBeCloseTo(t.integratedLufs, 1);
     });
-    expect(rows[2][col('Take')].startsWith("'=")).toBe(true);
+    expect(rows.map((r) => r[col('Take')])).toContain("'=SUM(A1)+take-2.wav");
   });
 
   it('records each delivery and the send in the audit log', async () => {
@@ -264,7 +271,7 @@ describe('who may send and download', () => {
     expect(csv.headers.get('content-type')).toMatch(/^text\/csv/);
     expect(csv.headers.get('content-disposition')).toMatch(/^attachment; filename="session-\d+-[a-z0-9-]+-report\.csv"$/);
     const rows = parseCsv((await csv.text()).replace(/^\ufeff/, ''));
-    expect(rows.slice(1).map((r) => r[0])).toEqual(['scene-3-take-1.wav', "'=SUM(A1)+take-2.wav"]);
+    expect(rows.slice(1).map((r) => r[0]).sort()).toEqual(["'=SUM(A1)+take-2.wav", 'scene-3-take-1.wav']);
 
     expect((await as.outsider.fetch(`/api/sessions/${sessionId}/report.pdf`)).status).toBe(404);
     expect((await as.anonymous.fetch(`/api/sessions/${sessionId}/report.csv`)).status).toBe(401);

@@ -62,7 +62,7 @@ describe('delivery specs API', () => {
       'thresholds.minEffectiveBits': ['Enter a whole number of bits'],
       'thresholds.maxNoiseFloorDbfs': ['Use a value from -160 to -20 dBFS'],
       'thresholds.requiredBitDepth': ['Choose 16, 24 or 32 bits, or leave it empty for any bit depth'],
-      'thresholds.requiredSampleRate': ['Enter a whole number of Hz above 0, or leave it empty for any rate'],
+      'thresholds.requiredSampleRate': ['Choose a standard sample rate (8000, 11025, 16000, 22050, 24000, 32000, 44100, 48000, 88200, 96000, 176400, 192000, 352800, 384000 Hz), or leave it empty for any rate'],
       'thresholds.loudnessIsStrict': ['Choose on or off'],
     });
     const list = (await (await as.manager.fetch('/api/specs')).json()).specs;

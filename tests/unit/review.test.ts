@@ -78,7 +78,43 @@ describe('measureRows', () => {
     const format = measureRows(padded, DEFAULT_SPEC).find((r) => r.key === 'format')!;
     expect(format.value).toMatch(/^24-bit file, 16 bits used/);
     expect(format.mark).toBe('fail');
-    expect(format.explanation).toMatch(/only uses 16/);
+    expect(format.explanation).toMatch(/Only 16 of 24 bits carry audio/);
+  });
+
+  it('says what the row’s own findings found, never a reassuring sentence beside a warning', () => {
+    const upsampled = report((r) => {
+      r.bandwidth = { ...r.bandwidth, effectiveHz: 11800, impliedSourceRate: 24000 };
+    });
+    const rows = Object.fromEntries(measureRows(upsampled, DEFAULT_SPEC).map((r) => [r.key, r]));
+    expect(rows.format.mark).toBe('warn');
+    expect(rows.format.explanation).toMatch(/probably made at 24 kHz/);
+    expect(rows.format.explanation).not.toMatch(/agree/);
+    expect(rows.bandwidth.mark).toBe('pass');
+    expect(rows.bandwidth.explanation).not.toMatch(/missing/);
+  });
+
+  it('names the dead track of a multitrack take on the Tracks row', () => {
+    const eight = report((r) => {
+      r.file = { ...r.file, channels: 8 };
+      r.channels = Array.from({ length: 8 }, (_, i) => ({ ...r.channels[0], silent: i === 5 }));
+      r.stereo = null;
+    });
+    const tracks = measureRows(eight, DEFAULT_SPEC).find((r) => r.key === 'stereo')!;
+    expect(tracks.title).toBe('Tracks');
+    expect(tracks.mark).toBe('fail');
+    expect(tracks.explanation).toMatch(/carries no signal/);
+    expect(tracks.explanation).not.toMatch(/two-channel/);
+  });
+
+  it('says an unused track of a location recording is unused, and still passes the Tracks row', () => {
+    const poly = report((r) => {
+      r.file = { ...r.file, channels: 4, layout: 'poly' };
+      r.channels = Array.from({ length: 4 }, (_, i) => ({ ...r.channels[0], silent: i === 3 }));
+      r.stereo = null;
+    });
+    const tracks = measureRows(poly, DEFAULT_SPEC).find((r) => r.key === 'stereo')!;
+    expect(tracks.mark).toBe('pass');
+    expect(tracks.explanation).toBe('3 of the 4 tracks carry signal; the others are unused.');
   });
 
   it('gives a clean take a pass on every applicable measure and n/a for a missing tone', () => {

@@ -6,21 +6,11 @@ import { loadPage } from '@/lib/http/pages.server';
 import { auditQuerySchema, type AuditQuery } from '@/lib/audit/schema';
 import type { AuditPage } from '@/lib/audit/views';
 import { formatDateTime } from '@/lib/format';
+import { actionWords, detailWords, subjectWords } from '@/lib/audit/words';
 
 export const metadata: Metadata = { title: 'Audit log' };
 
 type Search = Record<string, string | string[] | undefined>;
-
-function describe(detail: Record<string, unknown> | null): string {
-  if (!detail) return '';
-  return Object.entries(detail)
-    .map(([k, v]) => {
-      if (v && typeof v === 'object' && 'from' in v && 'to' in v) return `${k}: ${String((v as { from: unknown }).from)} → ${String((v as { to: unknown }).to)}`;
-      return `${k}: ${Array.isArray(v) ? v.join(', ') : typeof v === 'object' ? JSON.stringify(v) : String(v)}`;
-    })
-    .join(' · ')
-    .slice(0, 300);
-}
 
 export default async function AuditLogPage({ searchParams }: { searchParams: Promise<Search> }) {
   const raw = Object.fromEntries(Object.entries(await searchParams).map(([k, v]) => [k, Array.isArray(v) ? v[0] : v])) as Record<string, string | undefined>;
@@ -47,7 +37,7 @@ export default async function AuditLogPage({ searchParams }: { searchParams: Pro
           <select id="action" name="action" className="tp-input" defaultValue={query.action ?? ''}>
             <option value="">Any</option>
             {options.actions.map((a) => (
-              <option key={a} value={a}>{a}</option>
+              <option key={a} value={a}>{actionWords(a)}</option>
             ))}
           </select>
         </div>
@@ -65,7 +55,7 @@ export default async function AuditLogPage({ searchParams }: { searchParams: Pro
           <select id="subjectType" name="subjectType" className="tp-input" defaultValue={query.subjectType ?? ''}>
             <option value="">Any</option>
             {options.subjectTypes.map((t) => (
-              <option key={t} value={t}>{t}</option>
+              <option key={t} value={t}>{subjectWords(t)}</option>
             ))}
           </select>
         </div>
@@ -112,9 +102,12 @@ export default async function AuditLogPage({ searchParams }: { searchParams: Pro
                   <tr key={e.id} className="border-t border-line align-top">
                     <td className="whitespace-nowrap px-4 py-2 font-mono">{formatDateTime(e.at)}</td>
                     <td className="px-4 py-2">{e.actor?.name ?? '—'}</td>
-                    <td className="px-4 py-2 font-mono">{e.action}</td>
-                    <td className="px-4 py-2">{`${e.subjectType}${e.subjectId != null ? ` #${e.subjectId}` : ''}`}</td>
-                    <td className="break-all px-4 py-2 text-muted">{describe(e.detail)}</td>
+                    <td className="px-4 py-2">{actionWords(e.action)}</td>
+                    <td className="px-4 py-2">
+                      {subjectWords(e.subjectType)}
+                      {e.subjectName ? ` “${e.subjectName}”` : ''}
+                    </td>
+                    <td className="break-words px-4 py-2 text-muted">{detailWords(e.action, e.detail)}</td>
                   </tr>
                 ))}
               </tbody>

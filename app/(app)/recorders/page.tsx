@@ -4,6 +4,8 @@ import { RecorderForm } from '@/components/RecorderForm';
 import { requireActor } from '@/lib/auth/guard.server';
 import { loadPage } from '@/lib/http/pages.server';
 import { listRecorders } from '@/lib/recorders/service.server';
+import { StatusMark } from '@/components/StatusMarks';
+import { RECORDER_STATUS } from '@/lib/status';
 
 export const metadata: Metadata = { title: 'Recorders' };
 
@@ -54,7 +56,7 @@ export default async function RecordersPage({ searchParams }: { searchParams: Pr
                       <td className="px-4 py-2">{r.location ?? '—'}</td>
                       <td className="px-4 py-2 font-mono">{r.bextMatch ?? '—'}</td>
                       <td className="px-4 py-2 font-mono">{r.takeCount}</td>
-                      <td className="px-4 py-2">{r.active ? '● In service' : '○ Retired'}</td>
+                      <td className="px-4 py-2"><StatusMark status={RECORDER_STATUS[r.active ? 'active' : 'retired']} className="font-normal" /></td>
                     </tr>
                   ))}
                 </tbody>

@@ -47,6 +47,7 @@ export default async function SpecsPage() {
                     <Link href={`/specs/${s.id}`} className="font-semibold text-accent underline-offset-2 hover:underline">
                       {s.name}
                     </Link>
+                    {s.archived && <div className="text-xs font-semibold text-muted">Archived: not offered for new sessions</div>}
                     {s.description && <div className="max-w-md text-xs text-muted">{s.description}</div>}
                   </td>
                   <td className="px-4 py-2 font-mono">

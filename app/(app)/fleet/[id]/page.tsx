@@ -2,15 +2,16 @@ import type { Metadata } from 'next';
 import Link from 'next/link';
 import { AlertList } from '@/components/AlertList';
 import { RecorderTrends } from '@/components/RecorderTrends';
-import { DecisionMark, VerdictMark } from '@/components/StatusMarks';
+import { DecisionMark, StatusMark, VerdictMark } from '@/components/StatusMarks';
 import { requireActor } from '@/lib/auth/guard.server';
 import { recorderFleetDetail } from '@/lib/fleet/service.server';
 import { DEFAULT_ALERT_SETTINGS } from '@/lib/fleet/alerts';
 import { FLEET_PERIODS, PERIOD_LABEL, parsePeriod } from '@/lib/fleet/views';
 import { loadPage } from '@/lib/http/pages.server';
 import { idParam } from '@/lib/http/route.server';
-import { formatDate, formatMeasure } from '@/lib/format';
+import { formatDateTime, formatMeasure } from '@/lib/format';
 import { MEASURE, labelWithUnit } from '@/lib/glossary';
+import { RECORDER_STATUS, ALERT_STATUS } from '@/lib/status';
 
 export const metadata: Metadata = { title: 'Recorder trends' };
 
@@ -32,7 +33,7 @@ export default async function RecorderTrendsPage({ params, searchParams }: { par
           <h1 className="text-2xl font-semibold">{recorder.label}</h1>
           <p className="text-sm text-muted">
             {recorder.makeModel ?? 'Make not recorded'} · {recorder.location ?? 'No location'} · serial <span className="font-mono">{recorder.serial ?? '—'}</span> ·{' '}
-            {recorder.active ? '● In service' : '○ Retired'} ·{' '}
+            <StatusMark status={RECORDER_STATUS[recorder.active ? 'active' : 'retired']} className="font-normal" /> ·{' '}
             <Link href={`/recorders/${recorder.id}`} className="text-accent underline">
               Edit
             </Link>{' '}
@@ -64,7 +65,7 @@ export default async function RecorderTrendsPage({ params, searchParams }: { par
           <p className="p-4 text-muted">This recorder is retired; it raises no alerts.</p>
         ) : alerts.length === 0 ? (
           <p className="p-4 text-muted">
-            <span aria-hidden="true">● </span>No alerts: over the last {s.recentDays} days this recorder measures like its own previous {s.baselineDays} days.
+            <span aria-hidden="true">{ALERT_STATUS.none.mark} </span>No alerts: over the last {s.recentDays} days this recorder measures like its own previous {s.baselineDays} days.
           </p>
         ) : (
           <AlertList alerts={alerts} />
@@ -103,9 +104,10 @@ export default async function RecorderTrendsPage({ params, searchParams }: { par
                       <Link href={`/takes/${t.id}`} className="font-semibold text-accent underline-offset-2 hover:underline">
                         {t.originalName}
                       </Link>
+                      {t.reason && <div className="text-xs">{t.reason}</div>}
                       <div className="text-xs text-muted">{t.sessionTitle}</div>
                     </td>
-                    <td className="px-3 py-2 font-mono">{formatDate(t.measuredAt)}</td>
+                    <td className="whitespace-nowrap px-3 py-2 font-mono">{formatDateTime(t.measuredAt)}</td>
                     <td className="px-3 py-2 font-mono">{formatMeasure(t.noiseFloorDbfs)}</td>
                     <td className="px-3 py-2 font-mono">{t.effectiveBits ?? '—'}</td>
                     <td className="px-3 py-2 font-mono">{formatMeasure(t.integratedLufs)}</td>

@@ -5,6 +5,8 @@ import { requireActor } from '@/lib/auth/guard.server';
 import { loadPage } from '@/lib/http/pages.server';
 import { idParam } from '@/lib/http/route.server';
 import { getRecorder } from '@/lib/recorders/service.server';
+import { StatusMark } from '@/components/StatusMarks';
+import { RECORDER_STATUS } from '@/lib/status';
 
 export const metadata: Metadata = { title: 'Recorder' };
 
@@ -21,7 +23,7 @@ export default async function RecorderEditPage({ params, searchParams }: { param
       </p>
       <h1 className="text-2xl font-semibold">{recorder.label}</h1>
       <p className="mb-4 mt-1 text-muted">
-        {recorder.active ? '● In service' : '○ Retired'} · {recorder.takeCount} takes ·{' '}
+        <StatusMark status={RECORDER_STATUS[recorder.active ? 'active' : 'retired']} className="font-normal" /> · {recorder.takeCount} takes ·{' '}
         <Link href={`/fleet/${recorder.id}`} className="text-accent underline">
           Trends and alerts
         </Link>{' '}

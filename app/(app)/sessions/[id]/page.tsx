@@ -6,6 +6,7 @@ import { SwrProvider } from '@/components/SwrProvider';
 import { TakeTable } from '@/components/TakeTable';
 import { TakeUploader } from '@/components/TakeUploader';
 import { requireActor } from '@/lib/auth/guard.server';
+import { env } from '@/lib/env.server';
 import { can } from '@/lib/auth/policy';
 import { recorderOptions, specOptions } from '@/lib/studio/formOptions.server';
 import { loadPage } from '@/lib/http/pages.server';
@@ -13,6 +14,8 @@ import { idParam } from '@/lib/http/route.server';
 import { getSession } from '@/lib/sessions/service.server';
 import { sessionTakesKey } from '@/lib/http/swrKeys';
 import { listSessionTakes } from '@/lib/takes/service.server';
+import { StatusMark } from '@/components/StatusMarks';
+import { SESSION_STATUS } from '@/lib/status';
 
 export const metadata: Metadata = { title: 'Session' };
 
@@ -20,7 +23,7 @@ export default async function SessionPage({ params }: { params: Promise<{ id: st
   const { actor, session, takes, recorders, specs } = await loadPage(async () => {
     const actor = await requireActor('session:view');
     const session = await getSession(actor, await idParam(params, 'session'));
-    return { actor, session, takes: await listSessionTakes(actor, session.id), recorders: await recorderOptions(actor), specs: await specOptions(actor) };
+    return { actor, session, takes: await listSessionTakes(actor, session.id), recorders: await recorderOptions(actor), specs: await specOptions(actor, session.deliverySpec?.id ?? null) };
   });
   const takesKey = sessionTakesKey(session.id);
   const mayUpload = can(actor.role, 'take:upload') && session.status === 'open';
@@ -40,7 +43,7 @@ export default async function SessionPage({ params }: { params: Promise<{ id: st
             <div><dt className="inline">Room: </dt><dd className="inline text-ink">{session.room ?? '—'}</dd></div>
             <div><dt className="inline">Engineer: </dt><dd className="inline text-ink">{session.engineer?.name ?? '—'}</dd></div>
             <div><dt className="inline">Producer: </dt><dd className="inline text-ink">{session.producer?.name ?? '—'}</dd></div>
-            <div><dt className="inline">Status: </dt><dd className="inline text-ink">{session.status === 'open' ? '○ Open' : '● Closed'}</dd></div>
+            <div><dt className="inline">Status: </dt><dd className="inline text-ink"><StatusMark status={SESSION_STATUS[session.status]} className="font-normal" /></dd></div>
           </dl>
           {session.notes && <p className="mt-3 max-w-prose whitespace-pre-line">{session.notes}</p>}
         </div>
@@ -50,8 +53,8 @@ export default async function SessionPage({ params }: { params: Promise<{ id: st
         <p className="max-w-prose text-xs text-muted">
           Verdicts follow the session’s delivery spec ({session.deliverySpec?.name ?? 'Takeproof defaults'}). The studio’s and the broadcaster’s own delivery specs and local rules take precedence over Takeproof’s defaults.
         </p>
-        {mayUpload && <TakeUploader sessionId={session.id} recorders={recorders} takesKey={takesKey} />}
-        <TakeTable takesKey={takesKey} />
+        {mayUpload && <TakeUploader sessionId={session.id} recorders={recorders} takesKey={takesKey} maxBytes={env().UPLOAD_MAX_BYTES} />}
+        <TakeTable takesKey={takesKey} viewer={{ id: actor.id, role: actor.role }} />
         <SessionReportPanel sessionId={session.id} maySend={can(actor.role, 'report:send')} />
       </article>
     </SwrProvider>

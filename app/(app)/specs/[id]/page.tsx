@@ -1,5 +1,6 @@
 import type { Metadata } from 'next';
 import Link from 'next/link';
+import { SpecArchiveButton } from '@/components/SpecArchiveButton';
 import { SpecDuplicateButton } from '@/components/SpecDuplicateButton';
 import { SpecForm } from '@/components/SpecForm';
 import { requireActor } from '@/lib/auth/guard.server';
@@ -23,8 +24,10 @@ export default async function SpecPage({ params, searchParams }: { params: Promi
       <div className="mb-1 flex flex-wrap items-center gap-3">
         <h1 className="mr-auto text-2xl font-semibold">{spec.name}</h1>
         <SpecDuplicateButton specId={spec.id} specName={spec.name} />
+        <SpecArchiveButton specId={spec.id} archived={spec.archived} />
       </div>
       <p className="mb-4 text-muted">
+        {spec.archived && <strong className="text-ink">Archived: not offered for new sessions. </strong>}
         Used by {spec.sessionCount} session{spec.sessionCount === 1 ? '' : 's'}. Changing a threshold judges their takes again from the stored measurements; no audio is read again.
       </p>
       {created && (

@@ -2,6 +2,7 @@ import type { Metadata } from 'next';
 import { SwrProvider } from '@/components/SwrProvider';
 import { TakeReview } from '@/components/review/TakeReview';
 import { requireActor } from '@/lib/auth/guard.server';
+import { env } from '@/lib/env.server';
 import { can } from '@/lib/auth/policy';
 import { loadPage } from '@/lib/http/pages.server';
 import { idParam } from '@/lib/http/route.server';
@@ -36,6 +37,8 @@ export default async function TakePage({ params }: { params: Promise<{ id: strin
         neighbours={neighbours}
         canDecide={can(actor.role, 'take:decide')}
         canComment={can(actor.role, 'take:comment')}
+        viewer={{ id: actor.id, role: actor.role }}
+        maxUploadBytes={env().UPLOAD_MAX_BYTES}
       />
     </SwrProvider>
   );
