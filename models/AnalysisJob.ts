@@ -2,12 +2,18 @@ import { DataTypes, Model, type CreationOptional, type InferAttributes, type Inf
 
 export const JOB_STATES = ['queued', 'running', 'done', 'failed'] as const;
 export type JobState = (typeof JOB_STATES)[number];
+/** `measure`: the whole measurement; `waveform`: only the waveform file of a measured take whose waveform could not be stored. */
+export const JOB_PURPOSES = ['measure', 'waveform'] as const;
+export type JobPurpose = (typeof JOB_PURPOSES)[number];
 
 /** A request to measure one take, claimed by a worker with SELECT … FOR UPDATE SKIP LOCKED. */
 export class AnalysisJob extends Model<InferAttributes<AnalysisJob>, InferCreationAttributes<AnalysisJob>> {
   declare id: CreationOptional<number>;
   declare takeId: number;
   declare state: CreationOptional<JobState>;
+  declare purpose: CreationOptional<JobPurpose>;
+  /** No worker claims the job before this time (a retry waiting out its backoff). */
+  declare runAfter: CreationOptional<Date | null>;
   declare attempts: CreationOptional<number>;
   declare workerId: string | null;
   declare heartbeatAt: Date | null;
@@ -22,6 +28,8 @@ export function initAnalysisJob(sequelize: Sequelize) {
       id: { type: DataTypes.BIGINT.UNSIGNED, autoIncrement: true, primaryKey: true },
       takeId: { type: DataTypes.INTEGER.UNSIGNED, allowNull: false },
       state: { type: DataTypes.ENUM(...JOB_STATES), allowNull: false, defaultValue: 'queued' },
+      purpose: { type: DataTypes.ENUM(...JOB_PURPOSES), allowNull: false, defaultValue: 'measure' },
+      runAfter: { type: DataTypes.DATE, allowNull: true },
       attempts: { type: DataTypes.INTEGER.UNSIGNED, allowNull: false, defaultValue: 0 },
       workerId: { type: DataTypes.STRING(120), allowNull: true },
       heartbeatAt: { type: DataTypes.DATE, allowNull: true },

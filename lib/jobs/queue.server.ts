@@ -1,29 +1,41 @@
 import 'server-only';
 import { QueryTypes } from 'sequelize';
 import { AnalysisJob, Take } from '@/models';
+import type { JobPurpose } from '@/models/AnalysisJob';
 import { db } from '@/lib/db/connection.server';
 
 /** A running job whose worker has not been heard from for this long is taken over by another worker. */
 export const STALE_AFTER_SEC = Number(process.env.JOB_STALE_AFTER_SEC ?? 30);
-/** A take that made a worker die this many times is given up on, with a message. */
+/** A take that made a worker die (or fail for a reason outside the file) this many times is given up on, with a message. */
 export const MAX_ATTEMPTS = 3;
+/** The first wait before a job that failed for a reason outside the file is tried again; it doubles each time. */
+const RETRY_BASE_SEC = Number(process.env.JOB_RETRY_BASE_SEC ?? 30);
+const RETRY_LONGEST_SEC = 15 * 60;
 
 export interface ClaimedJob {
   jobId: number;
   takeId: number;
   attempts: number;
+  purpose: JobPurpose;
+}
+
+/** Seconds to wait before try number `attempt + 1` of a job that failed `attempt` times. */
+export function retryDelaySec(attempt: number): number {
+  return Math.min(RETRY_LONGEST_SEC, RETRY_BASE_SEC * 2 ** Math.max(0, attempt - 1));
 }
 
 /**
- * Claims the oldest job that is queued, or running with a stale heartbeat, for `workerId`.
- * SKIP LOCKED lets any number of workers, on any machine, claim concurrently without waiting on each other.
+ * Claims the oldest job that is queued (and not waiting out a backoff), or running with a stale
+ * heartbeat, for `workerId`. SKIP LOCKED lets any number of workers, on any machine, claim
+ * concurrently without waiting on each other.
  */
 export async function claimJob(workerId: string): Promise<ClaimedJob | null> {
   const sequelize = db();
   return sequelize.transaction(async (transaction) => {
-    const rows = await sequelize.query<{ id: number; takeId: number; attempts: number }>(
-      `SELECT id, takeId, attempts FROM analysis_jobs
-        WHERE state = 'queued' OR (state = 'running' AND heartbeatAt < NOW() - INTERVAL :stale SECOND)
+    const rows = await sequelize.query<{ id: number; takeId: number; attempts: number; purpose: JobPurpose }>(
+      `SELECT id, takeId, attempts, purpose FROM analysis_jobs
+        WHERE (state = 'queued' AND (runAfter IS NULL OR runAfter <= NOW()))
+           OR (state = 'running' AND heartbeatAt < NOW() - INTERVAL :stale SECOND)
         ORDER BY id LIMIT 1 FOR UPDATE SKIP LOCKED`,
       { type: QueryTypes.SELECT, replacements: { stale: STALE_AFTER_SEC }, transaction },
     );
@@ -31,8 +43,9 @@ export async function claimJob(workerId: string): Promise<ClaimedJob | null> {
     if (!row) return null;
     const attempts = Number(row.attempts) + 1;
     await AnalysisJob.update({ state: 'running', workerId, heartbeatAt: sequelize.fn('NOW') as unknown as Date, attempts }, { where: { id: row.id }, transaction });
-    await Take.update({ status: 'measuring', progress: 0 }, { where: { id: row.takeId }, transaction });
-    return { jobId: Number(row.id), takeId: Number(row.takeId), attempts };
+    // A take whose waveform alone is written again stays measured and reviewable meanwhile.
+    if (row.purpose === 'measure') await Take.update({ status: 'measuring', progress: 0 }, { where: { id: row.takeId }, transaction });
+    return { jobId: Number(row.id), takeId: Number(row.takeId), attempts, purpose: row.purpose };
   });
 }
 
@@ -43,7 +56,7 @@ export async function heartbeat(job: ClaimedJob, workerId: string, progress: num
   const [changed] = await AnalysisJob.update({ heartbeatAt: sequelize.fn('NOW') as unknown as Date }, { where: mine });
   // MariaDB counts changed rows only: a beat within the same second changes nothing yet is still ours.
   if (changed === 0 && (await AnalysisJob.count({ where: mine })) === 0) return false;
-  await Take.update({ progress: Math.max(0, Math.min(100, progress)) }, { where: { id: job.takeId } });
+  if (job.purpose === 'measure') await Take.update({ progress: Math.max(0, Math.min(100, progress)) }, { where: { id: job.takeId } });
   return true;
 }
 
@@ -57,5 +70,12 @@ export async function requeueJob(job: ClaimedJob, lastError: string | null, undo
     { state: 'queued', workerId: null, heartbeatAt: null, lastError, ...(undoAttempt ? { attempts: Math.max(0, job.attempts - 1) } : {}) },
     { where: { id: job.jobId } },
   );
-  if (undoAttempt) await Take.update({ status: 'queued', progress: 0 }, { where: { id: job.takeId } });
+  if (undoAttempt && job.purpose === 'measure') await Take.update({ status: 'queued', progress: 0 }, { where: { id: job.takeId } });
+}
+
+/** Puts a job back in the queue, to be claimed again only after its backoff (see retryDelaySec). */
+export async function retryJobLater(job: ClaimedJob, lastError: string, purpose: JobPurpose = job.purpose): Promise<void> {
+  // The database's clock, which every worker's claim compares against.
+  const runAfter = db().literal(`NOW() + INTERVAL ${Math.round(retryDelaySec(job.attempts))} SECOND`) as unknown as Date;
+  await AnalysisJob.update({ state: 'queued', purpose, runAfter, workerId: null, heartbeatAt: null, lastError }, { where: { id: job.jobId } });
 }

@@ -2,9 +2,10 @@ import { spawn, type ChildProcess } from 'node:child_process';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { signedIn, type Client } from '../support/http';
 import { makeWav, newSession, uploadTakes, waitForTake } from '../support/takes';
+import { workerPid } from '../support/testServices';
 
 // The test server's own worker; paused while a second worker takes the job, so the second one gets it.
-const backgroundWorker = Number(process.env.TAKEPROOF_WORKER_PID);
+const backgroundWorker = workerPid();
 let engineer: Client;
 let doomed: ChildProcess | null = null;
 
