@@ -6,15 +6,10 @@ import { type ApiError, fetchJson, swrFetcher } from '@/lib/http/fetcher';
 import { FormField } from './FormField';
 import { FormMessage } from '@/components/FormMessage';
 import { useApiForm } from './useApiForm';
-import type { DeliveryView } from '@/lib/mail/views';
+import { DELIVERY_STATUS, type DeliveryView } from '@/lib/mail/views';
 import { formatDateTime } from '@/lib/format';
 
-const STATUS = {
-  sent: { mark: '✓', word: 'Sent', tone: 'text-pass' },
-  failed: { mark: '✕', word: 'Not sent', tone: 'text-fail' },
-  sending: { mark: '○', word: 'Sending', tone: 'text-muted' },
-  queued: { mark: '◷', word: 'Queued', tone: 'text-muted' },
-} as const;
+const STATUS = DELIVERY_STATUS;
 
 const waiting = (d: DeliveryView) => d.status === 'queued' || d.status === 'sending';
 
@@ -39,7 +34,7 @@ function DeliveryLine({ delivery, onRetry, busy }: { delivery: DeliveryView; onR
         {delivery.sentBy && <span className="text-xs text-muted">by {delivery.sentBy}</span>}
       </div>
       {delivery.status === 'queued' && delivery.error && (
-        <p className="mt-1 text-sm text-muted">Not sent yet ({delivery.error}) Takeproof tries again by itself.</p>
+        <p className="mt-1 text-sm text-muted">Not sent yet: {delivery.error} Takeproof tries again by itself.</p>
       )}
       {delivery.status === 'failed' && (
         <div className="mt-1 flex flex-wrap items-center gap-3">
@@ -63,6 +58,8 @@ export function SessionReportPanel({ sessionId, maySend }: { sessionId: number; 
   const { fields, error, setError, busy, run } = useApiForm();
   const [result, setResult] = useState<DeliveryView | null>(null);
   const [retrying, setRetrying] = useState<number | null>(null);
+  // The line under the form follows the outbox: queued, then sent (or not sent).
+  const shown = result ? (data?.deliveries.find((d) => d.id === result.id) ?? result) : null;
 
   async function onSubmit(event: React.FormEvent<HTMLFormElement>) {
     event.preventDefault();
@@ -142,14 +139,14 @@ export function SessionReportPanel({ sessionId, maySend }: { sessionId: number; 
           </div>
         </form>
       )}
-      {result && (
-        <p role="status" data-testid="report-result" className={`mt-3 text-sm font-semibold ${STATUS[result.status].tone}`}>
-          <span aria-hidden="true">{STATUS[result.status].mark} </span>
-          {result.status === 'sent'
-            ? `Report sent to ${result.recipients.join(', ')}.`
-            : waiting(result)
-              ? `The report to ${result.recipients.join(', ')} is in the outbox and goes out in a moment.`
-              : `The report was not sent: ${result.error}`}
+      {shown && (
+        <p role="status" data-testid="report-result" className={`mt-3 text-sm font-semibold ${STATUS[shown.status].tone}`}>
+          <span aria-hidden="true">{STATUS[shown.status].mark} </span>
+          {shown.status === 'sent'
+            ? `Report sent to ${shown.recipients.join(', ')}.`
+            : waiting(shown)
+              ? `The report to ${shown.recipients.join(', ')} is in the outbox and goes out in a moment.`
+              : `The report was not sent: ${shown.error}`}
         </p>
       )}
       {maySend && deliveries.length > 0 && (

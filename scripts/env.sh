@@ -41,3 +41,6 @@ wait_for_http() {
 # An array rather than a function, so `"${RUN_TS[@]}" x.ts &` leaves $! as node's own pid.
 RUN_TS=(node --conditions=react-server --import tsx)
 run_ts() { "${RUN_TS[@]}" "$@"; }
+
+# The worker, compiled to JavaScript by scripts/build-engine.mjs (var/build/), so it starts without transpiling.
+WORKER=(node --conditions=react-server var/build/worker.mjs)

@@ -43,8 +43,9 @@ fi
 # Each process is kept running by its own supervisor: a crashed worker or mail catcher is started
 # again (with a log line) while the web server keeps serving.
 export SUPERVISE_DIR=var/run
+node scripts/build-engine.mjs --if-stale
 supervise mail-catcher - "${RUN_TS[@]}" scripts/mail-catcher.ts
-supervise worker - "${RUN_TS[@]}" scripts/worker.ts
+supervise worker - "${WORKER[@]}"
 supervise web - node node_modules/next/dist/bin/next start -H "$HOST" -p "$PORT"
 
 if wait_for_http "http://$HOST:$PORT/signin" 60; then

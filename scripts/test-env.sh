@@ -55,7 +55,8 @@ test_env_up() {
   # Supervised as under `npm start`; tests find the current worker's pid in $TAKEPROOF_WORKER_PID_FILE.
   export SUPERVISE_DIR="$TEST_DIR/run" TAKEPROOF_WORKER_PID_FILE="$TEST_DIR/run/worker.pid"
   supervise mail-catcher "$TEST_DIR/mail.log" "${RUN_TS[@]}" scripts/mail-catcher.ts
-  supervise worker "$TEST_DIR/worker.log" "${RUN_TS[@]}" scripts/worker.ts
+  node scripts/build-engine.mjs || return 1
+  supervise worker "$TEST_DIR/worker.log" "${WORKER[@]}"
   node node_modules/next/dist/bin/next start -H "$HOST" -p "$PORT" > "$TEST_DIR/server.log" 2>&1 & PIDS+=($!); export TAKEPROOF_SERVER_PID=$!
   wait_for_http "$TAKEPROOF_TEST_URL/signin" 60 || { tail -40 "$TEST_DIR/server.log"; echo "The test server did not start" >&2; return 1; }
 }

@@ -1,5 +1,6 @@
-// The analysis worker: claims measurement jobs from MariaDB and runs the dsp pipeline on them.
-// Any number may run, on this machine or others that reach the same database and storage.
+// The worker: claims measurement jobs from MariaDB and runs the dsp pipeline on them, and sends
+// the report e-mails waiting in the outbox. Any number may run, on this machine or others that
+// reach the same database, storage and mail server.
 // It rides out a database outage: it waits with backoff, hands its job back, and goes on.
 import os from 'node:os';
 import { randomBytes } from 'node:crypto';
@@ -8,6 +9,7 @@ import { databaseBackoffMs, isDatabaseDown, untilDatabaseAnswers } from '@/lib/d
 import { claimJob, requeueJob, type ClaimedJob } from '@/lib/jobs/queue.server';
 import { measureTake } from '@/lib/jobs/measure.server';
 import { writeMissingWaveform } from '@/lib/jobs/waveform.server';
+import { sendNextQueuedMail } from '@/lib/mail/queue.server';
 
 const workerId = `${os.hostname()}:${process.pid}:${randomBytes(3).toString('hex')}`;
 const IDLE_POLL_MS = Number(process.env.WORKER_POLL_MS ?? 1000);
@@ -37,7 +39,24 @@ async function runJob(job: ClaimedJob) {
   console.log(`Take ${job.takeId} (${job.purpose}): ${outcome} in ${((Date.now() - started) / 1000).toFixed(1)} s`);
 }
 
-console.log(`Analysis worker ${workerId} is waiting for takes.`);
+/** Sends queued report e-mails beside the measurements, so a long take never holds up the mail. */
+async function keepSendingMail() {
+  let failures = 0;
+  while (!stopping) {
+    try {
+      const sent = await sendNextQueuedMail();
+      failures = 0;
+      if (!sent) await sleep(IDLE_POLL_MS);
+    } catch (error) {
+      failures++;
+      console.error(`Outbox error: ${(error as Error).message}`);
+      await sleep(databaseBackoffMs(failures));
+    }
+  }
+}
+void keepSendingMail();
+
+console.log(`Worker ${workerId} is waiting for takes and e-mail.`);
 let failures = 0;
 while (!stopping) {
   try {

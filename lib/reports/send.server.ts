@@ -1,7 +1,7 @@
 import 'server-only';
 import { audit } from '@/lib/audit/record.server';
 import { db } from '@/lib/db/connection.server';
-import { attemptDelivery, createDelivery, listDeliveries } from '@/lib/mail/deliveries.server';
+import { createDelivery, getDelivery, listDeliveries } from '@/lib/mail/deliveries.server';
 import { findSession } from '@/lib/sessions/service.server';
 import type { OutgoingMail } from '@/lib/mail/transport.server';
 import type { SendReportInput } from './schema';
@@ -39,7 +39,10 @@ export async function listSessionReports(actor: Actor, sessionId: number): Promi
   return listDeliveries(actor, { type: 'session', id: sessionId });
 }
 
-/** Records, audits and sends a session report; the delivery tells whether the mail server took it. */
+/**
+ * Records and audits a session report and puts it in the outbox (MariaDB), from which a worker sends
+ * it; the delivery's status says where it stands (queued, sending, sent, failed).
+ */
 export async function sendSessionReport(actor: Actor, sessionId: number, input: SendReportInput): Promise<DeliveryView> {
   const data = await loadReport(actor, sessionId);
   const delivery = await db().transaction(async (transaction) => {
@@ -51,5 +54,5 @@ export async function sendSessionReport(actor: Actor, sessionId: number, input: 
     await audit(actor, 'session.report_send', { type: 'session', id: sessionId }, { deliveryId: d.id, recipients: input.to }, transaction);
     return d;
   });
-  return attemptDelivery(delivery, await composeReportMail(data, input.to, input.message, actor.name));
+  return getDelivery(actor.studioId, delivery.id);
 }

@@ -1,8 +1,8 @@
-import { spawn, type ChildProcess } from 'node:child_process';
+import type { ChildProcess } from 'node:child_process';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { signedIn, type Client } from '../support/http';
 import { makeWav, newSession, uploadTakes, waitForTake } from '../support/takes';
-import { workerPid } from '../support/testServices';
+import { spawnWorker, workerPid } from '../support/testServices';
 
 // The test server's own worker; paused while a second worker takes the job, so the second one gets it.
 const backgroundWorker = workerPid();
@@ -28,7 +28,7 @@ describe('analysis worker recovery', () => {
       expect(status).toBe(201);
       const takeId = body.takes[0].id;
 
-      doomed = spawn(process.execPath, ['--conditions=react-server', '--import', 'tsx', 'scripts/worker.ts'], { env: process.env, stdio: 'ignore' });
+      doomed = spawnWorker();
       let seen: { status: string } = { status: 'queued' };
       const until = Date.now() + 60_000;
       while (seen.status !== 'measuring' && Date.now() < until) {

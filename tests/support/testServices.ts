@@ -54,6 +54,11 @@ export async function waitUntil(what: string, check: () => boolean | Promise<boo
   }
 }
 
+/** Starts another worker (compiled by the test setup, as `npm start` runs it), with some settings changed. */
+export function spawnWorker(env: Record<string, string> = {}, stdio: 'ignore' | 'pipe' = 'ignore'): ChildProcess {
+  return spawn(process.execPath, ['--conditions=react-server', 'var/build/worker.mjs'], { env: { ...process.env, ...env }, stdio: ['ignore', stdio, stdio] });
+}
+
 /** A second web server from the same build, on its own port, with some settings changed. */
 export async function startExtraServer(port: number, env: Record<string, string>): Promise<{ url: string; child: ChildProcess }> {
   const url = `http://127.0.0.1:${port}`;

@@ -1,10 +1,10 @@
-import { spawn, execFileSync, type ChildProcess } from 'node:child_process';
-import { mkdirSync, openSync, readdirSync, rmSync, unlinkSync, writeSync, closeSync, createWriteStream } from 'node:fs';
+import { execFileSync, type ChildProcess } from 'node:child_process';
+import { closeSync, createWriteStream, mkdirSync, openSync, readdirSync, rmSync, unlinkSync, writeFileSync, writeSync } from 'node:fs';
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { Client, DEMO } from '../../support/http';
 import { makeWav, waitForTake } from '../../support/takes';
-import { startExtraServer, waitUntil, workerPid } from '../../support/testServices';
+import { spawnWorker, startExtraServer, waitUntil, workerPid } from '../../support/testServices';
 
 // A real full disk: a 2 MiB tmpfs as the storage of a second web server and a second worker from
 // the same build. The test server's own worker is paused meanwhile, so only the second worker
@@ -39,7 +39,7 @@ afterAll(() => {
 
 function startWorker() {
   const log = createWriteStream(path.join(testDir, 'waveform-drill-worker.log'));
-  worker = spawn(process.execPath, ['--conditions=react-server', '--import', 'tsx', 'scripts/worker.ts'], { env: { ...process.env, STORAGE_DIR: smallDisk }, stdio: ['ignore', 'pipe', 'pipe'] });
+  worker = spawnWorker({ STORAGE_DIR: smallDisk }, 'pipe');
   worker.stdout!.pipe(log);
   worker.stderr!.pipe(log);
 }
@@ -97,9 +97,12 @@ describe('fault drill: storage is full when the waveform file is written', () =>
     expect(lost.status).toBe('unreadable');
     expect(lost.error).toMatch(/fault on its own side, not in the file/);
     expect(lost.error).not.toMatch(/ENOENT|no such file|UPDATE|SELECT|\//);
-    const csv = await (await client.fetch(`/api/sessions/${sessionId}/report.csv`)).text();
-    expect(csv).toMatch(/fault on its own side/);
-    expect(csv).not.toMatch(/ENOENT|no such file/);
+    // The session report (PDF, as e-mailed) says the same plain words.
+    const pdf = Buffer.from(await (await client.fetch(`/api/sessions/${sessionId}/report.pdf`)).arrayBuffer());
+    writeFileSync(path.join(testDir, 'waveform-drill-report.pdf'), pdf);
+    const text = execFileSync('pdftotext', ['-layout', path.join(testDir, 'waveform-drill-report.pdf'), '-'], { encoding: 'utf8' }).replace(/\s+/g, ' ');
+    expect(text).toMatch(/Takeproof could not/);
+    expect(text).not.toMatch(/ENOENT|no such file|UPDATE/);
 
     rmSync(filler);
     await waitUntil('the waveform has been stored', async () => (await (await client.fetch(`/api/takes/${goodId}`)).json()).hasPeaks === true, 120_000);
