@@ -1,0 +1,22 @@
+#!/usr/bin/env bash
+# `npm run bench:scale`: one MariaDB, storage, and 1, 2 and 4 workers in turn on the same generated
+# batch of takes; prints throughput, queue wait and each worker's peak RSS and CPU time.
+# Runs on its own slot (TEST_SLOT, default 8): its own database port and folder under var/.
+set -uo pipefail
+cd "$(dirname "$0")/.."
+source scripts/env.sh
+source scripts/db.sh
+source scripts/supervise.sh
+source scripts/test-env.sh
+export TEST_SLOT="${TEST_SLOT:-8}"
+test_env_configure || exit 2
+export STORAGE_DIR="$TEST_DIR/scale-storage" UPLOAD_MAX_BYTES=4294967296 WORKER_POLL_MS=100
+trap 'db_stop' EXIT
+trap 'exit 130' INT TERM
+rm -rf "$TEST_DIR" && mkdir -p "$TEST_DIR"
+ensure_node_modules || exit 1
+db_start || exit 1
+run_ts scripts/migrate.ts || exit 1
+run_ts scripts/seed.ts >/dev/null || exit 1
+node scripts/build-engine.mjs || exit 1
+run_ts scripts/bench-scale.ts "$@"
