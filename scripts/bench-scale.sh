@@ -1,7 +1,7 @@
 #!/usr/bin/env bash
 # `npm run bench:scale`: one MariaDB, storage, and 1, 2 and 4 workers in turn on the same generated
 # batch of takes; prints throughput, queue wait and each worker's peak RSS and CPU time.
-# Runs on its own slot (TEST_SLOT, default 8): its own database port and folder under var/.
+# Runs on its own database port (3347 + TEST_SLOT, default slot 8) and folder var/bench-scale-N.
 set -uo pipefail
 cd "$(dirname "$0")/.."
 source scripts/env.sh
@@ -10,7 +10,8 @@ source scripts/supervise.sh
 source scripts/test-env.sh
 export TEST_SLOT="${TEST_SLOT:-8}"
 test_env_configure || exit 2
-export STORAGE_DIR="$TEST_DIR/scale-storage" UPLOAD_MAX_BYTES=4294967296 WORKER_POLL_MS=100
+TEST_DIR="var/bench-scale-$TEST_SLOT"
+export DB_PORT=$((3347 + TEST_SLOT)) DB_DATA_DIR="$TEST_DIR/mariadb" STORAGE_DIR="$TEST_DIR/storage" UPLOAD_MAX_BYTES=4294967296 WORKER_POLL_MS=100
 trap 'db_stop' EXIT
 trap 'exit 130' INT TERM
 rm -rf "$TEST_DIR" && mkdir -p "$TEST_DIR"

@@ -100,6 +100,7 @@ async function run(actor: Actor, files: string[], workers: number) {
 async function main() {
   const countsArg = process.argv.indexOf('--workers');
   const counts = countsArg >= 0 ? process.argv[countsArg + 1].split(',').map(Number) : [1, 2, 4];
+  db();
   const files = await batchFiles();
   const user = await User.findOne({ where: { email: 'engineer@demo.test' } });
   if (!user) throw new Error('The demo engineer is missing; run the seed first.');

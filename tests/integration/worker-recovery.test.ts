@@ -20,11 +20,13 @@ afterAll(() => {
 
 describe('analysis worker recovery', () => {
   it.runIf(backgroundWorker > 0)('finishes a take on another worker after the first one is killed mid-measurement', async () => {
+    // Generated before the requests: an idle keep-alive connection is closed by the server after 5 s.
+    const bytes = makeWav({ seconds: 240, seed: 81, amplitude: 0.02 });
     const sessionId = await newSession(engineer, 'Worker recovery drill');
     process.kill(backgroundWorker, 'SIGSTOP');
     try {
       // Long enough (4 min of stereo 24-bit) that the measurement is still running when the worker dies.
-      const { status, body } = await uploadTakes(engineer, sessionId, [{ name: 'long-room-tone.wav', bytes: makeWav({ seconds: 240, seed: 81, amplitude: 0.02 }) }]);
+      const { status, body } = await uploadTakes(engineer, sessionId, [{ name: 'long-room-tone.wav', bytes }]);
       expect(status).toBe(201);
       const takeId = body.takes[0].id;
 

@@ -14,13 +14,15 @@ afterAll(async () => {
 
 describe('fault drill: MariaDB stops for 20 s while a long take is measured', () => {
   it('keeps the worker and the web server alive, answers 503 meanwhile, and ends the take measured', async () => {
+    // Five minutes of stereo 24-bit: long enough that the measurement runs into the outage. Generated
+    // before the requests: an idle keep-alive connection is closed by the server after 5 s.
+    const seconds = 300;
+    const bytes = makeWav({ seconds, seed: 4242, amplitude: 0.05 });
     const engineer = await signedIn('engineer');
     const sessionId = await newSession(engineer, 'Database outage while measuring');
     const worker = workerPid();
     expect(isRunning(worker)).toBe(true);
-    // Five minutes of stereo 24-bit: long enough that the measurement runs into the outage.
-    const seconds = 300;
-    const { status, body } = await uploadTakes(engineer, sessionId, [{ name: 'long-interview.wav', bytes: makeWav({ seconds, seed: 4242, amplitude: 0.05 }) }]);
+    const { status, body } = await uploadTakes(engineer, sessionId, [{ name: 'long-interview.wav', bytes }]);
     expect(status).toBe(201);
     const takeId: number = body.takes[0].id;
     await waitUntil('the take is being measured', async () => {

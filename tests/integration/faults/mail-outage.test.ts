@@ -17,12 +17,13 @@ const pausedWorker = workerPid();
 const children: ChildProcess[] = [];
 let producer: Client;
 let manager: Client;
+let engineer: Client;
 
 const startMailCatcher = () => children.push(spawn(process.execPath, ['--conditions=react-server', '--import', 'tsx', 'scripts/mail-catcher.ts'], { env: { ...process.env, ...settings }, stdio: 'ignore' }));
 
 beforeAll(async () => {
   mkdirSync(caughtDir, { recursive: true });
-  [producer, manager] = await Promise.all([signedIn('producer'), signedIn('manager')]);
+  [producer, manager, engineer] = await Promise.all([signedIn('producer'), signedIn('manager'), signedIn('engineer')]);
   if (pausedWorker) process.kill(pausedWorker, 'SIGSTOP');
   children.push(spawnWorker(settings));
 });
@@ -39,7 +40,7 @@ async function outgoing(id: number) {
 
 describe('fault drill: the mail server is down when a report is sent', () => {
   it('keeps the report queued in the outbox, tries again, and delivers it once the mail server is back', async () => {
-    const sessionId = await newSession(producer, 'Mail outage drill');
+    const sessionId = await newSession(engineer, 'Mail outage drill');
     const to = uniqueAddress('outage');
     const response = await producer.fetch(`/api/sessions/${sessionId}/report`, { method: 'POST', json: { to: [to] }, headers: { origin: BASE_URL } });
     expect(response.status).toBe(202);

@@ -7,12 +7,14 @@ import { isRunning, waitUntil, workerPid } from '../../support/testServices';
 
 describe('fault drill: the analysis worker is killed mid-measurement', () => {
   it('keeps the web server serving, starts a new worker with a log line, and the new worker finishes the take', async () => {
+    // Generated before the requests: an idle keep-alive connection is closed by the server after 5 s.
+    const seconds = 240;
+    const bytes = makeWav({ seconds, seed: 5151, amplitude: 0.05 });
     const engineer = await signedIn('engineer');
     const sessionId = await newSession(engineer, 'Worker crash drill');
     const first = workerPid();
     expect(isRunning(first)).toBe(true);
-    const seconds = 240;
-    const { status, body } = await uploadTakes(engineer, sessionId, [{ name: 'crash-drill.wav', bytes: makeWav({ seconds, seed: 5151, amplitude: 0.05 }) }]);
+    const { status, body } = await uploadTakes(engineer, sessionId, [{ name: 'crash-drill.wav', bytes }]);
     expect(status).toBe(201);
     const takeId: number = body.takes[0].id;
     await waitUntil('the take is being measured', async () => (await (await engineer.fetch(`/api/takes/${takeId}`)).json()).status === 'measuring');
