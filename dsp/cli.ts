@@ -7,7 +7,7 @@ import { analyzeFile } from './pipeline';
 import { DEFAULT_SPEC, deliverySpecSchema, type DeliverySpec } from './spec';
 import type { AnalysisReport } from './types';
 
-const USAGE = `Usage: npm run -s analyze -- <file.wav> [more.wav …] [--json] [--spec <spec.json>]\n  Several files are analysed at once on every core; --json then prints one report per line, in the order named.\n${CONVERTER_USAGE}`;
+const USAGE = `Usage: npm run -s analyze -- <file.wav> [more.wav …] [--json] [--spec <spec.json>]\n  Several files are analysed together on every core; with --json, one report per line in the order named.\n${CONVERTER_USAGE}`;
 /** Exit code for a file or spec the tool refuses (the user's input, not a crash). */
 const EXIT_REFUSED = 2;
 
