@@ -47,6 +47,8 @@ export async function createDelivery(
       recipients: fields.recipients,
       subject: fields.title,
       payload: fields.payload,
+      // A report waits in the outbox for a worker; an invitation is sent at once by the request itself.
+      status: fields.kind === 'session_report' ? 'queued' : 'sending',
       messageId: null,
       error: null,
       sentAt: null,
