@@ -6,14 +6,12 @@ import { type ApiError, fetchJson, swrFetcher } from '@/lib/http/fetcher';
 import { FormField } from './FormField';
 import { FormMessage } from '@/components/FormMessage';
 import { useApiForm } from './useApiForm';
-import type { DeliveryView } from '@/lib/mail/views';
+import { DELIVERY_STATUS, type DeliveryView } from '@/lib/mail/views';
 import { formatDateTime } from '@/lib/format';
 
-const STATUS = {
-  sent: { mark: '✓', word: 'Sent', tone: 'text-pass' },
-  failed: { mark: '✕', word: 'Not sent', tone: 'text-fail' },
-  sending: { mark: '○', word: 'Sending', tone: 'text-muted' },
-} as const;
+const STATUS = DELIVERY_STATUS;
+
+const waiting = (d: DeliveryView) => d.status === 'queued' || d.status === 'sending';
 
 function splitAddresses(text: string): string[] {
   return text
@@ -35,6 +33,9 @@ function DeliveryLine({ delivery, onRetry, busy }: { delivery: DeliveryView; onR
         <span className="font-mono text-xs text-muted">{formatDateTime(delivery.sentAt ?? delivery.createdAt)}</span>
         {delivery.sentBy && <span className="text-xs text-muted">by {delivery.sentBy}</span>}
       </div>
+      {delivery.status === 'queued' && delivery.error && (
+        <p className="mt-1 text-sm text-muted">Not sent yet: {delivery.error} Takeproof tries again by itself.</p>
+      )}
       {delivery.status === 'failed' && (
         <div className="mt-1 flex flex-wrap items-center gap-3">
           <p className="text-sm text-fail">{delivery.error}</p>
@@ -51,11 +52,14 @@ function DeliveryLine({ delivery, onRetry, busy }: { delivery: DeliveryView; onR
 export function SessionReportPanel({ sessionId, maySend }: { sessionId: number; maySend: boolean }) {
   const formId = useId();
   const key = maySend ? `/api/sessions/${sessionId}/report` : null;
-  const { data, mutate } = useSWR<{ deliveries: DeliveryView[] }, ApiError>(key, swrFetcher);
+  // While a report waits in the outbox, its line is refreshed until the mail server has taken it.
+  const { data, mutate } = useSWR<{ deliveries: DeliveryView[] }, ApiError>(key, swrFetcher, { refreshInterval: (latest) => (latest?.deliveries.some(waiting) ? 2000 : 0) });
   const [open, setOpen] = useState(false);
   const { fields, error, setError, busy, run } = useApiForm();
   const [result, setResult] = useState<DeliveryView | null>(null);
   const [retrying, setRetrying] = useState<number | null>(null);
+  // The line under the form follows the outbox: queued, then sent (or not sent).
+  const shown = result ? (data?.deliveries.find((d) => d.id === result.id) ?? result) : null;
 
   async function onSubmit(event: React.FormEvent<HTMLFormElement>) {
     event.preventDefault();
@@ -66,7 +70,7 @@ export function SessionReportPanel({ sessionId, maySend }: { sessionId: number; 
     await run(async () => {
       const { delivery } = await fetchJson<{ delivery: DeliveryView }>(`/api/sessions/${sessionId}/report`, { method: 'POST', json: payload });
       setResult(delivery);
-      if (delivery.status === 'sent') formElement.reset();
+      if (delivery.status !== 'failed') formElement.reset();
       await mutate();
     });
   }
@@ -135,10 +139,14 @@ export function SessionReportPanel({ sessionId, maySend }: { sessionId: number; 
           </div>
         </form>
       )}
-      {result && (
-        <p role="status" data-testid="report-result" className={`mt-3 text-sm font-semibold ${STATUS[result.status].tone}`}>
-          <span aria-hidden="true">{STATUS[result.status].mark} </span>
-          {result.status === 'sent' ? `Report sent to ${result.recipients.join(', ')}.` : `The report was not sent: ${result.error}`}
+      {shown && (
+        <p role="status" data-testid="report-result" className={`mt-3 text-sm font-semibold ${STATUS[shown.status].tone}`}>
+          <span aria-hidden="true">{STATUS[shown.status].mark} </span>
+          {shown.status === 'sent'
+            ? `Report sent to ${shown.recipients.join(', ')}.`
+            : waiting(shown)
+              ? `The report to ${shown.recipients.join(', ')} is in the outbox and goes out in a moment.`
+              : `The report was not sent: ${shown.error}`}
         </p>
       )}
       {maySend && deliveries.length > 0 && (

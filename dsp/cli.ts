@@ -1,25 +1,26 @@
 import { readFile } from 'node:fs/promises';
 import { CONVERTER_USAGE, runConverterCommand } from './converter/command';
 import { reasonOf, verdictOf } from './findings';
+import { refusal } from './batch/refusal';
+import { runBatch } from './batch/runBatch';
 import { analyzeFile } from './pipeline';
-import { UnreadableWavError } from './reader/UnreadableWavError';
 import { DEFAULT_SPEC, deliverySpecSchema, type DeliverySpec } from './spec';
 import type { AnalysisReport } from './types';
 
-const USAGE = `Usage: npm run -s analyze -- <file.wav> [--json] [--spec <spec.json>]\n${CONVERTER_USAGE}`;
+const USAGE = `Usage: npm run -s analyze -- <file.wav> [more.wav …] [--json] [--spec <spec.json>]\n  Several files are analysed together on every core; with --json, one report per line in the order named.\n${CONVERTER_USAGE}`;
 /** Exit code for a file or spec the tool refuses (the user's input, not a crash). */
 const EXIT_REFUSED = 2;
 
 class UsageError extends Error {}
 
 interface CliArguments {
-  file: string;
+  files: string[];
   json: boolean;
   specPath: string | null;
 }
 
 function parseArguments(argv: string[]): CliArguments {
-  let file: string | null = null;
+  const files: string[] = [];
   let json = false;
   let specPath: string | null = null;
   for (let i = 0; i < argv.length; i++) {
@@ -29,11 +30,10 @@ function parseArguments(argv: string[]): CliArguments {
       specPath = argv[++i] ?? null;
       if (!specPath) throw new UsageError('--spec needs a file name.');
     } else if (argument.startsWith('--')) throw new UsageError(`Unknown option ${argument}.`);
-    else if (file === null) file = argument;
-    else throw new UsageError(`Only one file at a time (got ${file} and ${argument}).`);
+    else files.push(argument);
   }
-  if (!file) throw new UsageError('Name a WAV file to analyse.');
-  return { file, json, specPath };
+  if (!files.length) throw new UsageError('Name a WAV file to analyse.');
+  return { files, json, specPath };
 }
 
 async function loadSpec(specPath: string | null): Promise<DeliverySpec> {
@@ -91,22 +91,33 @@ async function main(): Promise<number> {
     }
     throw error;
   }
+  const [file] = args.files;
+  if (args.files.length > 1) return batch(args.files, args.json, spec);
   try {
-    const report = await analyzeFile(args.file, { spec });
-    process.stdout.write(args.json ? `${JSON.stringify(report)}\n` : `${summary(report, args.file, spec)}\n`);
+    const report = await analyzeFile(file, { spec });
+    process.stdout.write(args.json ? `${JSON.stringify(report)}\n` : `${summary(report, file, spec)}\n`);
     return 0;
   } catch (error) {
-    if (error instanceof UnreadableWavError) {
-      process.stderr.write(`Cannot analyse ${args.file}: ${error.message}\n`);
-      return EXIT_REFUSED;
-    }
-    const code = (error as NodeJS.ErrnoException).code;
-    if (code === 'ENOENT' || code === 'EACCES' || code === 'EISDIR') {
-      process.stderr.write(`Cannot open ${args.file} (${code === 'ENOENT' ? 'no such file' : code === 'EISDIR' ? 'it is a directory' : 'permission denied'}).\n`);
-      return EXIT_REFUSED;
-    }
-    throw error;
+    const refused = refusal(error, file);
+    if (refused === null) throw error;
+    process.stderr.write(`${refused}\n`);
+    return EXIT_REFUSED;
   }
+}
+
+/** Several files on every core. A refused file gets a JSON line `{"file", "refused"}` (and its message on stderr), the exit code 2. */
+async function batch(files: string[], json: boolean, spec: DeliverySpec): Promise<number> {
+  let exit = 0;
+  await runBatch(files, spec, (file, result) => {
+    if ('refused' in result) {
+      exit = EXIT_REFUSED;
+      process.stderr.write(`${result.refused}\n`);
+      if (json) process.stdout.write(`${JSON.stringify({ file, refused: result.refused })}\n`);
+    } else {
+      process.stdout.write(json ? `${JSON.stringify(result.report)}\n` : `${summary(result.report, file, spec)}\n`);
+    }
+  });
+  return exit;
 }
 
 main().then(

@@ -2,7 +2,7 @@ import { DataTypes, Model, type CreationOptional, type InferAttributes, type Inf
 
 export const MAIL_KINDS = ['session_report', 'invitation'] as const;
 export type MailKind = (typeof MAIL_KINDS)[number];
-export const MAIL_STATUSES = ['sending', 'sent', 'failed'] as const;
+export const MAIL_STATUSES = ['queued', 'sending', 'sent', 'failed'] as const;
 export type MailStatus = (typeof MAIL_STATUSES)[number];
 
 /** One attempt history of one outgoing e-mail: who sent what to whom, and how it went. */
@@ -23,6 +23,8 @@ export class MailDelivery extends Model<InferAttributes<MailDelivery>, InferCrea
   declare error: string | null;
   declare attempts: CreationOptional<number>;
   declare sentAt: Date | null;
+  /** When a worker next tries to send a queued e-mail (null: at once). */
+  declare nextAttemptAt: CreationOptional<Date | null>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 }
@@ -39,11 +41,12 @@ export function initMailDelivery(sequelize: Sequelize) {
       recipients: { type: DataTypes.JSON, allowNull: false },
       subject: { type: DataTypes.STRING(255), allowNull: false },
       payload: { type: DataTypes.JSON, allowNull: true },
-      status: { type: DataTypes.ENUM(...MAIL_STATUSES), allowNull: false, defaultValue: 'sending' },
+      status: { type: DataTypes.ENUM(...MAIL_STATUSES), allowNull: false, defaultValue: 'queued' },
       messageId: { type: DataTypes.STRING(255), allowNull: true },
       error: { type: DataTypes.TEXT, allowNull: true },
       attempts: { type: DataTypes.INTEGER.UNSIGNED, allowNull: false, defaultValue: 0 },
       sentAt: { type: DataTypes.DATE, allowNull: true },
+      nextAttemptAt: { type: DataTypes.DATE, allowNull: true },
       createdAt: DataTypes.DATE,
       updatedAt: DataTypes.DATE,
     },

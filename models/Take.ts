@@ -29,6 +29,8 @@ export class Take extends Model<InferAttributes<Take>, InferCreationAttributes<T
   declare error: string | null;
   declare report: AnalysisReport | null;
   declare peaksKey: string | null;
+  /** Measured, but the waveform file could not be stored (a storage fault); a worker writes it later. */
+  declare waveformMissing: CreationOptional<boolean>;
   // Summary columns, copied out of the report so lists and fleet statistics run in SQL.
   declare effectiveBits: number | null;
   declare truePeakDbtp: number | null;
@@ -73,6 +75,7 @@ export function initTake(sequelize: Sequelize) {
       error: { type: DataTypes.TEXT, allowNull: true },
       report: { type: DataTypes.JSON, allowNull: true },
       peaksKey: { type: DataTypes.STRING(200), allowNull: true },
+      waveformMissing: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
       effectiveBits: { type: DataTypes.TINYINT.UNSIGNED, allowNull: true },
       truePeakDbtp: { type: DataTypes.FLOAT, allowNull: true },
       integratedLufs: { type: DataTypes.FLOAT, allowNull: true },

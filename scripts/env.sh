@@ -47,10 +47,11 @@ wait_for_port() {
 }
 
 # The local S3 stand-in (scripts/s3-fake.ts) on S3_ENDPOINT's port, in the background; its pid is appended to PIDS.
+# The local S3 stand-in, supervised like the other processes (scripts/supervise.sh); $1 its log file, "-" the terminal.
 start_s3_fake() {
-  local port="${S3_ENDPOINT##*:}"; port="${port%%/*}"
+  local log="${1:--}" port="${S3_ENDPOINT##*:}"; port="${port%%/*}"
   port_free "$port" || { echo "Port $port (S3_ENDPOINT) is already in use; stop the other service or change S3_ENDPOINT." >&2; return 1; }
-  "${RUN_TS[@]}" scripts/s3-fake.ts "$@" & PIDS+=($!)
+  supervise s3 "$log" "${RUN_TS[@]}" scripts/s3-fake.ts
   wait_for_port "$port" 30 || { echo "The local S3 service did not start" >&2; return 1; }
 }
 
@@ -58,3 +59,6 @@ start_s3_fake() {
 # An array rather than a function, so `"${RUN_TS[@]}" x.ts &` leaves $! as node's own pid.
 RUN_TS=(node --conditions=react-server --import tsx)
 run_ts() { "${RUN_TS[@]}" "$@"; }
+
+# The worker, compiled to JavaScript by scripts/build-engine.mjs (var/build/), so it starts without transpiling.
+WORKER=(node --conditions=react-server var/build/worker.mjs)

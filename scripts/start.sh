@@ -5,6 +5,7 @@ cd "$(dirname "$0")/.."
 USER_NODE_ENV="${NODE_ENV:-}"
 source scripts/env.sh
 source scripts/db.sh
+source scripts/supervise.sh
 load_config
 
 if [ "$USER_NODE_ENV" = "production" ] && { [ "$NEXTAUTH_SECRET" = "development-only-secret-do-not-use-in-production" ] || [ ${#NEXTAUTH_SECRET} -lt 32 ]; }; then
@@ -40,14 +41,19 @@ if [ ! -f .next/BUILD_ID ] || [ -n "$(find app components lib models dsp public 
   npx next build > var/build.log 2>&1 || { tail -40 var/build.log; echo "The build failed; the full log is in var/build.log" >&2; exit 1; }
 fi
 
-[ -f scripts/mail-catcher.ts ] && { "${RUN_TS[@]}" scripts/mail-catcher.ts & PIDS+=($!); }
-[ "${STORAGE_DRIVER:-s3}" = s3 ] && [ -n "${S3_FAKE_DIR:-}" ] && start_s3_fake
-[ -f scripts/worker.ts ] && { "${RUN_TS[@]}" scripts/worker.ts & PIDS+=($!); }
-node --import tsx scripts/web-server.ts & PIDS+=($!)
+# Each process is kept running by its own supervisor: a crashed worker or mail catcher is started
+# again (with a log line) while the web server keeps serving.
+export SUPERVISE_DIR=var/run
+node scripts/build-engine.mjs --if-stale
+supervise mail-catcher - "${RUN_TS[@]}" scripts/mail-catcher.ts
+[ "${STORAGE_DRIVER:-s3}" = s3 ] && [ -n "${S3_FAKE_DIR:-}" ] && start_s3_fake -
+supervise worker - "${WORKER[@]}"
+supervise web - node --import tsx scripts/web-server.ts
 
 if wait_for_http "http://$HOST:$PORT/signin" 60; then
   echo
   echo "Takeproof is running on http://$HOST:$PORT  (Ctrl-C stops it)"
   echo "Demo accounts: engineer@demo.test, producer@demo.test, manager@demo.test — password: $DEMO_PASSWORD"
 fi
-wait -n "${PIDS[@]}"
+# Runs until Ctrl-C (or TERM): the cleanup above stops every supervisor, each its own process, then MariaDB.
+wait "${PIDS[@]}"

@@ -4,6 +4,8 @@
 # ports (web 3100+N, MariaDB 3317+N, SMTP 2526+N, S3 9410+N), data (var/test-N) and build folder (.next-N),
 # so several runs can share a machine.
 
+source scripts/supervise.sh
+
 test_env_configure() {
   SLOT="${TEST_SLOT:-0}"
   [[ "$SLOT" =~ ^[0-9]$ ]] || { echo "TEST_SLOT must be a digit" >&2; return 2; }
@@ -15,7 +17,7 @@ test_env_configure() {
   export STORAGE_DRIVER=s3 S3_ENDPOINT="http://127.0.0.1:$((9410 + SLOT))" S3_REGION=us-east-1 S3_BUCKET=takeproof-test S3_FORCE_PATH_STYLE=true
   export S3_ACCESS_KEY_ID=takeproof-test S3_SECRET_ACCESS_KEY=test-storage-secret-not-secret S3_FAKE_DIR="$TEST_DIR/s3" UPLOAD_RESUME_DIR="$TEST_DIR/uploads"
   export NEXTAUTH_SECRET=test-secret-for-the-throwaway-test-server-only DEMO_PASSWORD=demo-takes-2026
-  export UPLOAD_MAX_BYTES="${UPLOAD_MAX_BYTES:-134217728}" JOB_STALE_AFTER_SEC="${JOB_STALE_AFTER_SEC:-6}"
+  export UPLOAD_MAX_BYTES="${UPLOAD_MAX_BYTES:-134217728}" JOB_STALE_AFTER_SEC="${JOB_STALE_AFTER_SEC:-6}" JOB_RETRY_BASE_SEC="${JOB_RETRY_BASE_SEC:-1}" MAIL_RETRY_BASE_SEC="${MAIL_RETRY_BASE_SEC:-1}"
   export NEXTAUTH_URL="http://$HOST:$PORT" TAKEPROOF_TEST_URL="http://$HOST:$PORT" NEXT_TELEMETRY_DISABLED=1
 }
 
@@ -52,9 +54,12 @@ test_env_up() {
   run_ts scripts/make-samples.ts samples || return 1
   echo "Building the app for the browser and HTTP tests…"
   npx next build > "$TEST_DIR/build.log" 2>&1 || { tail -60 "$TEST_DIR/build.log"; echo "next build failed" >&2; return 1; }
-  "${RUN_TS[@]}" scripts/mail-catcher.ts > "$TEST_DIR/mail.log" 2>&1 & PIDS+=($!)
-  start_s3_fake > "$TEST_DIR/s3.log" 2>&1 || { cat "$TEST_DIR/s3.log"; return 1; }
-  "${RUN_TS[@]}" scripts/worker.ts > "$TEST_DIR/worker.log" 2>&1 & PIDS+=($!); export TAKEPROOF_WORKER_PID=$!
+  # Supervised as under `npm start`; tests find the current worker's pid in $TAKEPROOF_WORKER_PID_FILE.
+  export SUPERVISE_DIR="$TEST_DIR/run" TAKEPROOF_WORKER_PID_FILE="$TEST_DIR/run/worker.pid"
+  supervise mail-catcher "$TEST_DIR/mail.log" "${RUN_TS[@]}" scripts/mail-catcher.ts
+  start_s3_fake "$TEST_DIR/s3.log" || { cat "$TEST_DIR/s3.log"; return 1; }
+  node scripts/build-engine.mjs || return 1
+  supervise worker "$TEST_DIR/worker.log" "${WORKER[@]}"
   node --import tsx scripts/web-server.ts > "$TEST_DIR/server.log" 2>&1 & PIDS+=($!); export TAKEPROOF_SERVER_PID=$!
   wait_for_http "$TAKEPROOF_TEST_URL/signin" 60 || { tail -40 "$TEST_DIR/server.log"; echo "The test server did not start" >&2; return 1; }
 }

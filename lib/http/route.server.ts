@@ -4,13 +4,9 @@ import { z } from 'zod';
 import { env } from '@/lib/env.server';
 import { AppError, fieldErrorsOf, type ErrorBody } from '@/lib/errors';
 import { LONE_SURROGATE } from '@/lib/format';
+import { isDatabaseDown } from '@/lib/db/availability.server';
 
 type Handler<C> = (request: Request, context: C) => Promise<Response>;
-
-function isDatabaseDown(error: unknown): boolean {
-  const name = (error as { name?: string } | null)?.name ?? '';
-  return name === 'SequelizeConnectionError' || name === 'SequelizeConnectionRefusedError' || name === 'SequelizeConnectionAcquireTimeoutError' || name === 'SequelizeHostNotReachableError';
-}
 
 /** Turns any thrown error into the JSON error response; the only place that maps errors to status codes. */
 export function errorResponse(error: unknown): Response {

@@ -1,43 +1,55 @@
 import 'server-only';
 import { QueryTypes, type Transaction } from 'sequelize';
 import { AnalysisJob, ConverterCheck, Take } from '@/models';
+import type { JobPurpose } from '@/models/AnalysisJob';
 import { db } from '@/lib/db/connection.server';
 
 /** A running job whose worker has not been heard from for this long is taken over by another worker. */
 export const STALE_AFTER_SEC = Number(process.env.JOB_STALE_AFTER_SEC ?? 30);
-/** A take that made a worker die this many times is given up on, with a message. */
+/** A take that made a worker die (or fail for a reason outside the file) this many times is given up on, with a message. */
 export const MAX_ATTEMPTS = 3;
+/** The first wait before a job that failed for a reason outside the file is tried again; it doubles each time. */
+const RETRY_BASE_SEC = Number(process.env.JOB_RETRY_BASE_SEC ?? 30);
+const RETRY_LONGEST_SEC = 15 * 60;
 
-/** A claimed job measures either a take or a converter check (the other id is null). */
+/** A claimed job measures either a take or a converter check (the other id is null), or writes a take's missing waveform. */
 export interface ClaimedJob {
   jobId: number;
   takeId: number | null;
   converterCheckId: number | null;
   attempts: number;
+  purpose: JobPurpose;
 }
 
-/** The row a job measures, whose status and progress the queue keeps up to date. */
-function subjectOf(job: Pick<ClaimedJob, 'takeId' | 'converterCheckId'>) {
-  return job.takeId !== null ? { model: Take, id: job.takeId } : { model: ConverterCheck, id: job.converterCheckId };
+/** Seconds to wait before try number `attempt + 1` of a job that failed `attempt` times. */
+export function retryDelaySec(attempt: number): number {
+  return Math.min(RETRY_LONGEST_SEC, RETRY_BASE_SEC * 2 ** Math.max(0, attempt - 1));
 }
 
-async function updateSubject(job: Pick<ClaimedJob, 'takeId' | 'converterCheckId'>, fields: { status?: 'queued' | 'measuring'; progress: number }, transaction?: Transaction) {
-  const { model, id } = subjectOf(job);
+/**
+ * Publishes status and progress on the row a measuring job works on. A take whose waveform alone is
+ * written again stays measured and reviewable meanwhile, so waveform jobs publish nothing.
+ */
+async function updateSubject(job: Pick<ClaimedJob, 'takeId' | 'converterCheckId' | 'purpose'>, fields: { status?: 'queued' | 'measuring'; progress: number }, transaction?: Transaction) {
+  if (job.purpose !== 'measure') return;
+  const { model, id } = job.takeId !== null ? { model: Take, id: job.takeId } : { model: ConverterCheck, id: job.converterCheckId };
   if (id === null) return;
   // Both models share the status and progress columns; the cast names the common shape.
   await (model as typeof Take).update(fields, { where: { id }, transaction });
 }
 
 /**
- * Claims the oldest job that is queued, or running with a stale heartbeat, for `workerId`.
- * SKIP LOCKED lets any number of workers, on any machine, claim concurrently without waiting on each other.
+ * Claims the oldest job that is queued (and not waiting out a backoff), or running with a stale
+ * heartbeat, for `workerId`. SKIP LOCKED lets any number of workers, on any machine, claim
+ * concurrently without waiting on each other.
  */
 export async function claimJob(workerId: string): Promise<ClaimedJob | null> {
   const sequelize = db();
   return sequelize.transaction(async (transaction) => {
-    const rows = await sequelize.query<{ id: number; takeId: number | null; converterCheckId: number | null; attempts: number }>(
-      `SELECT id, takeId, converterCheckId, attempts FROM analysis_jobs
-        WHERE state = 'queued' OR (state = 'running' AND heartbeatAt < NOW() - INTERVAL :stale SECOND)
+    const rows = await sequelize.query<{ id: number; takeId: number | null; converterCheckId: number | null; attempts: number; purpose: JobPurpose }>(
+      `SELECT id, takeId, converterCheckId, attempts, purpose FROM analysis_jobs
+        WHERE (state = 'queued' AND (runAfter IS NULL OR runAfter <= NOW()))
+           OR (state = 'running' AND heartbeatAt < NOW() - INTERVAL :stale SECOND)
         ORDER BY id LIMIT 1 FOR UPDATE SKIP LOCKED`,
       { type: QueryTypes.SELECT, replacements: { stale: STALE_AFTER_SEC }, transaction },
     );
@@ -45,7 +57,13 @@ export async function claimJob(workerId: string): Promise<ClaimedJob | null> {
     if (!row) return null;
     const attempts = Number(row.attempts) + 1;
     await AnalysisJob.update({ state: 'running', workerId, heartbeatAt: sequelize.fn('NOW') as unknown as Date, attempts }, { where: { id: row.id }, transaction });
-    const job = { jobId: Number(row.id), takeId: row.takeId === null ? null : Number(row.takeId), converterCheckId: row.converterCheckId === null ? null : Number(row.converterCheckId), attempts };
+    const job: ClaimedJob = {
+      jobId: Number(row.id),
+      takeId: row.takeId === null ? null : Number(row.takeId),
+      converterCheckId: row.converterCheckId === null ? null : Number(row.converterCheckId),
+      attempts,
+      purpose: row.purpose,
+    };
     await updateSubject(job, { status: 'measuring', progress: 0 }, transaction);
     return job;
   });
@@ -73,4 +91,11 @@ export async function requeueJob(job: ClaimedJob, lastError: string | null, undo
     { where: { id: job.jobId } },
   );
   if (undoAttempt) await updateSubject(job, { status: 'queued', progress: 0 });
+}
+
+/** Puts a job back in the queue, to be claimed again only after its backoff (see retryDelaySec). */
+export async function retryJobLater(job: ClaimedJob, lastError: string, purpose: JobPurpose = job.purpose): Promise<void> {
+  // The database's clock, which every worker's claim compares against.
+  const runAfter = db().literal(`NOW() + INTERVAL ${Math.round(retryDelaySec(job.attempts))} SECOND`) as unknown as Date;
+  await AnalysisJob.update({ state: 'queued', purpose, runAfter, workerId: null, heartbeatAt: null, lastError }, { where: { id: job.jobId } });
 }

@@ -26,6 +26,7 @@ export function toDeliveryView(d: MailDelivery & { sentBy?: { name: string } | n
     attempts: d.attempts,
     sentBy: d.sentBy?.name ?? null,
     sentAt: d.sentAt ? d.sentAt.toISOString() : null,
+    nextAttemptAt: d.status === 'queued' && d.nextAttemptAt ? d.nextAttemptAt.toISOString() : null,
     createdAt: d.createdAt.toISOString(),
   };
 }
@@ -46,6 +47,8 @@ export async function createDelivery(
       recipients: fields.recipients,
       subject: fields.title,
       payload: fields.payload,
+      // A report waits in the outbox for a worker; an invitation is sent at once by the request itself.
+      status: fields.kind === 'session_report' ? 'queued' : 'sending',
       messageId: null,
       error: null,
       sentAt: null,
@@ -54,11 +57,20 @@ export async function createDelivery(
   );
 }
 
-/** Hands the message to the SMTP server and stores how that went; never throws for a mail failure. */
+/** Hands the message to the SMTP server at once and stores how that went; never throws for a mail failure. */
 export async function attemptDelivery(delivery: MailDelivery, mail: OutgoingMail): Promise<DeliveryView> {
-  const attempts = delivery.attempts + 1;
+  const outcome = await handToMailServer(delivery, mail);
+  if ('failure' in outcome) await delivery.update({ status: 'failed', attempts: delivery.attempts + 1, error: plainMailError(outcome.failure) });
+  else await recordSent(delivery, mail, outcome.sent);
+  return getDelivery(delivery.studioId, delivery.id);
+}
+
+type SentInfo = { messageId?: string; rejected?: unknown[] };
+
+/** Sends the message; the transport's error comes back instead of being thrown. */
+export async function handToMailServer(delivery: MailDelivery, mail: OutgoingMail): Promise<{ sent: SentInfo } | { failure: unknown }> {
   try {
-    const info = await mailTransport().sendMail({
+    const sent: SentInfo = await mailTransport().sendMail({
       from: env().MAIL_FROM,
       to: mail.to,
       subject: mail.subject,
@@ -68,22 +80,27 @@ export async function attemptDelivery(delivery: MailDelivery, mail: OutgoingMail
       // Lets the local outbox show each studio only its own mail.
       headers: { 'X-Takeproof-Studio': String(delivery.studioId) },
     });
-    const refused = (info.rejected ?? []).map(String);
-    await delivery.update({
-      status: 'sent',
-      attempts,
-      messageId: info.messageId ?? null,
-      sentAt: new Date(),
-      subject: mail.subject,
-      error: refused.length ? `The mail server refused: ${refused.join(', ')}. The others received it.` : null,
-    });
-  } catch (error) {
-    await delivery.update({ status: 'failed', attempts, error: plainMailError(error) });
+    return { sent };
+  } catch (failure) {
+    return { failure };
   }
-  return getDelivery(delivery.studioId, delivery.id);
 }
 
-async function getDelivery(studioId: number, id: number): Promise<DeliveryView> {
+/** Stores that the mail server took the message (and which recipients it refused, if some). */
+export async function recordSent(delivery: MailDelivery, mail: OutgoingMail, info: SentInfo): Promise<void> {
+  const refused = (info.rejected ?? []).map(String);
+  await delivery.update({
+    status: 'sent',
+    attempts: delivery.attempts + 1,
+    messageId: info.messageId ?? null,
+    sentAt: new Date(),
+    nextAttemptAt: null,
+    subject: mail.subject,
+    error: refused.length ? `The mail server refused: ${refused.join(', ')}. The others received it.` : null,
+  });
+}
+
+export async function getDelivery(studioId: number, id: number): Promise<DeliveryView> {
   const d = await MailDelivery.findOne({ where: { id, studioId }, include: [{ model: User, as: 'sentBy', attributes: ['name'] }] });
   if (!d) throw new AppError('not_found:delivery');
   return toDeliveryView(d);
@@ -95,6 +112,18 @@ export async function findDelivery(actor: Actor, id: number): Promise<MailDelive
   const d = await MailDelivery.findOne({ where: { id, studioId: actor.studioId } });
   if (!d) throw new AppError('not_found:delivery', 'This e-mail does not exist, or belongs to another studio.');
   return d;
+}
+
+/** The studio's outgoing e-mail, newest first: queued, being sent, sent and failed. */
+export async function listStudioDeliveries(actor: Actor, limit = 200): Promise<DeliveryView[]> {
+  db();
+  const rows = await MailDelivery.findAll({
+    where: { studioId: actor.studioId },
+    include: [{ model: User, as: 'sentBy', attributes: ['name'] }],
+    order: [['createdAt', 'DESC'], ['id', 'DESC']],
+    limit,
+  });
+  return rows.map(toDeliveryView);
 }
 
 /** The e-mails sent about one object, newest first. */

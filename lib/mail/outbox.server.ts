@@ -4,7 +4,8 @@ import path from 'node:path';
 import { env } from '@/lib/env.server';
 import { AppError } from '@/lib/errors';
 import type { Actor } from '@/lib/auth/views';
-import type { OutboxMessage, OutboxSummary } from './views';
+import { listStudioDeliveries } from './deliveries.server';
+import type { DeliveryView, OutboxMessage, OutboxSummary } from './views';
 
 /**
  * What the local mail catcher saved: each message as `<id>.eml` and a summary `<id>.json`
@@ -66,4 +67,9 @@ export async function getOutboxMessage(actor: Actor, id: string): Promise<Outbox
   if (!message || message.studioId !== actor.studioId) throw new AppError('not_found:message', 'There is no such message in the outbox.');
   const { studioId: _studio, ...rest } = message;
   return rest;
+}
+
+/** The outbox page: the studio's outgoing e-mail with its status, and what the local mail catcher received. */
+export async function outboxOverview(actor: Actor): Promise<{ deliveries: DeliveryView[]; messages: OutboxSummary[] }> {
+  return { deliveries: await listStudioDeliveries(actor), messages: await listOutbox(actor) };
 }

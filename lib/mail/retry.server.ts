@@ -2,17 +2,19 @@ import 'server-only';
 import { assertCan } from '@/lib/auth/guard.server';
 import { audit } from '@/lib/audit/record.server';
 import { AppError } from '@/lib/errors';
-import { composeReportMail } from '@/lib/reports/send.server';
-import { loadReport } from '@/lib/reports/data.server';
+import { findSession } from '@/lib/sessions/service.server';
 import { resendInvitation } from '@/lib/team/service.server';
-import { attemptDelivery, deliveryPayload, findDelivery } from './deliveries.server';
+import { deliveryPayload, findDelivery, getDelivery } from './deliveries.server';
+import { queueAgain } from './queue.server';
 import type { Actor } from '@/lib/auth/views';
 import type { DeliveryView } from './views';
-import { jsonColumn } from '@/lib/db/jsonColumn';
 
 const STUCK_AFTER_MS = 5 * 60_000;
 
-/** Sends a failed e-mail again, rendered from the current data (an invitation gets a fresh link). */
+/**
+ * Sends a failed e-mail again, rendered from the current data: a report goes back in the outbox,
+ * an invitation is sent at once with a fresh link.
+ */
 export async function retryDelivery(actor: Actor, id: number): Promise<DeliveryView> {
   const delivery = await findDelivery(actor, id);
   assertCan(actor, delivery.kind === 'invitation' ? 'user:manage' : 'report:send');
@@ -22,9 +24,9 @@ export async function retryDelivery(actor: Actor, id: number): Promise<DeliveryV
   if (delivery.kind === 'invitation') {
     return (await resendInvitation(actor, Number(deliveryPayload(delivery).userId), delivery)).delivery;
   }
-  const { sessionId, message } = deliveryPayload(delivery) as { sessionId: number; message: string | null };
-  const data = await loadReport(actor, Number(sessionId));
+  const { sessionId } = deliveryPayload(delivery) as { sessionId: number };
+  await findSession(actor, Number(sessionId));
   await audit(actor, 'mail.retry', { type: 'session', id: Number(sessionId) }, { deliveryId: delivery.id });
-  const to = jsonColumn<string[]>(delivery.recipients);
-  return attemptDelivery(delivery, await composeReportMail(data, to, message ?? null, actor.name));
+  await queueAgain(delivery);
+  return getDelivery(delivery.studioId, delivery.id);
 }

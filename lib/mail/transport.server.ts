@@ -37,3 +37,10 @@ export function plainMailError(error: unknown): string {
   const detail = (e.response ?? e.message ?? 'unknown reason').replace(/\s+/g, ' ').slice(0, 300);
   return `The mail server refused the message (${detail}).`;
 }
+
+/** Whether trying the same message again later may work: the server was unreachable, busy or answered 4xx. */
+export function mayWorkLater(error: unknown): boolean {
+  const e = error as { code?: string; responseCode?: number };
+  if (typeof e.responseCode === 'number') return e.responseCode < 500;
+  return e.code === 'ECONNREFUSED' || e.code === 'ESOCKET' || e.code === 'ECONNECTION' || e.code === 'ETIMEDOUT' || e.code === 'EDNS' || e.code === 'ECONNRESET';
+}

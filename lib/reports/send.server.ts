@@ -5,7 +5,7 @@ import { audit } from '@/lib/audit/record.server';
 import { db } from '@/lib/db/connection.server';
 import { AppError } from '@/lib/errors';
 import { MailDelivery, Studio } from '@/models';
-import { attemptDelivery, createDelivery, listDeliveries } from '@/lib/mail/deliveries.server';
+import { createDelivery, getDelivery, listDeliveries } from '@/lib/mail/deliveries.server';
 import { findSession } from '@/lib/sessions/service.server';
 import type { OutgoingMail } from '@/lib/mail/transport.server';
 import type { SendReportInput } from './schema';
@@ -71,7 +71,10 @@ async function assertMaySendReport(actor: Actor, transaction: Transaction): Prom
   });
 }
 
-/** Records, audits and sends a session report; the delivery tells whether the mail server took it. */
+/**
+ * Records and audits a session report and puts it in the outbox (MariaDB), from which a worker sends
+ * it; the delivery's status says where it stands (queued, sending, sent, failed).
+ */
 export async function sendSessionReport(actor: Actor, sessionId: number, input: SendReportInput): Promise<DeliveryView> {
   const data = await loadReport(actor, sessionId);
   const delivery = await db().transaction(async (transaction) => {
@@ -85,5 +88,5 @@ export async function sendSessionReport(actor: Actor, sessionId: number, input: 
     await audit(actor, 'session.report_send', { type: 'session', id: sessionId }, { deliveryId: d.id, recipients: input.to }, transaction);
     return d;
   });
-  return attemptDelivery(delivery, await composeReportMail(data, input.to, input.message, actor.name));
+  return getDelivery(actor.studioId, delivery.id);
 }

@@ -31,6 +31,9 @@ async function readBytes(key: string, start: number, length: number): Promise<Bu
  */
 export async function takePeaks(actor: Actor, id: number, buckets: number): Promise<TakePeaks> {
   const take = await findTake(actor, id);
+  if (!take.peaksKey && take.waveformMissing) {
+    throw new AppError('not_found:peaks', 'The waveform of this take is missing: it could not be stored. The measurement is complete; Takeproof stores the waveform again by itself once storage has room.');
+  }
   if (!take.peaksKey) {
     const why = take.status === 'measured' ? 'this take was measured without them' : take.status === 'unreadable' ? 'the file could not be read' : 'the take is still being measured';
     throw new AppError('not_found:peaks', `There is no waveform for this take yet: ${why}.`);

@@ -48,7 +48,7 @@ export function toTakeSummary(take: Take): TakeSummary {
 
 export function toTakeDetail(take: Take): TakeDetail {
   const report = jsonColumn<AnalysisReport | null>(take.report);
-  return { ...toTakeSummary(take), report, hasPeaks: !!take.peaksKey };
+  return { ...toTakeSummary(take), report, hasPeaks: !!take.peaksKey, waveformMissing: take.waveformMissing };
 }
 
 const refs = [
@@ -88,7 +88,7 @@ export async function remeasureTake(actor: Actor, id: number): Promise<TakeSumma
   await db().transaction(async (transaction) => {
     await take.update({ status: 'queued', progress: 0, error: null }, { transaction });
     const [job] = await AnalysisJob.findOrCreate({ where: { takeId: id }, defaults: { takeId: id, workerId: null, heartbeatAt: null, lastError: null }, transaction });
-    await job.update({ state: 'queued', attempts: 0, workerId: null, heartbeatAt: null, lastError: null }, { transaction });
+    await job.update({ state: 'queued', purpose: 'measure', runAfter: null, attempts: 0, workerId: null, heartbeatAt: null, lastError: null }, { transaction });
     await audit(actor, 'take.remeasure', { type: 'take', id }, null, transaction);
   });
   return toTakeSummary(await findTake(actor, id));

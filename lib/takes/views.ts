@@ -36,4 +36,6 @@ export interface TakeSummary {
 export interface TakeDetail extends TakeSummary {
   report: AnalysisReport | null;
   hasPeaks: boolean;
+  /** Measured, but the waveform file could not be stored yet; Takeproof writes it again by itself. */
+  waveformMissing: boolean;
 }

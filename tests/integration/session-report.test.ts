@@ -3,7 +3,7 @@ import { mkdtempSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { beforeAll, describe, expect, it } from 'vitest';
-import { signedInAll, type Client, type DemoPerson } from '../support/http';
+import { BASE_URL, signedInAll, type Client, type DemoPerson } from '../support/http';
 import { countMailTo, mailTo, uniqueAddress } from '../support/mail';
 import { concat, dbToAmplitude, silence, sine } from '../support/testSignals';
 import { encodeSamples, wavFile } from '../support/wavWriter';
@@ -81,8 +81,20 @@ async function takesOf(id: number): Promise<TakeRow[]> {
 }
 
 async function sendReport(client: Client, id: number, body: unknown) {
-  const response = await client.fetch(`/api/sessions/${id}/report`, { method: 'POST', json: body });
+  const response = await client.fetch(`/api/sessions/${id}/report`, { method: 'POST', json: body, headers: { origin: BASE_URL } });
   return { status: response.status, body: await response.json() };
+}
+
+/** Waits until the worker has sent the report from the outbox, or given up on it, and returns its record. */
+async function settled(id: number, deliveryId: number) {
+  const until = Date.now() + 60_000;
+  for (;;) {
+    const { deliveries } = await (await as.producer.fetch(`/api/sessions/${id}/report`)).json();
+    const found = deliveries.find((d: { id: number }) => d.id === deliveryId);
+    if (found && (found.status === 'sent' || found.status === 'failed')) return found;
+    if (Date.now() > until) throw new Error(`Report e-mail ${deliveryId} is still ${found?.status}`);
+    await new Promise((r) => setTimeout(r, 200));
+  }
 }
 
 beforeAll(async () => {
@@ -107,11 +119,14 @@ describe('sending a session report', () => {
     const to = uniqueAddress('mix-desk');
     const { status, body } = await sendReport(as.producer, sessionId, { to: [to], message: 'Scene 3 is ready for the edit.' });
     expect(status).toBe(202);
-    expect(body.delivery).toMatchObject({ status: 'sent', recipients: [to], error: null, sentBy: 'Tomasz Okafor' });
+    // The report waits in the outbox; a worker sends it.
+    expect(body.delivery).toMatchObject({ status: 'queued', recipients: [to], error: null, sentBy: 'Tomasz Okafor' });
+    const sent = await settled(sessionId, body.delivery.id);
+    expect(sent).toMatchObject({ status: 'sent', error: null, attempts: 1 });
 
     const { mail } = await mailTo(to);
     expect(mail.subject).toContain(TITLE);
-    expect(mail.messageId).toBe(body.delivery.messageId);
+    expect(mail.messageId).toBe(sent.messageId);
     const html = String(mail.html);
     expect(html).toContain(TITLE);
     expect(html).toContain('Scene 3 is ready for the edit.');
@@ -176,8 +191,7 @@ describe('sending a session report', () => {
     const to = uniqueAddress('archive');
     const { body } = await sendReport(as.manager, sessionId, { to: [to] });
     const { mail } = await mailTo(to);
-    const list = await (await as.producer.fetch(`/api/sessions/${sessionId}/report`)).json();
-    const recorded = list.deliveries.find((d: { id: number }) => d.id === body.delivery.id);
+    const recorded = await settled(sessionId, body.delivery.id);
     expect(recorded).toMatchObject({ status: 'sent', recipients: [to], messageId: mail.messageId, sentBy: 'Maren Lindqvist', attempts: 1 });
     expect(Date.parse(recorded.sentAt)).toBeGreaterThan(Date.now() - 120_000);
     const audit = await (await as.manager.fetch(`/api/audit?action=session.report_send&subjectType=session`)).json();
@@ -188,7 +202,7 @@ describe('sending a session report', () => {
     const to = uniqueAddress('empty');
     const { status, body } = await sendReport(as.producer, emptySessionId, { to: [to] });
     expect(status).toBe(202);
-    expect(body.delivery.status).toBe('sent');
+    expect((await settled(emptySessionId, body.delivery.id)).status).toBe('sent');
     const { mail } = await mailTo(to);
     expect(String(mail.html)).toContain('No takes have been uploaded');
     const pdf = mail.attachments.find((a) => a.contentType === 'application/pdf')!;
@@ -201,16 +215,19 @@ describe('sending a session report', () => {
     const to = uniqueAddress('refuse-once');
     const { status, body } = await sendReport(as.producer, sessionId, { to: [to] });
     expect(status).toBe(202);
-    expect(body.delivery.status).toBe('failed');
-    expect(body.delivery.error).toContain(to);
-    expect(body.delivery.error).toMatch(/refused the recipient/);
+    // A recipient the mail server refuses outright is not tried again by itself.
+    const refused = await settled(sessionId, body.delivery.id);
+    expect(refused).toMatchObject({ status: 'failed', attempts: 1 });
+    expect(refused.error).toContain(to);
+    expect(refused.error).toMatch(/refused the recipient/);
     expect(await countMailTo(to)).toBe(0);
     // Another studio cannot retry it, an engineer may not.
     expect((await as.outsider.fetch(`/api/deliveries/${body.delivery.id}/retry`, { method: 'POST' })).status).toBe(404);
     expect((await as.engineer.fetch(`/api/deliveries/${body.delivery.id}/retry`, { method: 'POST' })).status).toBe(403);
-    const retried = await as.producer.fetch(`/api/deliveries/${body.delivery.id}/retry`, { method: 'POST' });
+    const retried = await as.producer.fetch(`/api/deliveries/${body.delivery.id}/retry`, { method: 'POST', headers: { origin: BASE_URL } });
     expect(retried.status).toBe(202);
-    expect((await retried.json()).delivery).toMatchObject({ id: body.delivery.id, status: 'sent', attempts: 2, error: null });
+    expect((await retried.json()).delivery).toMatchObject({ id: body.delivery.id, status: 'queued' });
+    expect(await settled(sessionId, body.delivery.id)).toMatchObject({ status: 'sent', attempts: 2, error: null });
     const { mail } = await mailTo(to);
     expect(mail.subject).toContain(TITLE);
     // A sent e-mail is not sent twice by accident.

@@ -1,10 +1,11 @@
-import { spawn, type ChildProcess } from 'node:child_process';
+import type { ChildProcess } from 'node:child_process';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { signedIn, type Client } from '../support/http';
 import { makeWav, newSession, uploadTakes, waitForTake } from '../support/takes';
+import { spawnWorker, workerPid } from '../support/testServices';
 
 // The test server's own worker; paused while a second worker takes the job, so the second one gets it.
-const backgroundWorker = Number(process.env.TAKEPROOF_WORKER_PID);
+const backgroundWorker = workerPid();
 let engineer: Client;
 let doomed: ChildProcess | null = null;
 
@@ -19,15 +20,17 @@ afterAll(() => {
 
 describe('analysis worker recovery', () => {
   it.runIf(backgroundWorker > 0)('finishes a take on another worker after the first one is killed mid-measurement', async () => {
+    // Generated before the requests: an idle keep-alive connection is closed by the server after 5 s.
+    const bytes = makeWav({ seconds: 240, seed: 81, amplitude: 0.02 });
     const sessionId = await newSession(engineer, 'Worker recovery drill');
     process.kill(backgroundWorker, 'SIGSTOP');
     try {
       // Long enough (4 min of stereo 24-bit) that the measurement is still running when the worker dies.
-      const { status, body } = await uploadTakes(engineer, sessionId, [{ name: 'long-room-tone.wav', bytes: makeWav({ seconds: 240, seed: 81, amplitude: 0.02 }) }]);
+      const { status, body } = await uploadTakes(engineer, sessionId, [{ name: 'long-room-tone.wav', bytes }]);
       expect(status).toBe(201);
       const takeId = body.takes[0].id;
 
-      doomed = spawn(process.execPath, ['--conditions=react-server', '--import', 'tsx', 'scripts/worker.ts'], { env: process.env, stdio: 'ignore' });
+      doomed = spawnWorker();
       let seen: { status: string } = { status: 'queued' };
       const until = Date.now() + 60_000;
       while (seen.status !== 'measuring' && Date.now() < until) {

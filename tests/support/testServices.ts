@@ -1,4 +1,5 @@
 import { spawn, spawnSync, type ChildProcess } from 'node:child_process';
+import { readFileSync } from 'node:fs';
 import os from 'node:os';
 import { BASE_URL } from './http';
 
@@ -24,6 +25,38 @@ export async function startDatabase(): Promise<void> {
     await new Promise((r) => setTimeout(r, 250));
   }
   throw new Error('The test database did not come back');
+}
+
+/** The pid of the test server's analysis worker now (its supervisor starts a new one when it dies), or 0. */
+export function workerPid(): number {
+  try {
+    return Number(readFileSync(process.env.TAKEPROOF_WORKER_PID_FILE ?? '', 'utf8').trim()) || 0;
+  } catch {
+    return 0;
+  }
+}
+
+export function isRunning(pid: number): boolean {
+  try {
+    process.kill(pid, 0);
+    return true;
+  } catch {
+    return false;
+  }
+}
+
+/** Waits until `check` holds, polling every 200 ms; throws with `what` after `timeoutMs`. */
+export async function waitUntil(what: string, check: () => boolean | Promise<boolean>, timeoutMs = 60_000): Promise<void> {
+  const until = Date.now() + timeoutMs;
+  while (!(await check())) {
+    if (Date.now() > until) throw new Error(`Timed out waiting until ${what}`);
+    await new Promise((r) => setTimeout(r, 200));
+  }
+}
+
+/** Starts another worker (compiled by the test setup, as `npm start` runs it), with some settings changed. */
+export function spawnWorker(env: Record<string, string> = {}, stdio: 'ignore' | 'pipe' = 'ignore'): ChildProcess {
+  return spawn(process.execPath, ['--conditions=react-server', 'var/build/worker.mjs'], { env: { ...process.env, ...env }, stdio: ['ignore', stdio, stdio] });
 }
 
 /** A second web server from the same build, on its own port, with some settings changed. */

@@ -1,18 +1,64 @@
 import type { Metadata } from 'next';
 import Link from 'next/link';
 import { requireActor } from '@/lib/auth/guard.server';
-import { listOutbox } from '@/lib/mail/outbox.server';
+import { outboxOverview } from '@/lib/mail/outbox.server';
+import { DELIVERY_STATUS, type DeliveryView } from '@/lib/mail/views';
 import { loadPage } from '@/lib/http/pages.server';
 import { formatDateTime } from '@/lib/format';
 
 export const metadata: Metadata = { title: 'Outbox' };
 
+function DeliveryNote({ d }: { d: DeliveryView }) {
+  if (d.status === 'queued' && d.nextAttemptAt) return <>Tried {d.attempts}×; next try {formatDateTime(d.nextAttemptAt)}. {d.error}</>;
+  if (d.status === 'queued') return <>Waiting for a worker to send it.</>;
+  return <>{d.error ?? (d.sentAt ? `Sent ${formatDateTime(d.sentAt)}` : '—')}</>;
+}
+
 export default async function OutboxPage() {
-  const messages = await loadPage(async () => listOutbox(await requireActor('mail:view')));
+  const { deliveries, messages } = await loadPage(async () => outboxOverview(await requireActor('mail:view')));
   return (
     <div>
       <h1 className="text-2xl font-semibold">Outbox</h1>
-      <p className="mb-6 mt-1 max-w-prose text-muted">E-mail this studio sent, as the local mail catcher received it. Nothing here has left this machine.</p>
+      <p className="mb-6 mt-1 max-w-prose text-muted">E-mail this studio sends. Reports wait here until the mail server takes them; Takeproof tries again by itself when it cannot be reached.</p>
+      <section className="tp-card mb-6" aria-labelledby="outgoing">
+        <h2 id="outgoing" className="border-b border-line p-4 text-lg font-semibold">
+          Outgoing e-mail
+        </h2>
+        {deliveries.length === 0 ? (
+          <p className="p-6 text-muted">Nothing has been sent yet.</p>
+        ) : (
+          <div className="overflow-x-auto">
+            <table className="w-full text-left text-sm" data-testid="outgoing-mail">
+              <thead className="bg-sunken text-muted">
+                <tr>
+                  <th scope="col" className="px-4 py-2 font-semibold">Created (UTC)</th>
+                  <th scope="col" className="px-4 py-2 font-semibold">Status</th>
+                  <th scope="col" className="px-4 py-2 font-semibold">To</th>
+                  <th scope="col" className="px-4 py-2 font-semibold">Subject</th>
+                  <th scope="col" className="px-4 py-2 font-semibold">Note</th>
+                </tr>
+              </thead>
+              <tbody>
+                {deliveries.map((d) => (
+                  <tr key={d.id} className="border-t border-line align-top">
+                    <td className="whitespace-nowrap px-4 py-2 font-mono">{formatDateTime(d.createdAt)}</td>
+                    <td className={`whitespace-nowrap px-4 py-2 font-semibold ${DELIVERY_STATUS[d.status].tone}`}>
+                      <span aria-hidden="true">{DELIVERY_STATUS[d.status].mark} </span>
+                      {DELIVERY_STATUS[d.status].word}
+                    </td>
+                    <td className="break-all px-4 py-2">{d.recipients.join(', ')}</td>
+                    <td className="px-4 py-2">{d.subject}</td>
+                    <td className="px-4 py-2">
+                      <DeliveryNote d={d} />
+                    </td>
+                  </tr>
+                ))}
+              </tbody>
+            </table>
+          </div>
+        )}
+      </section>
+      <p className="mb-3 max-w-prose text-muted">As the local mail catcher received it; nothing below has left this machine.</p>
       <section className="tp-card" aria-labelledby="caught">
         <h2 id="caught" className="border-b border-line p-4 text-lg font-semibold">
           {messages.length} {messages.length === 1 ? 'message' : 'messages'}

@@ -1,8 +1,6 @@
 import { requireActor } from '@/lib/auth/guard.server';
 import { json, route } from '@/lib/http/route.server';
-import { listOutbox } from '@/lib/mail/outbox.server';
+import { outboxOverview } from '@/lib/mail/outbox.server';
 
-export const GET = route(async () => {
-  const actor = await requireActor('mail:view');
-  return json({ messages: await listOutbox(actor) });
-});
+/** The studio's outgoing e-mail with its status (queued, sending, sent, failed), and what the local mail catcher received. */
+export const GET = route(async () => json(await outboxOverview(await requireActor('mail:view'))));

@@ -1,0 +1,39 @@
+import { spawn } from 'node:child_process';
+import { existsSync, mkdtempSync, readFileSync, rmSync } from 'node:fs';
+import os from 'node:os';
+import path from 'node:path';
+import { afterAll, describe, expect, it } from 'vitest';
+import { isRunning, waitUntil } from '../support/testServices';
+
+// scripts/supervise.sh as start.sh and test-env.sh use it, around a stand-in process that idles.
+const dir = mkdtempSync(path.join(os.tmpdir(), 'takeproof-supervise-'));
+const log = path.join(dir, 'idler.log');
+const pidOf = (name: string) => (existsSync(path.join(dir, `${name}.pid`)) ? Number(readFileSync(path.join(dir, `${name}.pid`), 'utf8')) : 0);
+const script = `source scripts/supervise.sh; SUPERVISE_DIR="${dir}"; PIDS=();
+supervise idler "${log}" node -e "console.log('idler up'); setInterval(() => {}, 1000)";
+echo "\${PIDS[0]}" > "${dir}/supervisor.pid"; wait`;
+const shell = spawn('bash', ['-c', script], { stdio: 'ignore' });
+
+afterAll(() => {
+  shell.kill('SIGKILL');
+  const idler = pidOf('idler');
+  if (idler && isRunning(idler)) process.kill(idler, 'SIGKILL');
+  rmSync(dir, { recursive: true, force: true });
+});
+
+describe('process supervision (scripts/supervise.sh)', () => {
+  it('starts a killed process again with a log line, and stops it when the supervisor is stopped', async () => {
+    const started = () => (existsSync(log) ? readFileSync(log, 'utf8').match(/idler up/g)?.length ?? 0 : 0);
+    await waitUntil('the process runs', () => pidOf('supervisor') > 0 && started() === 1);
+    const first = pidOf('idler');
+    process.kill(first, 'SIGKILL');
+    await waitUntil('a new process runs', () => pidOf('idler') !== first && isRunning(pidOf('idler')));
+    const second = pidOf('idler');
+    expect(readFileSync(log, 'utf8')).toMatch(/idler: stopped \(exit code 137\); starting it again in 1 s\./);
+    await waitUntil('the new process has started', () => started() === 2);
+
+    process.kill(pidOf('supervisor'), 'SIGTERM');
+    await waitUntil('the process has stopped', () => !isRunning(second));
+    await waitUntil('the supervisor has stopped', () => !existsSync(path.join(dir, 'idler.pid')));
+  });
+});
