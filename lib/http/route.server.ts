@@ -32,12 +32,16 @@ const SAFE_METHODS = new Set(['GET', 'HEAD', 'OPTIONS']);
 /** The largest body a route reads before refusing it, for everything but uploads (forms, settings, sign-in). */
 const MAX_BODY_BYTES = 256 * 1024;
 
-/** What a state-changing request may send: JSON (every route's default), a multipart upload, or next-auth's sign-in forms. */
-export type BodyKind = 'json' | 'multipart' | 'form';
+/** What a state-changing request may send: JSON (every route's default), a multipart upload, a part of a resumable (tus) upload, or next-auth's sign-in forms. */
+export type BodyKind = 'json' | 'multipart' | 'upload-part' | 'form';
+
+/** Uploads stream their bodies into storage, under limits of their own; every other body is bounded here. */
+const STREAMED: ReadonlySet<BodyKind> = new Set(['multipart', 'upload-part']);
 
 const ACCEPTED_TYPES: Record<BodyKind, { type: RegExp; name: string }> = {
   json: { type: /^application\/json\s*(;|$)/i, name: 'JSON (Content-Type: application/json)' },
   multipart: { type: /^multipart\/form-data\s*;/i, name: 'multipart/form-data' },
+  'upload-part': { type: /^application\/offset\+octet-stream\s*(;|$)/i, name: 'application/offset+octet-stream (a resumable upload’s part)' },
   form: { type: /^application\/x-www-form-urlencoded\s*(;|$)/i, name: 'a form (application/x-www-form-urlencoded)' },
 };
 
@@ -125,7 +129,7 @@ export function route<C = unknown>(handler: Handler<C>, options: { body?: BodyKi
       if (SAFE_METHODS.has(request.method)) return await handler(request, context);
       assertSameOrigin(request);
       assertContentType(request, kind);
-      return await handler(kind === 'multipart' ? request : await withBoundedBody(request), context);
+      return await handler(STREAMED.has(kind) ? request : await withBoundedBody(request), context);
     } catch (error) {
       return errorResponse(error);
     }

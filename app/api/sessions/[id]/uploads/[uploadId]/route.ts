@@ -11,6 +11,6 @@ const handler = route<Context>(async (request, { params }) => {
   const { uploadId } = await params;
   if (!/^[0-9a-f]{32}$/.test(uploadId)) throw new AppError('not_found:upload');
   return handleResumableUpload(actor, await idParam(params, 'session'), request, uploadId);
-});
+}, { body: 'upload-part' });
 
 export { handler as HEAD, handler as PATCH, handler as DELETE };
