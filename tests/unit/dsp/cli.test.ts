@@ -15,7 +15,9 @@ afterAll(() => temp.remove());
 const cli = (...args: string[]) =>
   spawnSync(join(root, 'node_modules', '.bin', 'tsx'), ['dsp/cli.ts', ...args], { cwd: root, encoding: 'utf8', timeout: 60_000 });
 
-const take = temp.write('take.wav', wavFile({ sampleRate: 48000, channels: 2, coding: 'pcm24' }, encodeSamples([sine(997, 0.5, 2, 48000), sine(997, 0.5, 2, 48000)], 'pcm24')));
+// A 997 Hz sine swelling at 3 Hz: programme to measure (a steady sine alone would be a line-up tone, left out of loudness).
+const swelling = sine(997, 0.5, 2, 48000).map((x, n) => x * (0.75 + 0.25 * Math.sin((2 * Math.PI * 3 * n) / 48000)));
+const take = temp.write('take.wav', wavFile({ sampleRate: 48000, channels: 2, coding: 'pcm24' }, encodeSamples([swelling, swelling.slice()], 'pcm24')));
 
 describe('command line', () => {
   it('--json prints exactly one JSON report and exits 0', () => {
