@@ -4,6 +4,7 @@ import { db } from '@/lib/db/connection.server';
 import { Recorder, RecordingSession, Take, User } from '@/models';
 import { BASE_URL, launchBrowser, screenshot, signInAs } from '../support/browser';
 import { summaryTake } from '../support/fleetData';
+import { ALERT_STATUS } from '@/lib/status';
 
 let browser: Browser;
 const tag = Math.random().toString(36).slice(2, 6);
@@ -66,7 +67,8 @@ describe('the fleet in the browser', () => {
     expect(labels.indexOf(QUIET)).toBeLessThan(labels.indexOf(DRIFTING));
 
     const row = page.locator('[data-testid=fleet-row]', { hasText: DRIFTING });
-    await expect(row.textContent()).resolves.toMatch(/▲ 1 alert/);
+    // The mark of a warning-level alert, with its count in words.
+    await expect(row.textContent()).resolves.toContain(`${ALERT_STATUS.warn.mark} 1 alert`);
     await screenshot(page, 'fleet-table');
 
     await row.getByRole('link', { name: DRIFTING }).click();

@@ -34,6 +34,8 @@ interface Row {
   form?: (who: Persona) => FormData;
   /** An `application/x-www-form-urlencoded` body (next-auth's own forms). */
   urlencoded?: () => string;
+  /** A resumable (tus 1.0.0) request: the creation of an upload, or a part of one. */
+  tus?: 'create' | 'part';
   /** Runs before each person's request (e.g. to wait until a take is measured again). */
   before?: (f: Fixtures) => Promise<void>;
   expect: Record<Persona, number>;
@@ -68,6 +70,10 @@ const MATRIX: Record<string, Row> = {
     },
     expect: { anonymous: 401, outsider: 404, engineer: 201, producer: 403, manager: 201 },
   },
+  'POST /api/sessions/[id]/uploads': { path: (f) => `/api/sessions/${f.sessionId}/uploads`, tus: 'create', expect: { anonymous: 401, outsider: 404, engineer: 201, producer: 403, manager: 201 } },
+  // An upload nobody started: the capability and the studio are checked before the upload is looked up.
+  'PATCH /api/sessions/[id]/uploads/[uploadId]': { path: (f) => `/api/sessions/${f.sessionId}/uploads/${'0'.repeat(32)}`, tus: 'part', expect: { anonymous: 401, outsider: 404, engineer: 404, producer: 403, manager: 404 } },
+  'DELETE /api/sessions/[id]/uploads/[uploadId]': { path: (f) => `/api/sessions/${f.sessionId}/uploads/${'0'.repeat(32)}`, tus: 'part', expect: { anonymous: 401, outsider: 404, engineer: 404, producer: 403, manager: 404 } },
   'GET /api/sessions/[id]/report': { path: (f) => `/api/sessions/${f.sessionId}/report`, expect: { anonymous: 401, outsider: 404, engineer: 403, producer: 200, manager: 200 } },
   'POST /api/sessions/[id]/report': {
     path: (f) => `/api/sessions/${f.sessionId}/report`,
@@ -167,10 +173,18 @@ function discoverRoutes(): string[] {
   return found.sort();
 }
 
+/** The headers and body of a resumable (tus) request: a creation names the file; a part carries ten bytes at offset 0. */
+function tusRequest(kind: 'create' | 'part', method: string): { headers: Record<string, string>; body?: BodyInit } {
+  if (kind === 'create') return { headers: { 'tus-resumable': '1.0.0', 'upload-length': '1000', 'upload-metadata': `filename ${Buffer.from('matrix.wav').toString('base64')}` } };
+  if (method !== 'PATCH') return { headers: { 'tus-resumable': '1.0.0' } };
+  return { headers: { 'tus-resumable': '1.0.0', 'upload-offset': '0', 'content-type': 'application/offset+octet-stream' }, body: new Uint8Array(10) };
+}
+
 /** The request a row sends: its body in the kind its route reads. */
 function requestOf(row: Row, method: string, who: Persona): RequestInit & { json?: unknown } {
   const init: RequestInit & { json?: unknown } = { method };
-  if (row.form) init.body = row.form(who);
+  if (row.tus) Object.assign(init, tusRequest(row.tus, method));
+  else if (row.form) init.body = row.form(who);
   else if (row.urlencoded) init.body = new URLSearchParams(row.urlencoded());
   else if (row.body) init.json = row.body(f, who);
   else if (method !== 'GET') init.json = {};
@@ -260,7 +274,11 @@ describe('access matrix: changes come only from Takeproof’s own pages', () => 
       const got: Record<string, number> = {};
       for (const who of ['anonymous', 'manager'] as const) {
         // The body the route reads, sent with plain fetch: the test client would add the page's Origin itself.
-        const proper = (): { body: BodyInit; type?: string } => {
+        const proper = (): { body?: BodyInit; type?: string } => {
+          if (row.tus) {
+            const { headers, body } = tusRequest(row.tus, method);
+            return { body, type: headers['content-type'] };
+          }
           if (row.form) return { body: row.form(who) };
           if (row.urlencoded) return { body: row.urlencoded(), type: 'application/x-www-form-urlencoded' };
           return { body: JSON.stringify(row.body ? row.body(f, who) : {}), type: 'application/json' };
@@ -284,7 +302,7 @@ describe('access matrix: changes come only from Takeproof’s own pages', () => 
         await send('same-site fetch', { origin: own, 'sec-fetch-site': 'same-site' });
         await send('text/plain body', { origin: own, 'content-type': 'text/plain' }, '{}');
         if (!row.urlencoded) await send('form body', { origin: own, 'content-type': 'application/x-www-form-urlencoded' }, 'a=1');
-        if (row.form) await send('JSON body', { origin: own, 'content-type': 'application/json' }, '{}');
+        if (row.form || row.tus === 'part') await send('JSON body', { origin: own, 'content-type': 'application/json' }, '{}');
         else await send('oversized body', { origin: own, 'content-type': row.urlencoded ? 'application/x-www-form-urlencoded' : 'application/json' }, bigJson);
       }
       const expected = Object.fromEntries(

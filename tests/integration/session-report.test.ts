@@ -68,7 +68,9 @@ function pdfText(pdf: Buffer): string {
 
 async function upload(client: Client, id: number, name: string, seconds: number, levelDb: number) {
   const rate = 48000;
-  const signal = concat(silence(0.3, rate), sine(997, dbToAmplitude(levelDb), seconds, rate), silence(0.3, rate));
+  // A sine swelling at 3 Hz: programme with a loudness (a steady sine alone is a line-up tone, left out of loudness).
+  const swelling = sine(997, dbToAmplitude(levelDb), seconds, rate).map((x, n) => x * (0.75 + 0.25 * Math.sin((2 * Math.PI * 3 * n) / rate)));
+  const signal = concat(silence(0.3, rate), swelling, silence(0.3, rate));
   const wav = wavFile({ sampleRate: rate, channels: 1, coding: 'pcm24' }, encodeSamples([signal], 'pcm24'));
   const form = new FormData();
   form.append('file', new Blob([new Uint8Array(wav)], { type: 'audio/wav' }), name);

@@ -20,7 +20,7 @@ let client: Client;
 beforeAll(async () => {
   mkdirSync(smallDisk, { recursive: true });
   execFileSync('mount', ['-t', 'tmpfs', '-o', 'size=2m', 'tmpfs', smallDisk]);
-  server = await startExtraServer(Number(process.env.PORT ?? 3100) + 41, { STORAGE_DIR: smallDisk });
+  server = await startExtraServer(Number(process.env.PORT ?? 3100) + 41, { STORAGE_DRIVER: 'local', STORAGE_DIR: smallDisk });
   client = new Client(server.url);
   await client.signIn(DEMO.engineer);
   if (pausedWorker) process.kill(pausedWorker, 'SIGSTOP');
@@ -39,7 +39,7 @@ afterAll(() => {
 
 function startWorker() {
   const log = createWriteStream(path.join(testDir, 'waveform-drill-worker.log'));
-  worker = spawnWorker({ STORAGE_DIR: smallDisk }, 'pipe');
+  worker = spawnWorker({ STORAGE_DRIVER: 'local', STORAGE_DIR: smallDisk }, 'pipe');
   worker.stdout!.pipe(log);
   worker.stderr!.pipe(log);
 }
