@@ -45,9 +45,10 @@ import { assertAnalysableFormat, declaredFrames, hannWindow } from './formatGuar
  * ≈ 2.3 Hz resolution, 50 % overlap), and each frame's Hann periodogram is
  * added to an accumulator chosen by the level of the loudest short window in
  * the frame (2 dB classes), so only frames that lie wholly in a quiet stretch
- * count as quiet. At the end the classes at or near the floor form the floor's
- * spectrum, in which 50 Hz or 60 Hz harmonic lines are looked for. Memory is
- * bounded by the class count.
+ * count as quiet. At the end the classes within CLASS_MARGIN_DB of the floor form
+ * the floor's spectrum, in which 50 Hz or 60 Hz harmonic lines are looked for;
+ * with fewer than MIN_FLOOR_FRAMES such frames (pauses too short to hold one)
+ * no hum is claimed. Memory is bounded by the class count.
  *
  * Long takes are sampled: whole segments of 8 windows (3 hum frames) spread
  * evenly over the take, at most `maxSegments` of them (the stride doubles when
@@ -407,14 +408,16 @@ export class NoiseFloorAnalyzer implements Analyzer<NoiseFloorResult> {
       let framesTaken = 0;
       for (let cls = 0; cls < counts.length; cls++) {
         if (counts[cls] === 0) continue;
-        if (cls > limit && framesTaken >= MIN_FLOOR_FRAMES) break;
+        // Only frames at the floor: louder ones hold programme (a voice at 100 Hz has the lines of 50 Hz hum).
+        if (cls > limit) break;
         const acc = this.classSpectra[c][cls]!;
         for (let k = 0; k <= half; k++) spectrum[k] += acc[k];
         framesTaken += counts[cls];
       }
       used += framesTaken;
     }
-    if (used === 0) return null;
+    // Too few frames lie wholly in quiet passages (fast speech, short pauses): hum cannot be measured.
+    if (used < MIN_FLOOR_FRAMES) return null;
     const binHz = this.humRate / HUM_FFT_SIZE;
     const score = (mains: number): { count: number; sum: number } => {
       let count = 0;

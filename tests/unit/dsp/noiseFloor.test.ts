@@ -3,6 +3,8 @@ import { NoiseFloorAnalyzer } from '@/dsp/analyzers/noiseFloor';
 import {
   addInto, generateWithTool, mainsHum, musicLike, pcmFormat, pinkNoise, pushInBlocks, quantise, rmsDbfs, seededRandom, sine, speechLike, whiteNoise,
 } from '@/tests/support/spectralSignals';
+import { clipBeforeConverter } from '@/scripts/eval/faults';
+import { voiceTake } from '@/scripts/eval/varietyMaterial';
 
 const FS = 48000;
 
@@ -218,6 +220,16 @@ describe('NoiseFloorAnalyzer: mains hum', () => {
     // line sits in a 1.2 Hz bin against noise spread over 24 kHz.
     const x = addInto(whiteNoise(FS * 10, 10 ** (-65 / 20), 24), mainsHum(FS * 10, FS, 50, -75));
     expect(analyse([x]).humHz).toBe(50);
+  });
+
+  // Seen on fast speech with one clipped stretch: no hum frame lay wholly in a pause, so the two quietest
+  // frames, speech, were taken as the floor's spectrum, and a voice's harmonics fell on the 50 Hz series.
+  // Speech from espeak-ng (a Debian tool); hum frames only at the floor [common practice].
+  it('claims no hum from speech frames when the pauses are too short to hold a floor frame', () => {
+    const voice = voiceTake(4, { sampleRate: FS, peakDbfs: -10, roomToneDbfs: -66, seed: 204 });
+    const r = analyse([clipBeforeConverter(voice, FS, 3, 5, -20, 6, -100, 306)]);
+    expect(r.basis).toBe('quiet-passages');
+    expect(r.humHz).toBeNull();
   });
 
   it('reads clean noise and speech-like content without hum as null', () => {
