@@ -74,15 +74,16 @@ export type FloorBasis = 'quiet-passages' | 'steady-noise' | 'none';
 
 export interface NoiseFloorResult {
   /**
-   * RMS of the quiet passages of the noisiest channel, dBFS (square-wave reference), to 0.1 dB;
-   * null when there is nothing but digital silence or no quiet passage.
+   * RMS of the quiet passages of the noisiest channel (of iso tracks, the quietest track), dBFS (square-wave
+   * reference), to 0.1 dB; null when there is nothing but digital silence or no quiet passage.
    */
   floorDbfs: number | null;
   /** What the floor stands on ('none' also for digital silence). */
   basis: FloorBasis;
   /**
    * Signal-to-noise ratio of the floor's channel, dB: the power mean of its programme windows (more than
-   * PROGRAMME_ABOVE_DB over the quiet band) over the floor, to 0.1 dB; null unless the floor stands on quiet passages.
+   * PROGRAMME_ABOVE_DB over the quiet band) over the floor, to 0.1 dB; null unless the floor stands on quiet passages,
+   * and for iso tracks.
    */
   snrDb: number | null;
   /** Mains frequency whose harmonics stand out of the floor's spectrum, or null. */
