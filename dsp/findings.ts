@@ -171,7 +171,8 @@ export function judgeReport(report: AnalysisReport, spec: DeliverySpec): Finding
   // noise floor and hum
   const floor = report.noise.floorDbfs;
   if (floor !== null && floor > spec.maxNoiseFloorDbfs) {
-    add({ check: 'noise-floor', severity: 'warn', message: `The noise floor in the quiet passages is ${db(floor)} dBFS, above the ${db(spec.maxNoiseFloorDbfs)} dBFS limit.` });
+    const where = poly ? 'of the quietest track' : 'in the quiet passages';
+    add({ check: 'noise-floor', severity: 'warn', message: `The noise floor ${where} is ${db(floor)} dBFS, above the ${db(spec.maxNoiseFloorDbfs)} dBFS limit.` });
   }
   const snr = report.noise.snrDb ?? null;
   if (snr !== null && snr < SNR_WARN_DB) {

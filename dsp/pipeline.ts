@@ -119,7 +119,8 @@ export async function analyzeStream(readable: Readable, options: AnalyzeOptions 
     dropouts: dropouts.finish(),
     stereo: stereo?.finish() ?? null,
     bandwidth: spectrum.finish(),
-    noise: noise.finish(),
+    // Iso tracks are judged by the quietest track; the layout is known once the whole file is read (iXML may follow the audio).
+    noise: noise.finish({ isoTracks: channelLayout(format.channels, format.channelMask, wav.metadata.ixml).layout === 'poly' }),
     tone: lineUpTone,
     waveform: peaks?.finish() ?? null,
   };

@@ -160,6 +160,7 @@ export interface AnalysisReport {
     leftOut?: { startSec: number; endSec: number } | null;
   };
   noise: {
+    /** Floor of the noisiest channel under the programme, dBFS; of a poly take, of its quietest track. */
     floorDbfs: number | null;
     humHz: 50 | 60 | null;
     /**
@@ -168,7 +169,7 @@ export interface AnalysisReport {
      * was measured (absent in older reports).
      */
     basis?: 'quiet-passages' | 'steady-noise' | 'none';
-    /** Signal-to-noise ratio: the programme's RMS over the floor's, dB; null without quiet passages under a programme (absent in older reports). */
+    /** Signal-to-noise ratio: the programme's RMS over the floor's, dB; null without quiet passages under a programme, and for a poly take (absent in older reports). */
     snrDb?: number | null;
   };
   bandwidth: {

@@ -15,25 +15,40 @@ import { assertAnalysableFormat, declaredFrames, hannWindow } from './formatGuar
  * is the power mean of those windows' mean squares around that DC. So a converter's
  * offset does not count as noise, but steady noise reads its RMS whatever its
  * spectrum: pink noise's short windows scatter by a few dB and swing slowly, so
- * a percentile of per-window AC levels alone reads it about 1 dB low. The
- * report gives the noisiest channel's floor. RMS in dBFS is referenced to a
- * full-scale square wave (a full-scale sine reads −3.01 dBFS).
+ * a percentile of per-window AC levels alone reads it about 1 dB low. RMS in
+ * dBFS is referenced to a full-scale square wave (a full-scale sine reads −3.01 dBFS).
  *
  * A floor is only claimed where there is one to hear: quiet passages (the loud
- * windows stand at least QUIET_PASSAGE_DB over the quiet ones), or a take that
- * is one steady noise throughout (room tone, hiss) no louder than
- * STEADY_NOISE_MAX_DBFS. Dense material (a music master that never falls quiet)
- * and steady loud sound (an ambience, a drone, a tone) have no floor to measure,
- * and no hum is looked for in them.
+ * windows, the programme, stand at least QUIET_PASSAGE_DB over the quiet ones), or
+ * a channel that is one steady noise throughout (room tone, hiss), noise no louder
+ * than STEADY_NOISE_MAX_DBFS. Where the loud windows lie in fewer than
+ * PROGRAMME_PARTS tenths of the take, the rest must be steady low noise (room tone
+ * after a slate) or a programme over pauses itself (its 80th percentile
+ * QUIET_PASSAGE_DB over the quiet windows); else the loud stretch is an overload or
+ * a sting on dense material, whose own quietest moments are no noise floor. Dense material (a music
+ * master that never falls quiet) and steady loud sound (an ambience, a drone, a
+ * tone) have no floor to measure, and no hum is looked for in them.
+ *
+ * Which channels make the take's floor: those with quiet passages under their
+ * programme. A channel of steady noise beside them is a part of the programme
+ * (a surround atmosphere) or a dead input (judged as a silent channel), not the
+ * floor of the quiet passages; steady-noise channels make the floor only when no
+ * channel carries programme (a take of room tone). Of those channels the take's
+ * floor is the noisiest one's, as one programme is heard through all its
+ * channels; for iso tracks (a poly take) it is the quietest track's, as the mix
+ * is made from the cleanest microphones and a noisy one can be left out (its own
+ * level is no fault of the take), and there is no signal-to-noise ratio, as
+ * unrelated tracks share no programme level.
  *
  * Hum: the signal is low-passed and decimated to ≈ 2.4 kHz by averaging groups
  * of D samples (a first-order CIC filter), cut into frames of 1024 decimated samples (≈ 0.43 s,
  * ≈ 2.3 Hz resolution, 50 % overlap), and each frame's Hann periodogram is
  * added to an accumulator chosen by the level of the loudest short window in
  * the frame (2 dB classes), so only frames that lie wholly in a quiet stretch
- * count as quiet. At the end the classes at or near the floor form the floor's
- * spectrum, in which 50 Hz or 60 Hz harmonic lines are looked for. Memory is
- * bounded by the class count.
+ * count as quiet. At the end the classes within CLASS_MARGIN_DB of the floor form
+ * the floor's spectrum, in which 50 Hz or 60 Hz harmonic lines are looked for;
+ * with fewer than MIN_FLOOR_FRAMES such frames (pauses too short to hold one)
+ * no hum is claimed. Memory is bounded by the class count.
  *
  * Long takes are sampled: whole segments of 8 windows (3 hum frames) spread
  * evenly over the take, at most `maxSegments` of them (the stride doubles when
@@ -59,15 +74,16 @@ export type FloorBasis = 'quiet-passages' | 'steady-noise' | 'none';
 
 export interface NoiseFloorResult {
   /**
-   * RMS of the quiet passages of the noisiest channel, dBFS (square-wave reference), to 0.1 dB;
-   * null when there is nothing but digital silence or no quiet passage.
+   * RMS of the quiet passages of the noisiest channel (of iso tracks, the quietest track), dBFS (square-wave
+   * reference), to 0.1 dB; null when there is nothing but digital silence or no quiet passage.
    */
   floorDbfs: number | null;
   /** What the floor stands on ('none' also for digital silence). */
   basis: FloorBasis;
   /**
    * Signal-to-noise ratio of the floor's channel, dB: the power mean of its programme windows (more than
-   * PROGRAMME_ABOVE_DB over the quiet band) over the floor, to 0.1 dB; null unless the floor stands on quiet passages.
+   * PROGRAMME_ABOVE_DB over the quiet band) over the floor, to 0.1 dB; null unless the floor stands on quiet passages,
+   * and for iso tracks.
    */
   snrDb: number | null;
   /** Mains frequency whose harmonics stand out of the floor's spectrum, or null. */
@@ -89,8 +105,17 @@ const HISTOGRAM_STEP_DB = 0.1;
 const HISTOGRAM_BINS = 2100;
 /** Windows up to this far above the percentile count as quiet, dB. [common practice] */
 const QUIET_SPAN_DB = 3;
-/** Quiet passages: the 95th-percentile window stands at least this far over the quiet ones, dB. [common practice] */
+/** Quiet passages: the programme stands at least this far over the quiet windows, dB. [common practice] */
 const QUIET_PASSAGE_DB = 10;
+/** The loud windows, the programme: those over this percentile, dB. */
+const LOUD_PERCENTILE = 0.95;
+/**
+ * Loud windows in at least this many of the take's ten equal parts recur as a programme does (speech with
+ * pauses: all ten); an overload of a second or two in dense music lies in one to three. [common practice]
+ */
+const PROGRAMME_PARTS = 4;
+/** The bulk of a channel's windows: up to this percentile. */
+const BULK_PERCENTILE = 0.8;
 /** Windows this far over the quiet windows' percentile are programme, for the signal-to-noise ratio, dB. [common practice] */
 const PROGRAMME_ABOVE_DB = 6;
 /** Shortest quiet passage, in short windows (≈ 0.3 s at 107 ms each). [common practice] */
@@ -270,7 +295,10 @@ export class NoiseFloorAnalyzer implements Analyzer<NoiseFloorResult> {
     }
   }
 
-  finish(): NoiseFloorResult {
+  /**
+   * @param take `isoTracks`: the channels are independent iso tracks (a poly take), judged by the quietest track
+   */
+  finish(take: { isoTracks?: boolean } = {}): NoiseFloorResult {
     if (this.finished) throw new Error('NoiseFloorAnalyzer: finish() called twice.');
     this.finished = true;
     // A last window of at least a quarter length still counts (with its unfinished group).
@@ -280,17 +308,18 @@ export class NoiseFloorAnalyzer implements Analyzer<NoiseFloorResult> {
     }
     if (this.winFill >= this.windowFrames / 4) this.closeWindow();
     const floors = this.windowMs.map((ms, c) => channelFloor(ms.view(), this.windowMeans[c].view(), this.windowWeights[c].view(), this.percentile));
-    let noisiest: ChannelFloor | null = null;
-    for (const floor of floors) if (floor.basis !== 'none' && (noisiest === null || floor.db > noisiest.db)) noisiest = floor;
-    if (noisiest === null) return { floorDbfs: null, basis: 'none', snrDb: null, humHz: null, noiseLimitedBits: null };
+    const judged = floorChannels(floors);
+    if (judged.length === 0) return { floorDbfs: null, basis: 'none', snrDb: null, humHz: null, noiseLimitedBits: null };
+    const isoTracks = take.isoTracks === true;
+    const chosen = judged.reduce((best, floor) => ((isoTracks ? floor.db < best.db : floor.db > best.db) ? floor : best));
     // Ideal quantiser noise, step Q = 2^(1−N) for full scale ±1: rms Q/√12, so
     // 20·log10(Q/√12) = −6.02·N − 4.77 dBFS (square-wave reference).
-    const bits = (-noisiest.db - 10 * Math.log10(12 / 4)) / (20 * Math.log10(2));
+    const bits = (-chosen.db - 10 * Math.log10(12 / 4)) / (20 * Math.log10(2));
     return {
-      floorDbfs: roundTo(noisiest.db, 1),
-      basis: noisiest.basis,
-      snrDb: noisiest.basis === 'quiet-passages' && noisiest.programmeDb !== null ? roundTo(noisiest.programmeDb - noisiest.db, 1) : null,
-      humHz: this.detectHum(floors.map((floor) => (floor.basis === 'none' ? null : floor.db))),
+      floorDbfs: roundTo(chosen.db, 1),
+      basis: chosen.basis,
+      snrDb: !isoTracks && chosen.basis === 'quiet-passages' && chosen.programmeDb !== null ? roundTo(chosen.programmeDb - chosen.db, 1) : null,
+      humHz: this.detectHum(floors.map((floor) => (judged.includes(floor) ? floor.db : null))),
       noiseLimitedBits: roundTo(bits, 1),
     };
   }
@@ -380,14 +409,16 @@ export class NoiseFloorAnalyzer implements Analyzer<NoiseFloorResult> {
       let framesTaken = 0;
       for (let cls = 0; cls < counts.length; cls++) {
         if (counts[cls] === 0) continue;
-        if (cls > limit && framesTaken >= MIN_FLOOR_FRAMES) break;
+        // Only frames at the floor: louder ones hold programme (a voice at 100 Hz has the lines of 50 Hz hum).
+        if (cls > limit) break;
         const acc = this.classSpectra[c][cls]!;
         for (let k = 0; k <= half; k++) spectrum[k] += acc[k];
         framesTaken += counts[cls];
       }
       used += framesTaken;
     }
-    if (used === 0) return null;
+    // Too few frames lie wholly in quiet passages (fast speech, short pauses): hum cannot be measured.
+    if (used < MIN_FLOOR_FRAMES) return null;
     const binHz = this.humRate / HUM_FFT_SIZE;
     const score = (mains: number): { count: number; sum: number } => {
       let count = 0;
@@ -419,6 +450,18 @@ interface ChannelFloor {
   basis: FloorBasis;
   /** Power mean of the programme windows (AC), dB; null when there are none. */
   programmeDb: number | null;
+}
+
+/**
+ * The channels whose floors make the take's: those with quiet passages under a programme; failing those,
+ * steady-noise channels, but only when no channel carries programme (every channel is steady noise or
+ * digital silence).
+ */
+function floorChannels(floors: ChannelFloor[]): ChannelFloor[] {
+  const underProgramme = floors.filter((floor) => floor.basis === 'quiet-passages');
+  if (underProgramme.length > 0) return underProgramme;
+  const noProgramme = floors.every((floor) => floor.basis === 'steady-noise' || floor.db === -Infinity);
+  return noProgramme ? floors.filter((floor) => floor.basis === 'steady-noise') : [];
 }
 
 /** Level of histogram bin `bin`, dB (its centre). */
@@ -456,7 +499,8 @@ function channelFloor(acMs: Float64Array, means: Float64Array, weights: Float64A
   const histogram = histogramOf(acMs, weights);
   const total = histogram.reduce((sum, count) => sum + count, 0);
   const low = percentileDb(histogram, total, percentile);
-  const spread = percentileDb(histogram, total, 0.95) - low;
+  const spread = percentileDb(histogram, total, LOUD_PERCENTILE) - low;
+  const bulkSpread = percentileDb(histogram, total, BULK_PERCENTILE) - low;
   const quietLimit = 10 ** ((low + QUIET_SPAN_DB) / 10);
   const quietFloorMs = 10 ** ((low - QUIET_SPAN_DB) / 10);
   const inPassage: number[] = [];
@@ -485,9 +529,27 @@ function channelFloor(acMs: Float64Array, means: Float64Array, weights: Float64A
     programmeWeight += weights[i];
   }
   const programmeDb = programmeWeight > 0 ? 10 * Math.log10(programmePower / programmeWeight) : null;
-  if (spread >= QUIET_PASSAGE_DB) return { db, basis: 'quiet-passages', programmeDb };
-  if (spread <= STEADY_SPAN_DB && db <= STEADY_NOISE_MAX_DBFS) return { db, basis: 'steady-noise', programmeDb };
+  const lowNoise = db <= STEADY_NOISE_MAX_DBFS;
+  if (spread >= QUIET_PASSAGE_DB) {
+    const bulkIsNoiseOrPauses = (lowNoise && bulkSpread <= STEADY_SPAN_DB) || bulkSpread >= QUIET_PASSAGE_DB;
+    const loudStretchOnly = partsWithLoudWindows(acMs, weights, 10 ** ((low + QUIET_PASSAGE_DB) / 10)) < PROGRAMME_PARTS;
+    if (bulkIsNoiseOrPauses || !loudStretchOnly) return { db, basis: 'quiet-passages', programmeDb };
+  }
+  if (lowNoise && spread <= STEADY_SPAN_DB) return { db, basis: 'steady-noise', programmeDb };
   return { db, basis: 'none', programmeDb };
+}
+
+/** In how many of ten equal parts of the take (by window weight, i.e. time) some window's mean square reaches `loudMs`. */
+function partsWithLoudWindows(acMs: Float64Array, weights: Float64Array, loudMs: number): number {
+  let total = 0;
+  for (const weight of weights) total += weight;
+  const parts = new Set<number>();
+  let before = 0;
+  for (let i = 0; i < acMs.length; i++) {
+    if (acMs[i] >= loudMs) parts.add(Math.min(9, Math.floor((10 * before) / total)));
+    before += weights[i];
+  }
+  return parts.size;
 }
 
 /**

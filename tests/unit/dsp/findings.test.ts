@@ -231,6 +231,14 @@ describe('poly takes (iso tracks)', () => {
     expect(only(findings, 'loudness')).toEqual([]);
   });
 
+  it('a poly take whose quietest track is over the floor limit warns about that track (iso tracks [common practice])', () => {
+    const findings = judge((r) => {
+      poly(r);
+      r.noise = { floorDbfs: -55, humHz: null, basis: 'quiet-passages', snrDb: null };
+    });
+    expect(only(findings, 'noise-floor')[0]).toMatchObject({ severity: 'warn', message: 'The noise floor of the quietest track is -55.0 dBFS, above the -60.0 dBFS limit.' });
+  });
+
   it('names tracks by their iXML names in findings', () => {
     const findings = judge((r) => {
       poly(r);

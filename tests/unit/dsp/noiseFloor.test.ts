@@ -3,6 +3,8 @@ import { NoiseFloorAnalyzer } from '@/dsp/analyzers/noiseFloor';
 import {
   addInto, generateWithTool, mainsHum, musicLike, pcmFormat, pinkNoise, pushInBlocks, quantise, rmsDbfs, seededRandom, sine, speechLike, whiteNoise,
 } from '@/tests/support/spectralSignals';
+import { clipBeforeConverter } from '@/scripts/eval/faults';
+import { voiceTake } from '@/scripts/eval/varietyMaterial';
 
 const FS = 48000;
 
@@ -59,6 +61,39 @@ describe('NoiseFloorAnalyzer: floor level', () => {
     expect(Math.abs(r.floorDbfs! + 62)).toBeLessThan(0.5);
   });
 
+  // Seen on clean music with one planted overload: the 95th-percentile window was the overload, so the music's
+  // own quietest windows were read as a floor of about -20 dBFS with a ratio of 7-18 dB (and "hum" from its
+  // notes). Loud windows in one stretch over dense material make no quiet passage [common practice].
+  /** A dense mix: a pink bed whose level swings ±4 dB over 1.3 s, with chords under it; never quiet. */
+  const denseMix = (seconds: number, seed: number) => {
+    const x = pinkNoise(FS * seconds, 0.1, seed);
+    for (let i = 0; i < x.length; i++) x[i] *= 10 ** ((4 * Math.sin((2 * Math.PI * i) / (1.3 * FS))) / 20);
+    return addInto(x, musicLike(FS * seconds, FS, 0.1, seed + 1));
+  };
+
+  it('claims no floor, ratio or hum on a dense mix with one overloaded second or a louder, clipped stretch', () => {
+    const overloaded = denseMix(10, 37);
+    for (let i = 4 * FS; i < 5 * FS; i++) overloaded[i] = Math.max(-1, Math.min(1, overloaded[i] * 8));
+    expect(analyse([overloaded])).toMatchObject({ floorDbfs: null, snrDb: null, humHz: null, basis: 'none' });
+    // Driven 10 dB into a clip at -6 dBFS for two seconds, the rest lowered 4 dB (an analogue stage clipping before the converter).
+    const drivenStretch = denseMix(14, 38);
+    for (let i = 0; i < drivenStretch.length; i++) {
+      drivenStretch[i] = i >= 6 * FS && i < 8 * FS ? Math.max(-0.5, Math.min(0.5, drivenStretch[i] * 3)) : drivenStretch[i] * 0.6;
+    }
+    expect(analyse([drivenStretch, denseMix(14, 40)])).toMatchObject({ floorDbfs: null, snrDb: null, humHz: null, basis: 'none' });
+  });
+
+  it('measures room tone after a short slate as quiet passages, at its RMS level within 0.5 dB', () => {
+    // Two seconds of speech-like slate, then 18 s of pink room tone: the programme fills a tenth of the take.
+    const room = pinkNoise(FS * 20, 10 ** (-70 / 20), 47);
+    const take = new Float64Array(room.length);
+    take.set(speechLike(FS * 2, FS, 0.5, 48));
+    addInto(take, room);
+    const r = analyse([take]);
+    expect(r.basis).toBe('quiet-passages');
+    expect(Math.abs(r.floorDbfs! - rmsDbfs(room))).toBeLessThan(0.5);
+  });
+
   it('finds the room noise under speech-like content with pauses', () => {
     const x = addInto(speechLike(FS * 12, FS, 0.5, 2), whiteNoise(FS * 12, 10 ** (-72 / 20), 3));
     const r = analyse([x]);
@@ -84,6 +119,18 @@ describe('NoiseFloorAnalyzer: floor level', () => {
   it('reports the noisiest channel', () => {
     const r = analyse([whiteNoise(FS * 4, 10 ** (-90 / 20), 6), whiteNoise(FS * 4, 10 ** (-66 / 20), 7)]);
     expect(Math.abs(r.floorDbfs! + 66)).toBeLessThan(0.3);
+  });
+
+  // Seen on a clean 5.1 drama mix: the surrounds' steady atmosphere (-46 dBFS) was reported as the take's floor.
+  // A steady sound beside a programme is part of it, or a dead input, not the floor of its quiet passages [common practice].
+  it('takes the floor from the channels with quiet passages, not from a steady atmosphere beside them', () => {
+    const dialogue = addInto(speechLike(FS * 12, FS, 0.5, 50), pinkNoise(FS * 12, 10 ** (-72 / 20), 51));
+    const atmosphere = pinkNoise(FS * 12, 10 ** (-46 / 20), 52);
+    const r = analyse([dialogue, atmosphere, atmosphere.slice()]);
+    expect(r.basis).toBe('quiet-passages');
+    expect(Math.abs(r.floorDbfs! + 72)).toBeLessThan(1);
+    // Beside dense music (no quiet passage anywhere) a steady channel makes no floor either.
+    expect(analyse([musicLike(FS * 8, FS, 0.5, 53), pinkNoise(FS * 8, 10 ** (-58 / 20), 54)]).floorDbfs).toBeNull();
   });
 
   it('gives 15.2 noise-limited bits for TPDF-dithered 16-bit silence (TPDF floor Q²/4 → 16 − log2(√3) = 15.21)', () => {
@@ -127,6 +174,24 @@ describe('NoiseFloorAnalyzer: signal-to-noise ratio', () => {
   });
 });
 
+describe('NoiseFloorAnalyzer: iso tracks (a poly take)', () => {
+  // Iso tracks are raw microphones the mix is made from: the cleanest sets what the take can give, and
+  // unrelated tracks share no programme level for a signal-to-noise ratio [common practice].
+  const track = (roomDbfs: number, seed: number) => addInto(speechLike(FS * 12, FS, 0.3, seed), pinkNoise(FS * 12, 10 ** (roomDbfs / 20), seed + 1));
+
+  it('judges iso tracks by the quietest track and gives no signal-to-noise ratio', () => {
+    const tracks = [track(-68, 60), track(-58, 62), track(-64, 64)];
+    const asProgramme = analyse(tracks);
+    expect(Math.abs(asProgramme.floorDbfs! + 58)).toBeLessThan(1);
+    expect(asProgramme.snrDb).not.toBeNull();
+    const analyzer = new NoiseFloorAnalyzer(pcmFormat(FS, 3));
+    analyzer.push({ channels: tracks, frames: tracks[0].length, startFrame: 0 });
+    const asTracks = analyzer.finish({ isoTracks: true });
+    expect(Math.abs(asTracks.floorDbfs! + 68)).toBeLessThan(1);
+    expect(asTracks.snrDb).toBeNull();
+  });
+});
+
 describe('NoiseFloorAnalyzer: mains hum', () => {
   const speechOverRoom = (seed: number) =>
     addInto(speechLike(FS * 12, FS, 0.5, seed), pinkNoise(FS * 12, 10 ** (-70 / 20), seed + 100));
@@ -155,6 +220,16 @@ describe('NoiseFloorAnalyzer: mains hum', () => {
     // line sits in a 1.2 Hz bin against noise spread over 24 kHz.
     const x = addInto(whiteNoise(FS * 10, 10 ** (-65 / 20), 24), mainsHum(FS * 10, FS, 50, -75));
     expect(analyse([x]).humHz).toBe(50);
+  });
+
+  // Seen on fast speech with one clipped stretch: no hum frame lay wholly in a pause, so the two quietest
+  // frames, speech, were taken as the floor's spectrum, and a voice's harmonics fell on the 50 Hz series.
+  // Speech from espeak-ng (a Debian tool); hum frames only at the floor [common practice].
+  it('claims no hum from speech frames when the pauses are too short to hold a floor frame', () => {
+    const voice = voiceTake(4, { sampleRate: FS, peakDbfs: -10, roomToneDbfs: -66, seed: 204 });
+    const r = analyse([clipBeforeConverter(voice, FS, 3, 5, -20, 6, -100, 306)]);
+    expect(r.basis).toBe('quiet-passages');
+    expect(r.humHz).toBeNull();
   });
 
   it('reads clean noise and speech-like content without hum as null', () => {
