@@ -4,7 +4,7 @@ import { fileURLToPath } from 'node:url';
 import { afterAll, describe, expect, it } from 'vitest';
 import { DEFAULT_SPEC } from '../../../dsp/spec';
 import { tempDirectory } from '../../support/tempFiles';
-import { concat, sine } from '../../support/testSignals';
+import { sine } from '../../support/testSignals';
 import { encodeSamples, wavFile } from '../../support/wavWriter';
 
 const root = fileURLToPath(new URL('../../../', import.meta.url));
@@ -31,9 +31,7 @@ describe('command line', () => {
   });
 
   it('prints a readable summary without --json', () => {
-    // Programme (a 997 Hz tone followed by a 440 Hz one): a take of line-up tone alone has no loudness to print.
-    const programme = temp.write('programme.wav', wavFile({ sampleRate: 48000, channels: 1, coding: 'pcm24' }, encodeSamples([concat(sine(997, 0.5, 1, 48000), sine(440, 0.25, 4, 48000))], 'pcm24')));
-    const run = cli(programme);
+    const run = cli(take);
     expect(run.status).toBe(0);
     expect(run.stdout).toMatch(/Integrated .* LUFS/);
     expect(run.stdout).toMatch(/Verdict: (PASS|WARN|FAIL)/);
