@@ -240,14 +240,23 @@ export function measureRows(report: AnalysisReport, spec: DeliverySpec): Measure
         : `The take’s overall loudness is ${Math.abs(lufs - spec.loudnessTargetLufs).toFixed(1)} LU ${lufs > spec.loudnessTargetLufs ? 'above' : 'below'} the delivery target; a raw take is usually levelled in the edit.`,
   });
 
+  const floor = report.noise.floorDbfs;
   add({
     key: 'noise',
     title: 'Noise floor and hum',
-    value: `${formatMeasure(report.noise.floorDbfs, 1, 'dBFS')} in the quiet passages (limit ${formatMeasure(spec.maxNoiseFloorDbfs, 0, 'dBFS')}) · ${report.noise.humHz ? `hum at ${report.noise.humHz} Hz` : 'no mains hum'}`,
+    value:
+      floor == null
+        ? 'not measurable: no quiet passage'
+        : `${formatMeasure(floor, 1, 'dBFS')} in the quiet passages (limit ${formatMeasure(spec.maxNoiseFloorDbfs, 0, 'dBFS')}) · ${report.noise.humHz ? `hum at ${report.noise.humHz} Hz` : 'no mains hum'}`,
     findings: pick('noise-floor', 'hum'),
-    explanation: report.noise.humHz
-      ? 'A steady mains hum sits under the quiet passages; it usually comes from a ground loop or a nearby power cable.'
-      : 'The noise floor is the hiss heard between words; the lower it is, the cleaner the pauses.',
+    // Nothing measured, nothing judged: the row says so instead of showing a pass.
+    mark: floor == null ? 'none' : undefined,
+    explanation:
+      floor == null
+        ? 'The take never falls well below its programme, so its noise floor and hum cannot be measured here.'
+        : report.noise.humHz
+          ? 'A steady mains hum sits under the quiet passages; it usually comes from a ground loop or a nearby power cable.'
+          : 'The noise floor is the hiss heard between words; the lower it is, the cleaner the pauses.',
   });
 
   const bw = report.bandwidth;

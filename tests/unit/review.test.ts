@@ -71,6 +71,15 @@ describe('measureRows', () => {
     expect(rows.loudness.value).toContain('target -23.0 LUFS ± 1 LU');
   });
 
+  it('claims no pass for a noise floor that could not be measured (dense material, no quiet passage)', () => {
+    const dense = report((r) => {
+      r.noise = { ...r.noise, floorDbfs: null, humHz: null };
+    });
+    const noise = measureRows(dense, DEFAULT_SPEC).find((r) => r.key === 'noise')!;
+    expect(noise.mark).toBe('none');
+    expect(noise.value).toBe('not measurable: no quiet passage');
+  });
+
   it('says how many bits a padded file really uses', () => {
     const padded = report((r) => {
       r.resolution.effectiveBits = 16;
