@@ -8,6 +8,7 @@ import { db } from '@/lib/db/connection.server';
 import { hashPassword } from '@/lib/auth/passwords.server';
 import { DeliverySpec, Recorder, RecordingSession, Studio, Take, User } from '@/models';
 import { DEFAULT_SPEC } from '@/dsp/spec';
+import { seededRandom } from '../dsp/util/seededRandom';
 
 const STUDIO = 'Brackenridge Sound Depot';
 const MANAGER_EMAIL = 'fleet-manager@demo.test';
@@ -22,14 +23,7 @@ const TAKES = arg('takes', 50_000);
 const DAY_MS = 86_400_000;
 
 // A small seeded generator, so every run builds the same fleet.
-let state = 0x2f6b1d3;
-function random(): number {
-  state |= 0;
-  state = (state + 0x6d2b79f5) | 0;
-  let t = Math.imul(state ^ (state >>> 15), 1 | state);
-  t = (t + Math.imul(t ^ (t >>> 7), 61 | t)) ^ t;
-  return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-}
+const random = seededRandom(0x2f6b1d3);
 const gauss = () => Math.sqrt(-2 * Math.log(1 - random())) * Math.cos(2 * Math.PI * random());
 const pick = <T,>(xs: readonly T[]) => xs[Math.floor(random() * xs.length)];
 const round = (x: number, d = 1) => Math.round(x * 10 ** d) / 10 ** d;

@@ -2,6 +2,7 @@ import { createWriteStream } from 'node:fs';
 import { Readable } from 'node:stream';
 import { pipeline } from 'node:stream/promises';
 import { assertCheckRate, CheckSignalRenderer, checkSignalLayout } from './checkSignal';
+import { seededRandom } from '../util/seededRandom';
 
 /**
  * Writes the check signal as a WAV file: integer PCM with TPDF dither of ±1 LSB (2 LSB peak to
@@ -28,18 +29,6 @@ export interface CheckSignalOptions {
 
 const BLOCK_FRAMES = 65536;
 const DITHER_SEED = 0x7a6b_c0de;
-
-/** Seeded uniform generator in [0, 1) (mulberry32), so the written file is reproducible. */
-function uniformSource(seed: number): () => number {
-  let state = seed >>> 0;
-  return () => {
-    state = (state + 0x6d2b79f5) >>> 0;
-    let t = state;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
 /**
  * RIFF header up to the data chunk. Plain PCM for mono/stereo 16-bit; WAVE_FORMAT_EXTENSIBLE
@@ -95,7 +84,7 @@ export function* checkSignalWavChunks(format: CheckSignalFormat, options: CheckS
   yield wavHeader(format, dataBytes);
 
   const dither = options.dither ?? true;
-  const uniform = uniformSource(DITHER_SEED);
+  const uniform = seededRandom(DITHER_SEED);
   const scale = 2 ** (bitsPerSample - 1);
   const samples = Array.from({ length: channels }, () => new Float64Array(BLOCK_FRAMES));
   const driven = Array.from({ length: channels }, () => new Uint8Array(BLOCK_FRAMES));

@@ -4,6 +4,7 @@
 // then measured by the real engine, so every figure the demo shows comes from an analysis.
 import wavefile from 'wavefile';
 import { checkSignalWav } from '@/dsp/converter/signalWriter';
+import { seededRandom } from '../../dsp/util/seededRandom';
 
 export interface DemoConverter {
   gainsDb: [number, number];
@@ -21,18 +22,6 @@ export interface DemoConverter {
 export const DEMO_SIGNAL_FORMAT = { sampleRate: 48_000, bitsPerSample: 24 as const, channels: 2 };
 const LEAD_SEC = 2;
 const FULL_SCALE_24 = 2 ** 23;
-
-/** Seeded uniform numbers (mulberry32), so every seed run builds the same recordings. */
-function uniform(seed: number): () => number {
-  let state = seed >>> 0;
-  return () => {
-    state = (state + 0x6d2b79f5) >>> 0;
-    let t = state;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
 /** Standard normal numbers by the Box–Muller transform. */
 function gaussian(random: () => number): () => number {
@@ -84,7 +73,7 @@ export function recordThrough(converter: DemoConverter): Buffer {
     return padded;
   });
   const leak = 10 ** (converter.crosstalkDb / 20);
-  const noise = gaussian(uniform(converter.seed));
+  const noise = gaussian(seededRandom(converter.seed));
   const sigma = 10 ** (converter.noiseDbfs / 20) * Math.SQRT1_2;
   const sections = butterworth(converter.lowPassHz, 8, rate);
   const recorded = inputs.map((x, c) => {

@@ -1,16 +1,8 @@
 /** Deterministic test signals (full scale = 1.0). */
 
-/** Seeded uniform generator in [0, 1) (mulberry32). */
-export function seededRandom(seed: number): () => number {
-  let state = seed >>> 0;
-  return () => {
-    state = (state + 0x6d2b79f5) >>> 0;
-    let t = state;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+import { seededRandom } from '../../dsp/util/seededRandom';
+
+export { seededRandom };
 
 /** Peak amplitude of a level in dBFS. */
 export const dbToAmplitude = (db: number) => 10 ** (db / 20);
