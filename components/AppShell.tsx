@@ -28,12 +28,12 @@ export function AppShell({ actor, studioName, theme, children }: { actor: Actor;
           </nav>
           <div className="ml-auto flex flex-wrap items-center gap-3">
             <ThemeSwitcher initial={theme} />
-            <div className="text-right text-sm leading-tight" data-testid="who">
+            <Link href="/account" className="rounded-md px-2 py-1 text-right text-sm leading-tight hover:bg-sunken" data-testid="who" title="Your account">
               <div className="font-semibold">{actor.name}</div>
               <div className="text-muted">
                 {ROLE_LABEL[actor.role]} · {studioName}
               </div>
-            </div>
+            </Link>
             <SignOutButton />
           </div>
         </div>

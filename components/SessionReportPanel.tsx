@@ -6,10 +6,10 @@ import { type ApiError, fetchJson, swrFetcher } from '@/lib/http/fetcher';
 import { FormField } from './FormField';
 import { FormMessage } from '@/components/FormMessage';
 import { useApiForm } from './useApiForm';
-import { DELIVERY_STATUS, type DeliveryView } from '@/lib/mail/views';
+import type { DeliveryView } from '@/lib/mail/views';
+import { MAIL_STATUS } from '@/lib/status';
+import { StatusMark } from './StatusMarks';
 import { formatDateTime } from '@/lib/format';
-
-const STATUS = DELIVERY_STATUS;
 
 const waiting = (d: DeliveryView) => d.status === 'queued' || d.status === 'sending';
 
@@ -21,14 +21,10 @@ function splitAddresses(text: string): string[] {
 }
 
 function DeliveryLine({ delivery, onRetry, busy }: { delivery: DeliveryView; onRetry: (id: number) => void; busy: boolean }) {
-  const s = STATUS[delivery.status];
   return (
     <li className="border-t border-line py-2 first:border-t-0">
       <div className="flex flex-wrap items-baseline gap-x-3">
-        <span className={`font-semibold ${s.tone}`}>
-          <span aria-hidden="true">{s.mark} </span>
-          {s.word}
-        </span>
+        <StatusMark status={MAIL_STATUS[delivery.status]} />
         <span className="break-all">{delivery.recipients.join(', ')}</span>
         <span className="font-mono text-xs text-muted">{formatDateTime(delivery.sentAt ?? delivery.createdAt)}</span>
         {delivery.sentBy && <span className="text-xs text-muted">by {delivery.sentBy}</span>}
@@ -140,13 +136,14 @@ export function SessionReportPanel({ sessionId, maySend }: { sessionId: number; 
         </form>
       )}
       {shown && (
-        <p role="status" data-testid="report-result" className={`mt-3 text-sm font-semibold ${STATUS[shown.status].tone}`}>
-          <span aria-hidden="true">{STATUS[shown.status].mark} </span>
-          {shown.status === 'sent'
-            ? `Report sent to ${shown.recipients.join(', ')}.`
-            : waiting(shown)
-              ? `The report to ${shown.recipients.join(', ')} is in the outbox and goes out in a moment.`
-              : `The report was not sent: ${shown.error}`}
+        <p role="status" data-testid="report-result" className="mt-3 text-sm">
+          <StatusMark status={MAIL_STATUS[shown.status]}>
+            {shown.status === 'sent'
+              ? `Report sent to ${shown.recipients.join(', ')}.`
+              : waiting(shown)
+                ? `The report to ${shown.recipients.join(', ')} is in the outbox and goes out in a moment.`
+                : `The report was not sent: ${shown.error}`}
+          </StatusMark>
         </p>
       )}
       {maySend && deliveries.length > 0 && (

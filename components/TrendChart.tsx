@@ -41,8 +41,10 @@ export function TrendChart({ title, unit, weeks, series, height = 220 }: { title
           width: Math.max(280, el.clientWidth),
           height,
           scales: { x: { time: true } },
+          // Weeks are UTC Mondays: draw the time axis in UTC too, so no zone west of it shows the Sunday before.
+          tzDate: (ts) => uPlot.tzDate(new Date(ts * 1000), 'Etc/UTC'),
           axes: [
-            { ...axis, label: 'Week (starting Monday)' },
+            { ...axis, label: 'Week starting Monday (UTC)' },
             { ...axis, label: unit, size: 60 },
           ],
           series: [

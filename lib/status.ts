@@ -4,6 +4,7 @@
  * means one thing within the product; pages, reports and e-mail read this table and never spell
  * a status themselves. Safe to import from the browser.
  */
+import type { MailStatus } from '@/models/MailDelivery';
 import type { Decision, TakeStatus, Verdict } from '@/models/Take';
 
 /** Shapes, drawn as these characters on pages and in e-mail, and as vector shapes in the PDF. */
@@ -29,6 +30,8 @@ export const SHAPE_MARK = {
   downTriangle: '▼',
   hollowDownTriangle: '▽',
   emDash: '—',
+  envelope: '✉',
+  squaredCross: '⊠',
 } as const;
 export type Shape = keyof typeof SHAPE_MARK;
 
@@ -59,7 +62,7 @@ export const DECISION_STATUS: Record<Decision, StatusLook> = {
   pending: look('Pending', 'ring', 'muted'),
 };
 
-/** Where a take is in its measurement. */
+/** Where a take is in its measurement. The clock means waiting in the queue and the half circle work under way, for takes and e-mail alike. */
 export const TAKE_STATUS: Record<TakeStatus, StatusLook> = {
   queued: look('Queued', 'clock', 'muted'),
   measuring: look('Measuring', 'halfCircle', 'accent'),
@@ -84,6 +87,14 @@ export const MEMBER_STATUS: Record<'active' | 'invited' | 'deactivated', StatusL
   active: look('Active', 'hollowDiamond', 'pass'),
   invited: look('Invited', 'hollowTriangle', 'warn'),
   deactivated: look('Deactivated', 'slashedRing', 'muted'),
+};
+
+/** An e-mail Takeproof sends (a report, an invitation), from the outbox to the mail server. */
+export const MAIL_STATUS: Record<MailStatus, StatusLook> = {
+  queued: look('Queued', 'clock', 'muted'),
+  sending: look('Sending', 'halfCircle', 'accent'),
+  sent: look('Sent', 'envelope', 'pass'),
+  failed: look('Not sent', 'squaredCross', 'fail'),
 };
 
 /** A fleet alert on a recorder, and a recorder without one. */

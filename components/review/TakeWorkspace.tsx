@@ -145,7 +145,7 @@ export function TakeWorkspace({ takeId, durationSec, channels, lanes, markers, u
                   data-testid="lane-name"
                 >
                   {lane.name}
-                  {lane.silent && ' · ⊘ no programme'}
+                  {lane.silent && ' · silent, no programme'}
                 </li>
               ))}
             </ol>

@@ -32,6 +32,7 @@ export const ACTION_WORDS: Record<string, string> = {
   'user.deactivate': 'Deactivated a person',
   'user.reactivate': 'Reactivated a person',
   'invitation.accept': 'Accepted an invitation',
+  'account.password_change': 'Changed their own password',
   'mail.retry': 'Sent an e-mail again',
 };
 

@@ -17,13 +17,6 @@ export interface DeliveryView {
   createdAt: string;
 }
 
-/** How a delivery's status is shown: a mark and a word, never colour alone. */
-export const DELIVERY_STATUS = {
-  sent: { mark: '✓', word: 'Sent', tone: 'text-pass' },
-  failed: { mark: '✕', word: 'Not sent', tone: 'text-fail' },
-  sending: { mark: '○', word: 'Sending', tone: 'text-muted' },
-  queued: { mark: '◷', word: 'Queued', tone: 'text-muted' },
-} as const satisfies Record<MailStatus, { mark: string; word: string; tone: string }>;
 
 /** A message the local mail catcher saved, as the outbox page lists it. */
 export interface OutboxSummary {

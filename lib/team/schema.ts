@@ -18,13 +18,26 @@ export type UpdateUserInput = z.infer<typeof updateUserSchema>;
 
 export const PASSWORD_MIN = 10;
 
+const newPassword = z
+  .string({ error: 'Choose a password' })
+  .min(PASSWORD_MIN, `Use at least ${PASSWORD_MIN} characters`)
+  .max(200, 'Keep the password under 200 characters');
+const SAME_TWICE = { message: 'The two passwords are not the same', path: ['confirm'] };
+
 export const acceptInvitationSchema = z
   .object({
     token: z.string().regex(/^[A-Za-z0-9_-]{43}$/, 'This invitation link is not complete'),
-    password: z
-      .string({ error: 'Choose a password' })
-      .min(PASSWORD_MIN, `Use at least ${PASSWORD_MIN} characters`)
-      .max(200, 'Keep the password under 200 characters'),
+    password: newPassword,
     confirm: z.string().optional(),
   })
-  .refine((v) => v.confirm === undefined || v.confirm === v.password, { message: 'The two passwords are not the same', path: ['confirm'] });
+  .refine((v) => v.confirm === undefined || v.confirm === v.password, SAME_TWICE);
+
+export const changePasswordSchema = z
+  .object({
+    current: z.string({ error: 'Enter your current password' }).min(1, 'Enter your current password').max(200, 'That is not your current password'),
+    password: newPassword,
+    confirm: z.string({ error: 'Repeat the new password' }),
+  })
+  .refine((v) => v.confirm === v.password, SAME_TWICE)
+  .refine((v) => v.password !== v.current, { message: 'Choose a password other than the current one', path: ['password'] });
+export type ChangePasswordInput = z.infer<typeof changePasswordSchema>;

@@ -43,7 +43,7 @@ describe('the session report panel', () => {
     const status = page.getByTestId('report-result');
     // The report goes through the outbox: the line says so, then that it was sent.
     await status.filter({ hasText: 'Report sent to' }).waitFor();
-    await expect(status.textContent()).resolves.toBe(`✓ Report sent to ${to}.`);
+    await expect(status.textContent()).resolves.toBe(`✉Report sent to ${to}.`);
     const { mail } = await mailTo(to);
     expect(mail.subject).toContain(TITLE);
     expect(mail.text).toContain('Pickups are in; please check scene 2.');

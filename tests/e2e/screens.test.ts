@@ -78,6 +78,7 @@ const SCREENS: Screen[] = [
   { name: 'team', person: 'manager', path: () => '/team' },
   { name: 'audit', person: 'manager', path: () => '/audit' },
   { name: 'outbox', person: 'manager', path: () => '/outbox' },
+  { name: 'account', person: 'engineer', path: () => '/account' },
   { name: 'manager-page-refused', person: 'producer', path: () => '/fleet' },
 ];
 

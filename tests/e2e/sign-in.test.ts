@@ -1,6 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser } from 'playwright-core';
 import { BASE_URL, launchBrowser, screenshot, signInAs } from '../support/browser';
+import { newPerson, newStudio, testDb } from '../support/people';
 
 let browser: Browser;
 beforeAll(async () => {
@@ -8,6 +9,7 @@ beforeAll(async () => {
 });
 afterAll(async () => {
   await browser?.close();
+  await testDb.end();
 });
 
 describe('signing in through the browser', () => {
@@ -76,6 +78,37 @@ describe('signing in through the browser', () => {
       await page.evaluate((t) => (document.documentElement.dataset.theme = t), theme);
       await screenshot(page, `session-${theme}`);
     }
+    await context.close();
+  });
+
+  it('changes the person’s own password from their account page and sends them to sign in again', async () => {
+    const person = await newPerson(await newStudio('Account page'), 'producer', 'account-page');
+    const next = 'harbour-lights-at-dawn';
+    const context = await browser.newContext();
+    const page = await context.newPage();
+    const signIn = async (password: string) => {
+      await page.getByLabel('E-mail').fill(person.email);
+      await page.getByLabel('Password').fill(password);
+      await page.getByRole('button', { name: 'Sign in' }).click();
+    };
+    await page.goto(`${BASE_URL}/signin`);
+    await signIn(person.password);
+    await page.waitForURL(`${BASE_URL}/`);
+
+    await page.getByTestId('who').click();
+    await page.getByRole('heading', { name: 'Change your password' }).waitFor();
+    await page.getByLabel('Current password').fill('not-the-password');
+    await page.getByLabel('New password', { exact: true }).fill(next);
+    await page.getByLabel('Repeat the new password').fill(next);
+    await page.getByRole('button', { name: 'Save the new password' }).click();
+    await expect(page.getByText('That is not your current password.').textContent()).resolves.toMatch(/not your current password/);
+
+    await page.getByLabel('Current password').fill(person.password);
+    await page.getByRole('button', { name: 'Save the new password' }).click();
+    await page.waitForURL(/\/signin\?notice=password-changed/);
+    await expect(page.getByTestId('sign-in-notice').textContent()).resolves.toMatch(/password was changed/);
+    await signIn(next);
+    await page.waitForURL(`${BASE_URL}/`);
     await context.close();
   });
 });

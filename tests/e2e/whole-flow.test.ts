@@ -85,7 +85,7 @@ describe('a whole session, as the studio works it', () => {
     await producer.getByRole('button', { name: 'Send to recipients' }).click();
     // The report goes through the outbox: the line says so, then that it was sent.
     await producer.getByTestId('report-result').filter({ hasText: 'Report sent to' }).waitFor();
-    await expect(producer.getByTestId('report-result').textContent()).resolves.toBe(`✓ Report sent to ${to}.`);
+    await expect(producer.getByTestId('report-result').textContent()).resolves.toBe(`✉Report sent to ${to}.`);
     await screenshot(producer, 'flow-5-report-sent');
     await producer.context().close();
 

@@ -144,6 +144,8 @@ const MATRIX: Record<string, Row> = {
   'PATCH /api/users/[id]': { path: (f) => `/api/users/${f.inviteeId}`, body: () => ({ role: 'producer' }), expect: managersObject },
   'POST /api/users/[id]/invitation': { path: (f) => `/api/users/${f.inviteeId}/invitation`, expect: { ...managersObject, manager: 202 } },
   // Needs no sign-in, only a valid invitation token: an unknown one is refused alike for everyone.
+  // A new password too short to keep: refused before the current one is checked, so no sign-in failure is counted and nobody is signed out.
+  'POST /api/account/password': { path: () => '/api/account/password', body: () => ({ current: 'not-checked', password: 'short', confirm: 'short' }), expect: { anonymous: 401, outsider: 400, engineer: 400, producer: 400, manager: 400 } },
   'POST /api/invitations/accept': { path: () => '/api/invitations/accept', body: () => ({ token: 'A'.repeat(43), password: 'long-enough-password' }), expect: { anonymous: 400, outsider: 400, engineer: 400, producer: 400, manager: 400 } },
 
   'POST /api/deliveries/[id]/retry': { path: (f) => `/api/deliveries/${f.deliveryId}/retry`, expect: { anonymous: 401, outsider: 404, engineer: 403, producer: 409, manager: 409 } },

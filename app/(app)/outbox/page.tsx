@@ -2,7 +2,9 @@ import type { Metadata } from 'next';
 import Link from 'next/link';
 import { requireActor } from '@/lib/auth/guard.server';
 import { outboxOverview } from '@/lib/mail/outbox.server';
-import { DELIVERY_STATUS, type DeliveryView } from '@/lib/mail/views';
+import type { DeliveryView } from '@/lib/mail/views';
+import { MAIL_STATUS } from '@/lib/status';
+import { StatusMark } from '@/components/StatusMarks';
 import { loadPage } from '@/lib/http/pages.server';
 import { formatDateTime } from '@/lib/format';
 
@@ -42,9 +44,8 @@ export default async function OutboxPage() {
                 {deliveries.map((d) => (
                   <tr key={d.id} className="border-t border-line align-top">
                     <td className="whitespace-nowrap px-4 py-2 font-mono">{formatDateTime(d.createdAt)}</td>
-                    <td className={`whitespace-nowrap px-4 py-2 font-semibold ${DELIVERY_STATUS[d.status].tone}`}>
-                      <span aria-hidden="true">{DELIVERY_STATUS[d.status].mark} </span>
-                      {DELIVERY_STATUS[d.status].word}
+                    <td className="whitespace-nowrap px-4 py-2">
+                      <StatusMark status={MAIL_STATUS[d.status]} />
                     </td>
                     <td className="break-all px-4 py-2">{d.recipients.join(', ')}</td>
                     <td className="px-4 py-2">{d.subject}</td>
