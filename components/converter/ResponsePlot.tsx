@@ -1,12 +1,11 @@
 'use client';
 
-import { useEffect, useRef } from 'react';
-import uPlot from 'uplot';
-import 'uplot/dist/uPlot.min.css';
+import { useMemo } from 'react';
 import type { ConverterReport } from '@/dsp/converter/report';
 import { channelName, formatKhz } from '@/lib/format';
 import { comparable } from '@/lib/converterChecks/figures';
-import { useThemeColors, type ThemeColors } from '../review/useThemeColors';
+import { UplotChart, chartAxis, decadeLabel, type ChartBuild } from '@/components/charts/UplotChart';
+import type { ThemeColors } from '@/components/charts/useThemeColors';
 
 const TOKENS = ['accent', 'ink', 'warn', 'pass', 'fail', 'muted'] as const;
 const DASHES: (number[] | undefined)[] = [undefined, [8, 4], [2, 3], [10, 3, 2, 3]];
@@ -14,13 +13,6 @@ const DASHES: (number[] | undefined)[] = [undefined, [8, 4], [2, 3], [10, 3, 2, 
 const FLOOR_DB = -30;
 
 const hzLabel = (hz: number) => (hz >= 1000 ? formatKhz(Math.round(hz / 10) * 10) : `${Math.round(hz)} Hz`);
-
-/** Labels 1, 2 and 5 × 10ⁿ Hz on the logarithmic axis; the other grid lines stay unlabelled. */
-function tickLabel(hz: number | null): string {
-  if (hz === null || !(hz > 0)) return '';
-  const lead = hz / 10 ** Math.floor(Math.log10(hz) + 1e-9);
-  return [1, 2, 5].some((d) => Math.abs(lead - d) < 1e-6) ? hzLabel(hz) : '';
-}
 
 function seriesOf(report: ConverterReport, baseline: ConverterReport | null, colors: ThemeColors) {
   const count = report.channels.length;
@@ -40,49 +32,33 @@ function seriesOf(report: ConverterReport, baseline: ConverterReport | null, col
   return { grid, lines };
 }
 
+const buildResponse: ChartBuild<{ report: ConverterReport; baseline: ConverterReport | null }> = ({ report, baseline }, colors, width) => {
+  const { grid, lines } = seriesOf(report, baseline, colors);
+  const all = lines.flatMap((l) => l.values).filter((v): v is number => v !== null);
+  const top = Math.max(3, Math.ceil(Math.max(...all)));
+  const bottom = Math.max(FLOOR_DB, Math.floor(Math.min(...all)));
+  return {
+    data: [grid, ...lines.map((l) => l.values)],
+    options: {
+      width,
+      height: 280,
+      scales: { x: { time: false, distr: 3 }, y: { range: [bottom, top] } },
+      axes: [chartAxis(colors, 'Frequency (Hz, log scale)', { values: (_u, ticks) => ticks.map(decadeLabel) }), chartAxis(colors, 'dB re 997 Hz', { size: 56 })],
+      series: [
+        { label: 'Frequency', value: (_u, v) => (v == null ? '—' : hzLabel(v)) },
+        ...lines.map((l) => ({ label: l.label, stroke: l.stroke, width: l.width, dash: l.dash, spanGaps: true, points: { show: false }, value: (_u: unknown, v: number | null) => (v == null ? '—' : `${v.toFixed(2)} dB`) })),
+      ],
+    },
+  };
+};
+
 /**
  * The frequency response of each channel relative to 997 Hz, on a logarithmic frequency axis,
  * with the baseline's response dashed when it was measured on the same grid. Drawn with uPlot;
  * colours from the theme, lines told apart by dash and the legend as well as colour.
  */
 export function ResponsePlot({ report, baseline }: { report: ConverterReport; baseline: ConverterReport | null }) {
-  const box = useRef<HTMLDivElement>(null);
-  const colors = useThemeColors();
-
-  useEffect(() => {
-    const el = box.current;
-    if (!el || !colors) return;
-    const { grid, lines } = seriesOf(report, baseline, colors);
-    if (grid.length === 0) return;
-    const all = lines.flatMap((l) => l.values).filter((v): v is number => v !== null);
-    const top = Math.max(3, Math.ceil(Math.max(...all)));
-    const bottom = Math.max(FLOOR_DB, Math.floor(Math.min(...all)));
-    const axis = { stroke: colors.ink, grid: { stroke: colors.line, width: 1 }, ticks: { stroke: colors.line, width: 1 }, font: '12px system-ui, sans-serif', labelFont: '12px system-ui, sans-serif' };
-    const plot = new uPlot(
-      {
-        width: Math.max(280, el.clientWidth),
-        height: 280,
-        scales: { x: { time: false, distr: 3 }, y: { range: [bottom, top] } },
-        axes: [
-          { ...axis, label: 'Frequency', values: (_u, ticks) => ticks.map(tickLabel) },
-          { ...axis, label: 'dB re 997 Hz', size: 56 },
-        ],
-        series: [
-          { label: 'Frequency', value: (_u, v) => (v == null ? '—' : hzLabel(v)) },
-          ...lines.map((l) => ({ label: l.label, stroke: l.stroke, width: l.width, dash: l.dash, spanGaps: true, points: { show: false }, value: (_u: uPlot, v: number | null) => (v == null ? '—' : `${v.toFixed(2)} dB`) })),
-        ],
-      },
-      [grid, ...lines.map((l) => l.values)] as uPlot.AlignedData,
-      el,
-    );
-    const resize = new ResizeObserver(() => plot.setSize({ width: Math.max(280, el.clientWidth), height: 280 }));
-    resize.observe(el);
-    return () => {
-      resize.disconnect();
-      plot.destroy();
-    };
-  }, [report, baseline, colors]);
-
+  const source = useMemo(() => ({ report, baseline }), [report, baseline]);
   const count = report.channels.length;
   const grid = report.channels.find((c) => c.frequencyResponse)?.frequencyResponse?.hz ?? [];
   return (
@@ -93,7 +69,12 @@ export function ResponsePlot({ report, baseline }: { report: ConverterReport; ba
       {grid.length === 0 ? (
         <p className="text-muted">No channel carried the multitone.</p>
       ) : (
-        <div ref={box} role="img" aria-label={`Frequency response of ${count === 1 ? 'the channel' : `${count} channels`} from ${hzLabel(grid[0])} to ${hzLabel(grid[grid.length - 1])}, relative to 997 Hz`} data-testid="response-plot" />
+        <UplotChart
+          source={source}
+          build={buildResponse}
+          label={`Frequency response of ${count === 1 ? 'the channel' : `${count} channels`} from ${hzLabel(grid[0])} to ${hzLabel(grid[grid.length - 1])}, relative to 997 Hz`}
+          testId="response-plot"
+        />
       )}
       {grid.length > 0 && (
         <details className="mt-2 text-sm">

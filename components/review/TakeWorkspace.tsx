@@ -10,7 +10,7 @@ import { FindingsList } from './FindingsList';
 import { SeverityMark } from './marks';
 import { usePeaks } from './usePeaks';
 import { usePlayerKeys } from './usePlayerKeys';
-import { useThemeColors } from './useThemeColors';
+import { useThemeColors } from '@/components/charts/useThemeColors';
 import { laneHeight, useWaveform, ZOOM_STEPS } from './useWaveform';
 
 /** Monitors start quiet; a take that clips or overs starts quieter still. */

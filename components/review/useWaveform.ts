@@ -7,7 +7,7 @@ import { formatClock } from '@/lib/format';
 import type { TimedMarker } from '@/lib/review/reportView';
 import type { TakeCommentView, TakePeaks } from '@/lib/review/views';
 import { SEVERITY } from './marks';
-import type { ThemeColors } from './useThemeColors';
+import type { ThemeColors } from '@/components/charts/useThemeColors';
 
 /** Zoom levels in pixels per second; 0 fits the whole take. */
 /** Zoom as a multiple of the width that shows the whole take, so short and long takes both zoom in usefully (1: whole take). */
