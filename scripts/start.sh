@@ -21,8 +21,7 @@ PIDS=()
 cleanup() {
   trap - EXIT INT TERM
   echo; echo "Stopping Takeproof…"
-  for pid in "${PIDS[@]}"; do kill "$pid" 2>/dev/null || true; done
-  for pid in "${PIDS[@]}"; do wait "$pid" 2>/dev/null || true; done
+  stop_all_pids
   db_stop
   echo "Stopped. Your data is kept in var/."
 }

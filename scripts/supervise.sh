@@ -43,3 +43,9 @@ supervise() {
   ) &
   PIDS+=($!)
 }
+
+# Stops every process in PIDS (a supervisor stops its own process first) and waits until all have exited.
+stop_all_pids() {
+  for pid in "${PIDS[@]}"; do kill "$pid" 2>/dev/null || true; done
+  for pid in "${PIDS[@]}"; do wait "$pid" 2>/dev/null || true; done
+}

@@ -36,8 +36,7 @@ test_env_install() {
 PIDS=()
 test_env_down() {
   trap - EXIT INT TERM
-  for pid in "${PIDS[@]}"; do kill "$pid" 2>/dev/null || true; done
-  for pid in "${PIDS[@]}"; do wait "$pid" 2>/dev/null || true; done
+  stop_all_pids
   db_stop
 }
 

@@ -37,3 +37,34 @@ describe('process supervision (scripts/supervise.sh)', () => {
     await waitUntil('the supervisor has stopped', () => !existsSync(path.join(dir, 'idler.pid')));
   });
 });
+
+describe('Ctrl-C on a terminal running Takeproof', () => {
+  // As `npm start` runs: the script traps INT like start.sh, and the terminal sends SIGINT to the
+  // whole foreground process group (the script, every supervisor and every supervised process).
+  const home = mkdtempSync(path.join(os.tmpdir(), 'takeproof-ctrl-c-'));
+  const pidIn = (name: string) => (existsSync(path.join(home, `${name}.pid`)) ? Number(readFileSync(path.join(home, `${name}.pid`), 'utf8')) : 0);
+  afterAll(() => {
+    for (const name of ['first', 'second']) if (pidIn(name) && isRunning(pidIn(name))) process.kill(pidIn(name), 'SIGKILL');
+    rmSync(home, { recursive: true, force: true });
+  });
+
+  it('stops every supervised process and every supervisor, and the script exits', async () => {
+    // The second process, like a worker finishing a take, does not stop on SIGINT: its supervisor must stop it.
+    const idle = (name: string, onInterrupt = '') => `supervise ${name} "${home}/${name}.log" node -e "${onInterrupt} setInterval(() => {}, 1000)";`;
+    const startLike = `source scripts/supervise.sh; SUPERVISE_DIR="${home}"; PIDS=();
+trap stop_all_pids EXIT; trap 'exit 130' INT TERM;
+${idle('first')} ${idle('second', "process.on('SIGINT', () => {});")}
+echo "\${PIDS[*]}" > "${home}/supervisors"; wait "\${PIDS[@]}"`;
+    const terminal = spawn('bash', ['-c', startLike], { stdio: 'ignore', detached: true });
+    const exited = new Promise<number | null>((resolve) => terminal.on('exit', (code) => resolve(code)));
+    await waitUntil('both processes run', () => existsSync(path.join(home, 'supervisors')) && pidIn('first') > 0 && pidIn('second') > 0 && isRunning(pidIn('first')) && isRunning(pidIn('second')));
+    const processes = [pidIn('first'), pidIn('second')];
+    const supervisors = readFileSync(path.join(home, 'supervisors'), 'utf8').trim().split(' ').map(Number);
+
+    process.kill(-terminal.pid!, 'SIGINT');
+    await expect(exited).resolves.toBe(130);
+    await waitUntil('every process has stopped', () => [...processes, ...supervisors].every((pid) => !isRunning(pid)));
+    // Nothing was started again after the stop.
+    expect(existsSync(path.join(home, 'first.pid')) || existsSync(path.join(home, 'second.pid'))).toBe(false);
+  });
+});
