@@ -22,7 +22,9 @@ export function formatKhz(hz: number): string {
 /** A number with its unit, or an em dash when there is no value. */
 export function formatMeasure(value: number | null | undefined, decimals = 1, unit = ''): string {
   if (value == null || !Number.isFinite(value)) return '—';
-  return `${value.toFixed(decimals)}${unit ? ` ${unit}` : ''}`;
+  // A value that rounds to zero reads "0.00", never "-0.00".
+  const digits = value.toFixed(decimals).replace(/^-(?=0(\.0*)?$)/, '');
+  return `${digits}${unit ? ` ${unit}` : ''}`;
 }
 
 /** "3 dropouts", "1 dropout". */

@@ -284,7 +284,7 @@ export function measureRows(report: AnalysisReport, spec: DeliverySpec): Measure
     add({
       key: 'stereo',
       title: 'Stereo',
-      value: `correlation ${s.correlation.toFixed(2)}${s.identicalChannels ? ' · both channels identical' : ''}${s.polarityInverted ? ' · polarity inverted' : ''}${s.antiPhaseShare != null ? ` · ${Math.round(s.antiPhaseShare * 100)} % in anti-phase` : ''}`,
+      value: `correlation ${formatMeasure(s.correlation, 2)}${s.identicalChannels ? ' · both channels identical' : ''}${s.polarityInverted ? ' · polarity inverted' : ''}${s.antiPhaseShare != null ? ` · ${Math.round(s.antiPhaseShare * 100)} % in anti-phase` : ''}`,
       findings: pick('stereo', 'silent-channel'),
       explanation: s.polarityInverted
         ? 'One channel is upside down relative to the other, so the take will cancel out when played in mono.'

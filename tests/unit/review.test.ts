@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { judgeReport } from '@/dsp/findings';
 import { DEFAULT_SPEC } from '@/dsp/spec';
 import type { AnalysisReport } from '@/dsp/types';
-import { formatClock, parseClock } from '@/lib/format';
+import { formatClock, formatMeasure, parseClock } from '@/lib/format';
 import { cueTime, hearingCaution, measureRows, neighbourMarker, timedMarkers } from '@/lib/review/reportView';
 
 /** A plausible report of a 10 s stereo 24-bit take, judged by the real rules; `patch` adds the problems. */
@@ -168,6 +168,15 @@ describe('moving between findings', () => {
   it('cues a second before, never before the start', () => {
     expect(cueTime(4)).toBe(3);
     expect(cueTime(0.4)).toBe(0);
+  });
+
+  it('shows a correlation that rounds to zero as 0.00, not -0.00', () => {
+    const uncorrelated = report((r) => {
+      r.stereo!.correlation = -0.0004;
+    });
+    expect(measureRows(uncorrelated, DEFAULT_SPEC).find((r) => r.key === 'stereo')!.value).toMatch(/^correlation 0\.00\b/);
+    expect(formatMeasure(-0.04, 1, 'dB')).toBe('0.0 dB');
+    expect(formatMeasure(-0.06, 1, 'dB')).toBe('-0.1 dB');
   });
 });
 
