@@ -1,7 +1,7 @@
 'use client';
 
 import { useMemo } from 'react';
-import uPlot from 'uplot';
+import type uPlot from 'uplot';
 import { UplotChart, chartAxis, type ChartBuild } from '@/components/charts/UplotChart';
 import { formatDate, formatMeasure } from '@/lib/format';
 
@@ -15,29 +15,41 @@ export interface TrendSeries {
 
 type TrendSource = { weeks: string[]; series: TrendSeries[]; unit: string; height: number };
 
-const buildTrend: ChartBuild<TrendSource> = ({ weeks, series, unit, height }, colors, width) => ({
-  data: [weeks.map((w) => Date.parse(`${w}T00:00:00Z`) / 1000), ...series.map((s) => s.values)],
-  options: {
-    width,
-    height,
-    scales: { x: { time: true } },
-    // Weeks are UTC Mondays: draw the time axis in UTC too, so no zone west of it shows the Sunday before.
-    tzDate: (ts) => uPlot.tzDate(new Date(ts * 1000), 'Etc/UTC'),
-    axes: [chartAxis(colors, 'Week starting Monday (UTC)'), chartAxis(colors, unit, { size: 60 })],
-    series: [
-      { label: 'Week', value: (_u, v) => (v == null ? '—' : formatDate(new Date(v * 1000))) },
-      ...series.map((s) => ({
-        label: s.label,
-        stroke: colors[s.token],
-        width: 2,
-        dash: s.dash,
-        spanGaps: true,
-        points: { show: true, size: 4 },
-        value: (_u: uPlot, v: number | null) => formatMeasure(v, 1, unit),
-      })),
-    ],
-  },
-});
+/** Room one week's date label needs on the axis, CSS pixels. */
+const WEEK_LABEL_PX = 84;
+
+const buildTrend: ChartBuild<TrendSource> = ({ weeks, series, unit, height }, colors, width) => {
+  const starts = weeks.map((w) => Date.parse(`${w}T00:00:00Z`) / 1000);
+  // Ticks on the week starts themselves, every n-th one so the dates never overlap, in the app's one date format.
+  const weekTicks = (u: uPlot) => {
+    const every = Math.max(1, Math.ceil((starts.length * WEEK_LABEL_PX * devicePixelRatio) / Math.max(1, u.bbox.width)));
+    return starts.filter((_, i) => i % every === 0);
+  };
+  return {
+    data: [starts, ...series.map((s) => s.values)],
+    options: {
+      width,
+      height,
+      scales: { x: { time: true } },
+      axes: [
+        chartAxis(colors, 'Week starting Monday (UTC)', { splits: weekTicks, values: (_u, ticks) => ticks.map((t) => formatDate(new Date(t * 1000))) }),
+        chartAxis(colors, unit, { size: 60 }),
+      ],
+      series: [
+        { label: 'Week', value: (_u, v) => (v == null ? '—' : formatDate(new Date(v * 1000))) },
+        ...series.map((s) => ({
+          label: s.label,
+          stroke: colors[s.token],
+          width: 2,
+          dash: s.dash,
+          spanGaps: true,
+          points: { show: true, size: 4 },
+          value: (_u: uPlot, v: number | null) => formatMeasure(v, 1, unit),
+        })),
+      ],
+    },
+  };
+};
 
 /**
  * A weekly trend chart drawn with uPlot: time along x, the measure (with its unit) up y. Lines

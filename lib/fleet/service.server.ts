@@ -8,7 +8,7 @@ import { DEFAULT_ALERT_SETTINGS, converterAlerts, recorderAlerts, type AlertSett
 import { latestChecks, toLastCheck } from '@/lib/converterChecks/fleet.server';
 import { converterCheckIntervalDays } from '@/lib/converterChecks/service.server';
 import { findRecorder, getRecorder } from '@/lib/recorders/service.server';
-import type { FleetPeriod, FleetRow, RecentTake, RecorderTrendWeek, WeekPoint } from './views';
+import { RECENT_TAKES, type FleetPeriod, type FleetRow, type RecentTake, type RecorderTrendWeek, type WeekPoint } from './views';
 import type { Actor } from '@/lib/auth/views';
 import { jsonColumn } from '@/lib/db/jsonColumn';
 import type { Thresholds } from '@/models/DeliverySpec';
@@ -252,7 +252,7 @@ export async function recorderTrends(actor: Actor, recorderId: number, period: F
 }
 
 /** A recorder's latest measured takes (summary columns only), worst verdict first. */
-export async function recorderRecentTakes(actor: Actor, recorderId: number, limit = 20): Promise<RecentTake[]> {
+export async function recorderRecentTakes(actor: Actor, recorderId: number, limit = RECENT_TAKES): Promise<RecentTake[]> {
   await findRecorder(actor, recorderId);
   const rows = await db().query<Record<string, unknown>>(
     `SELECT t.id, t.originalName, t.measuredAt, t.noiseFloorDbfs, t.effectiveBits, t.integratedLufs, t.truePeakDbtp, t.clipEvents,

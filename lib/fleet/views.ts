@@ -72,3 +72,6 @@ export interface RecorderTrendWeek {
   medianLufs: number | null;
   p90Lufs: number | null;
 }
+
+/** How many of a recorder's latest measured takes its fleet page lists. */
+export const RECENT_TAKES = 20;

@@ -6,7 +6,7 @@ import { DecisionMark, StatusMark, VerdictMark } from '@/components/StatusMarks'
 import { requireActor } from '@/lib/auth/guard.server';
 import { recorderFleetDetail } from '@/lib/fleet/service.server';
 import { DEFAULT_ALERT_SETTINGS } from '@/lib/fleet/alerts';
-import { FLEET_PERIODS, PERIOD_LABEL, parsePeriod } from '@/lib/fleet/views';
+import { FLEET_PERIODS, PERIOD_LABEL, RECENT_TAKES, parsePeriod } from '@/lib/fleet/views';
 import { loadPage } from '@/lib/http/pages.server';
 import { idParam } from '@/lib/http/route.server';
 import { formatDateTime, formatMeasure } from '@/lib/format';
@@ -77,7 +77,7 @@ export default async function RecorderTrendsPage({ params, searchParams }: { par
 
       <section className="tp-card mt-6" aria-labelledby="recent-heading">
         <h2 id="recent-heading" className="border-b border-line p-4 text-lg font-semibold">
-          Recent takes
+          Recent takes <span className="text-sm font-normal text-muted">the newest {RECENT_TAKES}, worst first</span>
         </h2>
         {takes.length === 0 ? (
           <p className="p-4 text-muted">No measured takes from this recorder yet.</p>
