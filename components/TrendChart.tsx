@@ -2,6 +2,7 @@
 
 import { useMemo } from 'react';
 import type uPlot from 'uplot';
+import { ChartFigure } from '@/components/charts/ChartFigure';
 import { UplotChart, chartAxis, type ChartBuild } from '@/components/charts/UplotChart';
 import { formatDate, formatMeasure } from '@/lib/format';
 
@@ -57,43 +58,14 @@ const buildTrend: ChartBuild<TrendSource> = ({ weeks, series, unit, height }, co
  */
 export function TrendChart({ title, unit, weeks, series, height = 220 }: { title: string; unit: string; weeks: string[]; series: TrendSeries[]; height?: number }) {
   const source = useMemo(() => ({ weeks, series, unit, height }), [weeks, series, unit, height]);
+  const table = {
+    summary: 'The weekly figures as a table',
+    head: ['Week', ...series.map((s) => s.label)],
+    rows: weeks.map((w, i) => ({ key: w, cells: [w, ...series.map((s) => formatMeasure(s.values[i]))] })),
+  };
   return (
-    <figure className="tp-card p-4">
-      <figcaption className="mb-2 font-semibold">
-        {title} <span className="font-normal text-muted">({unit})</span>
-      </figcaption>
-      {weeks.length === 0 ? <p className="text-muted">No measured takes in this period.</p> : <UplotChart source={source} build={buildTrend} label={`${title}, ${unit}, by week`} />}
-      {weeks.length > 0 && (
-        <details className="mt-2 text-sm">
-          <summary className="cursor-pointer text-accent">The weekly figures as a table</summary>
-          <div className="max-h-64 overflow-auto">
-            <table className="mt-2 w-full text-left font-mono text-xs">
-              <thead>
-                <tr>
-                  <th scope="col" className="pr-3">Week</th>
-                  {series.map((s) => (
-                    <th key={s.label} scope="col" className="pr-3">
-                      {s.label}
-                    </th>
-                  ))}
-                </tr>
-              </thead>
-              <tbody>
-                {weeks.map((w, i) => (
-                  <tr key={w}>
-                    <td className="pr-3">{w}</td>
-                    {series.map((s) => (
-                      <td key={s.label} className="pr-3">
-                        {formatMeasure(s.values[i])}
-                      </td>
-                    ))}
-                  </tr>
-                ))}
-              </tbody>
-            </table>
-          </div>
-        </details>
-      )}
-    </figure>
+    <ChartFigure title={title} unit={unit} empty={weeks.length === 0 ? 'No measured takes in this period.' : null} table={table}>
+      <UplotChart source={source} build={buildTrend} label={`${title}, ${unit}, by week`} />
+    </ChartFigure>
   );
 }

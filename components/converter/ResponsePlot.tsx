@@ -4,6 +4,7 @@ import { useMemo } from 'react';
 import type { ConverterReport } from '@/dsp/converter/report';
 import { channelName, formatKhz } from '@/lib/format';
 import { comparable } from '@/lib/converterChecks/figures';
+import { ChartFigure } from '@/components/charts/ChartFigure';
 import { UplotChart, chartAxis, decadeLabel, type ChartBuild } from '@/components/charts/UplotChart';
 import type { ThemeColors } from '@/components/charts/useThemeColors';
 
@@ -61,52 +62,19 @@ export function ResponsePlot({ report, baseline }: { report: ConverterReport; ba
   const source = useMemo(() => ({ report, baseline }), [report, baseline]);
   const count = report.channels.length;
   const grid = report.channels.find((c) => c.frequencyResponse)?.frequencyResponse?.hz ?? [];
+  const table = {
+    summary: 'The response as a table',
+    head: ['Frequency', ...report.channels.map((_c, i) => `${channelName(i, count)} (dB)`)],
+    rows: grid.map((hz, k) => ({ key: hz, cells: [hzLabel(hz), ...report.channels.map((c) => c.frequencyResponse?.db[k]?.toFixed(2) ?? '—')] })),
+  };
   return (
-    <figure className="tp-card p-4">
-      <figcaption className="mb-2 font-semibold">
-        Frequency response <span className="font-normal text-muted">(dB relative to 997 Hz)</span>
-      </figcaption>
-      {grid.length === 0 ? (
-        <p className="text-muted">No channel carried the multitone.</p>
-      ) : (
-        <UplotChart
-          source={source}
-          build={buildResponse}
-          label={`Frequency response of ${count === 1 ? 'the channel' : `${count} channels`} from ${hzLabel(grid[0])} to ${hzLabel(grid[grid.length - 1])}, relative to 997 Hz`}
-          testId="response-plot"
-        />
-      )}
-      {grid.length > 0 && (
-        <details className="mt-2 text-sm">
-          <summary className="cursor-pointer text-accent">The response as a table</summary>
-          <div className="max-h-64 overflow-auto">
-            <table className="mt-2 w-full text-left font-mono text-xs">
-              <thead>
-                <tr>
-                  <th scope="col" className="pr-3">Frequency</th>
-                  {report.channels.map((_c, i) => (
-                    <th key={i} scope="col" className="pr-3">
-                      {channelName(i, count)} (dB)
-                    </th>
-                  ))}
-                </tr>
-              </thead>
-              <tbody>
-                {grid.map((hz, k) => (
-                  <tr key={hz}>
-                    <td className="pr-3">{hzLabel(hz)}</td>
-                    {report.channels.map((c, i) => (
-                      <td key={i} className="pr-3">
-                        {c.frequencyResponse?.db[k]?.toFixed(2) ?? '—'}
-                      </td>
-                    ))}
-                  </tr>
-                ))}
-              </tbody>
-            </table>
-          </div>
-        </details>
-      )}
-    </figure>
+    <ChartFigure title="Frequency response" unit="dB relative to 997 Hz" empty={grid.length === 0 ? 'No channel carried the multitone.' : null} table={table}>
+      <UplotChart
+        source={source}
+        build={buildResponse}
+        label={`Frequency response of ${count === 1 ? 'the channel' : `${count} channels`} from ${hzLabel(grid[0])} to ${hzLabel(grid[grid.length - 1])}, relative to 997 Hz`}
+        testId="response-plot"
+      />
+    </ChartFigure>
   );
 }
