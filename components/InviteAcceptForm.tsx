@@ -6,9 +6,10 @@ import { type ApiError, fetchJson } from '@/lib/http/fetcher';
 import type { FieldErrors } from '@/lib/errors';
 import { FormField } from './FormField';
 import { FormMessage } from '@/components/FormMessage';
+import type { LinkPurpose } from '@/models/Invitation';
 
-/** Sets the invited person's password; the account is active as soon as this succeeds. */
-export function InviteAcceptForm({ token, email, minLength }: { token: string; email: string; minLength: number }) {
+/** Sets the password a link was sent for: an invited person's first (the account is active at once), or a new one after a reset. */
+export function InviteAcceptForm({ token, email, minLength, purpose }: { token: string; email: string; minLength: number; purpose: LinkPurpose }) {
   const [fields, setFields] = useState<FieldErrors>({});
   const [error, setError] = useState<string | null>(null);
   const [busy, setBusy] = useState(false);
@@ -36,7 +37,8 @@ export function InviteAcceptForm({ token, email, minLength }: { token: string; e
     return (
       <div role="status">
         <p className="font-semibold text-pass">
-          <span aria-hidden="true">✓ </span>Your account is ready.
+          <span aria-hidden="true">✓ </span>
+          {purpose === 'reset' ? 'Your new password is set.' : 'Your account is ready.'}
         </p>
         <p className="mt-2 text-sm text-muted">Sign in with {email} and the password you just chose.</p>
         <Link href="/signin" className="tp-button mt-4">
@@ -57,7 +59,7 @@ export function InviteAcceptForm({ token, email, minLength }: { token: string; e
       </FormField>
       <FormMessage error={error} />
       <button type="submit" className="tp-button w-full justify-center" disabled={busy}>
-        {busy ? 'Saving…' : 'Set password and activate'}
+        {busy ? 'Saving…' : purpose === 'reset' ? 'Save the new password' : 'Set password and activate'}
       </button>
     </form>
   );

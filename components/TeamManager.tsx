@@ -132,12 +132,16 @@ export function TeamManager({ initial, selfId }: { initial: TeamMember[]; selfId
       return done;
     });
 
-  const resend = (u: TeamMember) =>
+  /** E-mails a person a fresh link: the invitation again, or a password reset. */
+  const sendLink = (u: TeamMember, path: 'invitation' | 'password-reset', what: string, done: string) =>
     act(u.id, async () => {
-      const { delivery } = await fetchJson<{ delivery: DeliveryView }>(`/api/users/${u.id}/invitation`, { method: 'POST' });
-      if (delivery.status !== 'sent') throw new ApiError(502, 'internal:mail', `The invitation was not sent: ${delivery.error}`);
-      return `A new invitation link was sent to ${u.email}.`;
+      const { delivery } = await fetchJson<{ delivery: DeliveryView }>(`/api/users/${u.id}/${path}`, { method: 'POST' });
+      if (delivery.status !== 'sent') throw new ApiError(502, 'internal:mail', `The ${what} was not sent: ${delivery.error}`);
+      return done;
     });
+  const resend = (u: TeamMember) => sendLink(u, 'invitation', 'invitation', `A new invitation link was sent to ${u.email}.`);
+  const sendReset = (u: TeamMember) =>
+    sendLink(u, 'password-reset', 'password reset link', `A link to choose a new password was sent to ${u.email}. Their current password works until they use it.`);
 
   return (
     <div className="grid gap-6 lg:grid-cols-[1fr_20rem]">
@@ -189,6 +193,11 @@ export function TeamManager({ initial, selfId }: { initial: TeamMember[]; selfId
                         {u.status === 'invited' && (
                           <button type="button" className="tp-button-quiet" aria-disabled={busy === u.id} onClick={() => resend(u)}>
                             Resend invitation
+                          </button>
+                        )}
+                        {u.status === 'active' && u.id !== selfId && u.id !== confirming && (
+                          <button type="button" className="tp-button-quiet" aria-disabled={busy === u.id} onClick={() => sendReset(u)}>
+                            Send password reset<span className="sr-only"> to {u.name}</span>
                           </button>
                         )}
                         {u.status === 'active' && u.id !== confirming && (

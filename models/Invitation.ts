@@ -1,7 +1,11 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
 
+export const LINK_PURPOSES = ['invite', 'reset'] as const;
+export type LinkPurpose = (typeof LINK_PURPOSES)[number];
+
 /**
- * A link that lets an invited person set their password once. Only the SHA-256 of the
+ * A link that lets an invited person set their password once, or an active person whose manager
+ * sent a reset choose a new one. Only the SHA-256 of the
  * token is stored; the token itself exists only in the e-mail.
  */
 export class Invitation extends Model<InferAttributes<Invitation>, InferCreationAttributes<Invitation>> {
@@ -10,6 +14,7 @@ export class Invitation extends Model<InferAttributes<Invitation>, InferCreation
   declare userId: number;
   declare invitedById: number | null;
   declare tokenHash: string;
+  declare purpose: CreationOptional<LinkPurpose>;
   declare expiresAt: Date;
   declare usedAt: Date | null;
   declare revokedAt: Date | null;
@@ -25,6 +30,7 @@ export function initInvitation(sequelize: Sequelize) {
       userId: { type: DataTypes.INTEGER.UNSIGNED, allowNull: false },
       invitedById: { type: DataTypes.INTEGER.UNSIGNED, allowNull: true },
       tokenHash: { type: DataTypes.CHAR(64), allowNull: false, unique: true },
+      purpose: { type: DataTypes.ENUM(...LINK_PURPOSES), allowNull: false, defaultValue: 'invite' },
       expiresAt: { type: DataTypes.DATE, allowNull: false },
       usedAt: { type: DataTypes.DATE, allowNull: true },
       revokedAt: { type: DataTypes.DATE, allowNull: true },

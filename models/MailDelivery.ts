@@ -1,6 +1,6 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
 
-export const MAIL_KINDS = ['session_report', 'invitation'] as const;
+export const MAIL_KINDS = ['session_report', 'invitation', 'password_reset'] as const;
 export type MailKind = (typeof MAIL_KINDS)[number];
 export const MAIL_STATUSES = ['queued', 'sending', 'sent', 'failed'] as const;
 export type MailStatus = (typeof MAIL_STATUSES)[number];

@@ -24,6 +24,7 @@ export default async function SignInPage({ searchParams }: { searchParams: Promi
           <h1 className="mb-4 text-xl font-semibold">Sign in</h1>
           <FormMessage notice={notice} className="mb-4" testId="sign-in-notice" />
           <SignInForm />
+          <p className="mt-4 text-sm text-muted">Forgot your password? Ask your studio manager to send you a link to choose a new one.</p>
         </div>
       </div>
     </main>

@@ -33,6 +33,8 @@ export const ACTION_WORDS: Record<string, string> = {
   'user.reactivate': 'Reactivated a person',
   'invitation.accept': 'Accepted an invitation',
   'account.password_change': 'Changed their own password',
+  'user.password_reset_send': 'Sent a password reset link',
+  'account.password_reset': 'Chose a new password from a reset link',
   'mail.retry': 'Sent an e-mail again',
 };
 

@@ -143,6 +143,8 @@ const MATRIX: Record<string, Row> = {
   'POST /api/users': { path: () => '/api/users', body: (_f, who) => ({ email: `matrix-${unique(who)}@demo.test`, name: 'Matrix invitee', role: 'engineer' }), expect: { ...managersOnly, outsider: 201, manager: 201 } },
   'PATCH /api/users/[id]': { path: (f) => `/api/users/${f.inviteeId}`, body: () => ({ role: 'producer' }), expect: managersObject },
   'POST /api/users/[id]/invitation': { path: (f) => `/api/users/${f.inviteeId}/invitation`, expect: { ...managersObject, manager: 202 } },
+  // The invitee has no password yet: a manager passes every guard and is told to resend the invitation instead.
+  'POST /api/users/[id]/password-reset': { path: (f) => `/api/users/${f.inviteeId}/password-reset`, expect: { ...managersObject, manager: 409 } },
   // Needs no sign-in, only a valid invitation token: an unknown one is refused alike for everyone.
   // A new password too short to keep: refused before the current one is checked, so no sign-in failure is counted and nobody is signed out.
   'POST /api/account/password': { path: () => '/api/account/password', body: () => ({ current: 'not-checked', password: 'short', confirm: 'short' }), expect: { anonymous: 401, outsider: 400, engineer: 400, producer: 400, manager: 400 } },

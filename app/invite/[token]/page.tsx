@@ -4,9 +4,9 @@ import { InviteAcceptForm } from '@/components/InviteAcceptForm';
 import { Wordmark } from '@/components/Wordmark';
 import { PASSWORD_MIN } from '@/lib/team/schema';
 import { checkInvitation } from '@/lib/team/service.server';
-import { INVITATION_REFUSED } from '@/lib/team/views';
+import { linkRefusal } from '@/lib/team/views';
 
-export const metadata: Metadata = { title: 'Accept invitation', referrer: 'no-referrer' };
+export const metadata: Metadata = { title: 'Set your password', referrer: 'no-referrer' };
 
 /** Outside the signed-in layout: the invitation link itself is the only credential. */
 export default async function InvitePage({ params }: { params: Promise<{ token: string }> }) {
@@ -21,18 +21,21 @@ export default async function InvitePage({ params }: { params: Promise<{ token: 
         <div className="tp-card p-6 shadow-sm">
           {check.state === 'valid' ? (
             <>
-              <h1 className="mb-2 text-xl font-semibold">{`Welcome, ${check.name}`}</h1>
+              <h1 className="mb-2 text-xl font-semibold">{check.purpose === 'reset' ? `Choose a new password, ${check.name}` : `Welcome, ${check.name}`}</h1>
               <p className="mb-4 text-sm text-muted">
-                You have been invited to {check.studio} on Takeproof. Choose a password of at least {PASSWORD_MIN} characters for <span className="font-semibold text-ink">{check.email}</span>.
+                {check.purpose === 'reset' ? `Your studio manager at ${check.studio} sent you this link. ` : `You have been invited to ${check.studio} on Takeproof. `}
+                Choose a password of at least {PASSWORD_MIN} characters for <span className="font-semibold text-ink">{check.email}</span>.
+                {check.purpose === 'reset' && ' Saving it signs you out everywhere.'}
               </p>
-              <InviteAcceptForm token={token} email={check.email} minLength={PASSWORD_MIN} />
+              <InviteAcceptForm token={token} email={check.email} minLength={PASSWORD_MIN} purpose={check.purpose} />
             </>
           ) : (
             <div role="alert">
               <h1 className="mb-2 text-xl font-semibold">
-                <span aria-hidden="true">✕ </span>This invitation cannot be used
+                <span aria-hidden="true">✕ </span>
+                {check.state !== 'unknown' && check.purpose === 'reset' ? 'This link cannot be used' : 'This invitation cannot be used'}
               </h1>
-              <p className="text-muted">{INVITATION_REFUSED[check.state]}</p>
+              <p className="text-muted">{linkRefusal(check)}</p>
               <p className="mt-4">
                 <Link href="/signin" className="text-accent underline">
                   Go to sign-in
