@@ -197,7 +197,7 @@ export function TeamManager({ initial, selfId }: { initial: TeamMember[]; selfId
                         )}
                         {u.status === 'active' && u.id !== selfId && u.id !== confirming && (
                           <button type="button" className="tp-button-quiet" aria-disabled={busy === u.id} onClick={() => sendReset(u)}>
-                            Send password reset<span className="sr-only"> to {u.name}</span>
+                            Send reset link<span className="sr-only"> to {u.name}</span>
                           </button>
                         )}
                         {u.status === 'active' && u.id !== confirming && (

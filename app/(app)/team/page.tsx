@@ -15,7 +15,7 @@ export default async function TeamPage() {
     <div>
       <h1 className="text-2xl font-semibold">Team</h1>
       <p className="mb-6 mt-1 max-w-prose text-muted">
-        Invite people by e-mail; the link lets them set a password within {INVITATION_HOURS} hours and works once. Roles decide what each person may do.
+        Invite people by e-mail; the link lets them set a password within {INVITATION_HOURS} hours and works once. Someone who forgot their password gets a link of the same kind with “Send reset link”. Roles decide what each person may do.
       </p>
       <TeamManager initial={users} selfId={actor.id} />
     </div>
