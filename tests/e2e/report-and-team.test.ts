@@ -118,5 +118,30 @@ describe('inviting a person through the team page', () => {
     await invitePage.waitForURL(`${BASE_URL}/`);
     await expect(invitePage.getByRole('heading', { level: 1 }).textContent()).resolves.toBe('Hello, Juno');
     await guest.close();
+
+    // Juno forgets the password: the manager sends a reset link from the team page, and it sets a new one.
+    const desk = await browser.newContext();
+    const managerPage = await desk.newPage();
+    await signInAs(managerPage, 'manager');
+    await managerPage.goto(`${BASE_URL}/team`);
+    await managerPage.getByRole('button', { name: 'Send reset link to Juno Halvorsen' }).click();
+    await expect.poll(() => managerPage.getByTestId('team-notice').textContent()).toContain(`A link to choose a new password was sent to ${email}.`);
+    await desk.close();
+    await expect.poll(async () => (await mailTo(email)).mail.subject).toMatch(/Choose a new password/);
+    const resetLink = /(http:\/\/\S+\/invite\/[A-Za-z0-9_-]{43})/.exec((await mailTo(email)).mail.text ?? '')![1];
+    const later = await browser.newContext();
+    const resetPage = await later.newPage();
+    await resetPage.goto(resetLink);
+    await expect(resetPage.getByRole('heading', { level: 1 }).textContent()).resolves.toBe('Choose a new password, Juno Halvorsen');
+    await resetPage.getByLabel('New password').fill('talkback-button-7');
+    await resetPage.getByLabel('Repeat the password').fill('talkback-button-7');
+    await resetPage.getByRole('button', { name: 'Save the new password' }).click();
+    await resetPage.getByText('Your new password is set.').waitFor();
+    await resetPage.getByRole('link', { name: 'Sign in' }).click();
+    await resetPage.getByLabel('E-mail').fill(email);
+    await resetPage.getByLabel('Password').fill('talkback-button-7');
+    await resetPage.getByRole('button', { name: 'Sign in' }).click();
+    await resetPage.waitForURL(`${BASE_URL}/`);
+    await later.close();
   });
 });
