@@ -1,6 +1,7 @@
 'use client';
 
 import Link from 'next/link';
+import { DataTable } from './DataTable';
 import { useState } from 'react';
 import useSWR from 'swr';
 import { type ApiError } from '@/lib/http/fetcher';
@@ -42,36 +43,22 @@ export function SessionList() {
         <p className="p-6 text-muted">{q || status !== 'all' ? 'No session matches this search.' : 'No sessions yet. Start one with the form on this page.'}</p>
       )}
       {sessions.length > 0 && (
-        <div className="overflow-x-auto">
-          <table className="w-full text-left text-sm">
-            <thead className="bg-sunken text-muted">
-              <tr>
-                <th scope="col" className="px-4 py-2 font-semibold">Title</th>
-                <th scope="col" className="px-4 py-2 font-semibold">Show / client</th>
-                <th scope="col" className="px-4 py-2 font-semibold">Date</th>
-                <th scope="col" className="px-4 py-2 font-semibold">Room</th>
-                <th scope="col" className="px-4 py-2 font-semibold">Takes</th>
-                <th scope="col" className="px-4 py-2 font-semibold">Status</th>
-              </tr>
-            </thead>
-            <tbody>
-              {sessions.map((s) => (
-                <tr key={s.id} className="border-t border-line">
-                  <td className="px-4 py-2">
-                    <Link href={`/sessions/${s.id}`} className="font-semibold text-accent underline-offset-2 hover:underline">
-                      {s.title}
-                    </Link>
-                  </td>
-                  <td className="px-4 py-2">{s.client ?? '—'}</td>
-                  <td className="px-4 py-2 font-mono">{s.recordedOn ?? '—'}</td>
-                  <td className="px-4 py-2">{s.room ?? '—'}</td>
-                  <td className="px-4 py-2 font-mono">{s.takeCount}</td>
-                  <td className="px-4 py-2"><StatusMark status={SESSION_STATUS[s.status]} className="font-normal" /></td>
-                </tr>
-              ))}
-            </tbody>
-          </table>
-        </div>
+        <DataTable head={['Title', 'Show / client', 'Date', 'Room', 'Takes', 'Status']} empty={null}>
+          {sessions.map((s) => (
+            <tr key={s.id} className="border-t border-line">
+              <td className="px-4 py-2">
+                <Link href={`/sessions/${s.id}`} className="font-semibold text-accent underline-offset-2 hover:underline">
+                  {s.title}
+                </Link>
+              </td>
+              <td className="px-4 py-2">{s.client ?? '—'}</td>
+              <td className="px-4 py-2 font-mono">{s.recordedOn ?? '—'}</td>
+              <td className="px-4 py-2">{s.room ?? '—'}</td>
+              <td className="px-4 py-2 font-mono">{s.takeCount}</td>
+              <td className="px-4 py-2"><StatusMark status={SESSION_STATUS[s.status]} className="font-normal" /></td>
+            </tr>
+          ))}
+        </DataTable>
       )}
     </section>
   );

@@ -1,5 +1,6 @@
 import type { Metadata } from 'next';
 import Link from 'next/link';
+import { DataTable } from '@/components/DataTable';
 import { requireActor } from '@/lib/auth/guard.server';
 import { auditFilterOptions, listAuditEvents } from '@/lib/audit/log.server';
 import { loadPage } from '@/lib/http/pages.server';
@@ -83,37 +84,20 @@ export default async function AuditLogPage({ searchParams }: { searchParams: Pro
         <h2 id="events" className="border-b border-line p-4 text-lg font-semibold">
           {result.total} {result.total === 1 ? 'event' : 'events'}, newest first
         </h2>
-        {result.events.length === 0 ? (
-          <p className="p-6 text-muted">No event matches these filters.</p>
-        ) : (
-          <div className="overflow-x-auto">
-            <table className="w-full text-left text-sm">
-              <thead className="bg-sunken text-muted">
-                <tr>
-                  <th scope="col" className="px-4 py-2 font-semibold">When (UTC)</th>
-                  <th scope="col" className="px-4 py-2 font-semibold">Person</th>
-                  <th scope="col" className="px-4 py-2 font-semibold">Action</th>
-                  <th scope="col" className="px-4 py-2 font-semibold">Object</th>
-                  <th scope="col" className="px-4 py-2 font-semibold">Details</th>
-                </tr>
-              </thead>
-              <tbody>
-                {result.events.map((e) => (
-                  <tr key={e.id} className="border-t border-line align-top">
-                    <td className="whitespace-nowrap px-4 py-2 font-mono">{formatDateTime(e.at)}</td>
-                    <td className="px-4 py-2">{e.actor?.name ?? '—'}</td>
-                    <td className="px-4 py-2">{actionWords(e.action)}</td>
-                    <td className="px-4 py-2">
-                      {subjectWords(e.subjectType)}
-                      {e.subjectName ? ` “${e.subjectName}”` : ''}
-                    </td>
-                    <td className="break-words px-4 py-2 text-muted">{detailWords(e.action, e.detail)}</td>
-                  </tr>
-                ))}
-              </tbody>
-            </table>
-          </div>
-        )}
+        <DataTable head={['When (UTC)', 'Person', 'Action', 'Object', 'Details']} empty={result.events.length === 0 ? 'No event matches these filters.' : null}>
+          {result.events.map((e) => (
+            <tr key={e.id} className="border-t border-line align-top">
+              <td className="whitespace-nowrap px-4 py-2 font-mono">{formatDateTime(e.at)}</td>
+              <td className="px-4 py-2">{e.actor?.name ?? '—'}</td>
+              <td className="px-4 py-2">{actionWords(e.action)}</td>
+              <td className="px-4 py-2">
+                {subjectWords(e.subjectType)}
+                {e.subjectName ? ` “${e.subjectName}”` : ''}
+              </td>
+              <td className="break-words px-4 py-2 text-muted">{detailWords(e.action, e.detail)}</td>
+            </tr>
+          ))}
+        </DataTable>
         <nav aria-label="Pages" className="flex items-center gap-3 border-t border-line p-4 text-sm">
           {result.page > 1 ? <Link className="tp-button-quiet" href={pageHref(result.page - 1)}>← Newer</Link> : null}
           <span className="text-muted">Page {result.page} of {result.pages}</span>

@@ -1,5 +1,6 @@
 import type { Metadata } from 'next';
 import Link from 'next/link';
+import { DataTable } from '@/components/DataTable';
 import { requireActor } from '@/lib/auth/guard.server';
 import { outboxOverview } from '@/lib/mail/outbox.server';
 import type { DeliveryView } from '@/lib/mail/views';
@@ -26,74 +27,41 @@ export default async function OutboxPage() {
         <h2 id="outgoing" className="border-b border-line p-4 text-lg font-semibold">
           Outgoing e-mail
         </h2>
-        {deliveries.length === 0 ? (
-          <p className="p-6 text-muted">Nothing has been sent yet.</p>
-        ) : (
-          <div className="overflow-x-auto">
-            <table className="w-full text-left text-sm" data-testid="outgoing-mail">
-              <thead className="bg-sunken text-muted">
-                <tr>
-                  <th scope="col" className="px-4 py-2 font-semibold">Created (UTC)</th>
-                  <th scope="col" className="px-4 py-2 font-semibold">Status</th>
-                  <th scope="col" className="px-4 py-2 font-semibold">To</th>
-                  <th scope="col" className="px-4 py-2 font-semibold">Subject</th>
-                  <th scope="col" className="px-4 py-2 font-semibold">Note</th>
-                </tr>
-              </thead>
-              <tbody>
-                {deliveries.map((d) => (
-                  <tr key={d.id} className="border-t border-line align-top">
-                    <td className="whitespace-nowrap px-4 py-2 font-mono">{formatDateTime(d.createdAt)}</td>
-                    <td className="whitespace-nowrap px-4 py-2">
-                      <StatusMark status={MAIL_STATUS[d.status]} />
-                    </td>
-                    <td className="break-all px-4 py-2">{d.recipients.join(', ')}</td>
-                    <td className="px-4 py-2">{d.subject}</td>
-                    <td className="px-4 py-2">
-                      <DeliveryNote d={d} />
-                    </td>
-                  </tr>
-                ))}
-              </tbody>
-            </table>
-          </div>
-        )}
+        <DataTable head={['Created (UTC)', 'Status', 'To', 'Subject', 'Note']} empty={deliveries.length === 0 ? 'Nothing has been sent yet.' : null} testId="outgoing-mail">
+          {deliveries.map((d) => (
+            <tr key={d.id} className="border-t border-line align-top">
+              <td className="whitespace-nowrap px-4 py-2 font-mono">{formatDateTime(d.createdAt)}</td>
+              <td className="whitespace-nowrap px-4 py-2">
+                <StatusMark status={MAIL_STATUS[d.status]} />
+              </td>
+              <td className="break-all px-4 py-2">{d.recipients.join(', ')}</td>
+              <td className="px-4 py-2">{d.subject}</td>
+              <td className="px-4 py-2">
+                <DeliveryNote d={d} />
+              </td>
+            </tr>
+          ))}
+        </DataTable>
       </section>
       <p className="mb-3 max-w-prose text-muted">As the local mail catcher received it; nothing below has left this machine.</p>
       <section className="tp-card" aria-labelledby="caught">
         <h2 id="caught" className="border-b border-line p-4 text-lg font-semibold">
           {messages.length} {messages.length === 1 ? 'message' : 'messages'}
         </h2>
-        {messages.length === 0 ? (
-          <p className="p-6 text-muted">No e-mail has been caught yet.</p>
-        ) : (
-          <div className="overflow-x-auto">
-            <table className="w-full text-left text-sm">
-              <thead className="bg-sunken text-muted">
-                <tr>
-                  <th scope="col" className="px-4 py-2 font-semibold">Received (UTC)</th>
-                  <th scope="col" className="px-4 py-2 font-semibold">To</th>
-                  <th scope="col" className="px-4 py-2 font-semibold">Subject</th>
-                  <th scope="col" className="px-4 py-2 font-semibold">Attachments</th>
-                </tr>
-              </thead>
-              <tbody>
-                {messages.map((m) => (
-                  <tr key={m.id} className="border-t border-line align-top">
-                    <td className="whitespace-nowrap px-4 py-2 font-mono">{formatDateTime(m.receivedAt)}</td>
-                    <td className="break-all px-4 py-2">{m.to.join(', ')}</td>
-                    <td className="px-4 py-2">
-                      <Link href={`/outbox/${m.id}`} className="font-semibold text-accent hover:underline">
-                        {m.subject || '(no subject)'}
-                      </Link>
-                    </td>
-                    <td className="px-4 py-2">{m.attachments.length ? m.attachments.map((a) => a.filename).join(', ') : '—'}</td>
-                  </tr>
-                ))}
-              </tbody>
-            </table>
-          </div>
-        )}
+        <DataTable head={['Received (UTC)', 'To', 'Subject', 'Attachments']} empty={messages.length === 0 ? 'No e-mail has been caught yet.' : null}>
+          {messages.map((m) => (
+            <tr key={m.id} className="border-t border-line align-top">
+              <td className="whitespace-nowrap px-4 py-2 font-mono">{formatDateTime(m.receivedAt)}</td>
+              <td className="break-all px-4 py-2">{m.to.join(', ')}</td>
+              <td className="px-4 py-2">
+                <Link href={`/outbox/${m.id}`} className="font-semibold text-accent hover:underline">
+                  {m.subject || '(no subject)'}
+                </Link>
+              </td>
+              <td className="px-4 py-2">{m.attachments.length ? m.attachments.map((a) => a.filename).join(', ') : '—'}</td>
+            </tr>
+          ))}
+        </DataTable>
       </section>
     </div>
   );

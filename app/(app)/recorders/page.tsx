@@ -1,5 +1,6 @@
 import type { Metadata } from 'next';
 import Link from 'next/link';
+import { DataTable } from '@/components/DataTable';
 import { RecorderForm } from '@/components/RecorderForm';
 import { requireActor } from '@/lib/auth/guard.server';
 import { loadPage } from '@/lib/http/pages.server';
@@ -29,40 +30,22 @@ export default async function RecordersPage({ searchParams }: { searchParams: Pr
               {showRetired ? 'Hide retired' : 'Show retired'}
             </Link>
           </div>
-          {recorders.length === 0 ? (
-            <p className="p-6 text-muted">No recorders yet. Add the first with the form on this page.</p>
-          ) : (
-            <div className="overflow-x-auto">
-              <table className="w-full text-left text-sm">
-                <thead className="bg-sunken text-muted">
-                  <tr>
-                    <th scope="col" className="px-4 py-2 font-semibold">Label</th>
-                    <th scope="col" className="px-4 py-2 font-semibold">Make and model</th>
-                    <th scope="col" className="px-4 py-2 font-semibold">Location</th>
-                    <th scope="col" className="px-4 py-2 font-semibold">Match text</th>
-                    <th scope="col" className="px-4 py-2 font-semibold">Takes</th>
-                    <th scope="col" className="px-4 py-2 font-semibold">Status</th>
-                  </tr>
-                </thead>
-                <tbody>
-                  {recorders.map((r) => (
-                    <tr key={r.id} className="border-t border-line">
-                      <td className="px-4 py-2">
-                        <Link href={`/recorders/${r.id}`} className="font-semibold text-accent underline-offset-2 hover:underline">
-                          {r.label}
-                        </Link>
-                      </td>
-                      <td className="px-4 py-2">{r.makeModel ?? '—'}</td>
-                      <td className="px-4 py-2">{r.location ?? '—'}</td>
-                      <td className="px-4 py-2 font-mono">{r.bextMatch ?? '—'}</td>
-                      <td className="px-4 py-2 font-mono">{r.takeCount}</td>
-                      <td className="px-4 py-2"><StatusMark status={RECORDER_STATUS[r.active ? 'active' : 'retired']} className="font-normal" /></td>
-                    </tr>
-                  ))}
-                </tbody>
-              </table>
-            </div>
-          )}
+          <DataTable head={['Label', 'Make and model', 'Location', 'Match text', 'Takes', 'Status']} empty={recorders.length === 0 ? 'No recorders yet. Add the first with the form on this page.' : null}>
+            {recorders.map((r) => (
+              <tr key={r.id} className="border-t border-line">
+                <td className="px-4 py-2">
+                  <Link href={`/recorders/${r.id}`} className="font-semibold text-accent underline-offset-2 hover:underline">
+                    {r.label}
+                  </Link>
+                </td>
+                <td className="px-4 py-2">{r.makeModel ?? '—'}</td>
+                <td className="px-4 py-2">{r.location ?? '—'}</td>
+                <td className="px-4 py-2 font-mono">{r.bextMatch ?? '—'}</td>
+                <td className="px-4 py-2 font-mono">{r.takeCount}</td>
+                <td className="px-4 py-2"><StatusMark status={RECORDER_STATUS[r.active ? 'active' : 'retired']} className="font-normal" /></td>
+              </tr>
+            ))}
+          </DataTable>
         </section>
         <section className="tp-card p-4" aria-labelledby="new-recorder">
           <h2 id="new-recorder" className="mb-3 text-lg font-semibold">
