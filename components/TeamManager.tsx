@@ -192,7 +192,7 @@ export function TeamManager({ initial, selfId }: { initial: TeamMember[]; selfId
                       <div className="flex flex-wrap gap-2">
                         {u.status === 'invited' && (
                           <button type="button" className="tp-button-quiet" aria-disabled={busy === u.id} onClick={() => resend(u)}>
-                            Resend invitation
+                            Resend invitation<span className="sr-only"> to {u.name}</span>
                           </button>
                         )}
                         {u.status === 'active' && u.id !== selfId && u.id !== confirming && (
@@ -202,7 +202,7 @@ export function TeamManager({ initial, selfId }: { initial: TeamMember[]; selfId
                         )}
                         {u.status === 'active' && u.id !== confirming && (
                           <button type="button" className="tp-button-quiet" aria-disabled={busy === u.id} onClick={() => setConfirming(u.id)}>
-                            Deactivate
+                            Deactivate<span className="sr-only"> {u.name}</span>
                           </button>
                         )}
                         {u.status === 'active' && u.id === confirming && (
@@ -226,7 +226,7 @@ export function TeamManager({ initial, selfId }: { initial: TeamMember[]; selfId
                         )}
                         {u.status === 'deactivated' && (
                           <button type="button" className="tp-button-quiet" aria-disabled={busy === u.id} onClick={() => patch(u, { active: true }, `${u.name} can sign in again.`)}>
-                            Reactivate
+                            Reactivate<span className="sr-only"> {u.name}</span>
                           </button>
                         )}
                       </div>
