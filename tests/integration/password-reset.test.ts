@@ -104,4 +104,15 @@ describe('a password reset link from the studio manager', () => {
     expect(refused.status).toBe(409);
     expect((await refused.json()).error).toBe('conflict:not_active');
   });
+
+  it('stops working once the person changes the password themselves', async () => {
+    const person = await newPerson(manager.studioId, 'engineer', 'remembered');
+    expect((await sendReset(person.id)).status).toBe(202);
+    const [token] = await resetLinks(person.email, 1);
+    const session = await signedInAs(person);
+    const changed = await session.fetch('/api/account/password', { method: 'POST', json: { current: person.password, password: 'remembered-after-all', confirm: 'remembered-after-all' } });
+    expect(changed.status).toBe(200);
+    expect((await accept(token, 'link-from-before-change')).status).toBe(400);
+    expect(await canSignIn(person.email, 'remembered-after-all')).toBe(true);
+  });
 });
