@@ -49,13 +49,14 @@ describe('changing one’s own password', () => {
 
   it('refuses a wrong current password by name, keeps the session, and counts it as a failed sign-in', async () => {
     const person = await newPerson(studioId, 'engineer', 'guesser');
-    const session = await signedInAs(person, '127.0.0.7');
+    // An address no other test file uses: the failures below count against it.
+    const session = await signedInAs(person, '127.0.0.8');
     const wrong = await change(session, { current: 'not-my-password', password: 'another-long-password', confirm: 'another-long-password' });
     expect(wrong.status).toBe(400);
     expect((await wrong.json()).fields).toEqual({ current: ['That is not your current password.'] });
     expect((await session.fetch('/api/sessions')).status).toBe(200);
     const failures = await testDb.query('SELECT address FROM sign_in_failures WHERE email = ?', [person.email]);
-    expect(failures.map((r: { address: string }) => r.address)).toEqual(['127.0.0.7']);
+    expect(failures.map((r: { address: string }) => r.address)).toEqual(['127.0.0.8']);
 
     // Four more wrong guesses use up the account's allowance at this address: even the right password now waits.
     for (let i = 0; i < 4; i++) expect((await change(session, { current: `guess-${i}`, password: 'another-long-password', confirm: 'another-long-password' })).status).toBe(400);
