@@ -37,7 +37,7 @@ describe('changing one’s own password', () => {
     expect((await laptop.fetch('/api/sessions')).status).toBe(401);
     expect((await phone.fetch('/api/sessions')).status).toBe(401);
 
-    const withOld = new Client();
+    const withOld = new Client(BASE_URL, '127.0.0.8');
     await withOld.signIn(person.email, person.password);
     expect(withOld.hasSession()).toBe(false);
     const withNew = await signedInAs({ ...person, password: next });
