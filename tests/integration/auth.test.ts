@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { Client, DEMO, signedIn } from '../support/http';
+import { BASE_URL, Client, DEMO, signedIn } from '../support/http';
 
 describe('sign-in', () => {
   it('gives each demo account a session carrying its role and studio', async () => {
@@ -17,7 +17,8 @@ describe('sign-in', () => {
   });
 
   it('refuses a wrong password with no session cookie', async () => {
-    const client = new Client();
+    // Failures come from an address of their own, so they count against nobody else's sign-ins.
+    const client = new Client(BASE_URL, '127.0.0.10');
     const response = await client.signIn(DEMO.engineer, 'not-the-password');
     expect(response.status).toBe(401);
     expect(client.hasSession()).toBe(false);
@@ -25,7 +26,7 @@ describe('sign-in', () => {
   });
 
   it('refuses an unknown account the same way as a wrong password', async () => {
-    const client = new Client();
+    const client = new Client(BASE_URL, '127.0.0.10');
     const response = await client.signIn('nobody@demo.test', 'whatever');
     expect(response.status).toBe(401);
     expect(client.hasSession()).toBe(false);
@@ -53,7 +54,7 @@ describe('sign-in', () => {
 
 describe('failed sign-in limits', () => {
   it('answers 429 with Retry-After once an account has failed five times, even with the right password', async () => {
-    const client = new Client();
+    const client = new Client(BASE_URL, '127.0.0.10');
     // An account of its own, so other tests' sign-ins are not affected.
     const email = 'locked-out-probe@demo.test';
     for (let i = 0; i < 5; i++) expect((await client.signIn(email, `wrong-${i}`)).status).toBe(401);
