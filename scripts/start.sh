@@ -29,7 +29,12 @@ trap cleanup EXIT
 trap 'exit 130' INT TERM
 
 mkdir -p var
+# Each process is kept running by its own supervisor: a crashed worker, mail catcher or S3 stand-in
+# is started again (with a log line) while the web server keeps serving.
+export SUPERVISE_DIR=var/run
 db_start
+# The bucket first: seeding stores the demo recordings in it.
+[ "${STORAGE_DRIVER:-s3}" = s3 ] && [ -n "${S3_FAKE_DIR:-}" ] && start_s3_fake -
 run_ts scripts/migrate.ts
 [ -f scripts/make-samples.ts ] && run_ts scripts/make-samples.ts samples
 run_ts scripts/seed.ts
@@ -40,12 +45,8 @@ if [ ! -f .next/BUILD_ID ] || [ -n "$(find app components lib models dsp public 
   npx next build > var/build.log 2>&1 || { tail -40 var/build.log; echo "The build failed; the full log is in var/build.log" >&2; exit 1; }
 fi
 
-# Each process is kept running by its own supervisor: a crashed worker or mail catcher is started
-# again (with a log line) while the web server keeps serving.
-export SUPERVISE_DIR=var/run
 node scripts/build-engine.mjs --if-stale
 supervise mail-catcher - "${RUN_TS[@]}" scripts/mail-catcher.ts
-[ "${STORAGE_DRIVER:-s3}" = s3 ] && [ -n "${S3_FAKE_DIR:-}" ] && start_s3_fake -
 supervise worker - "${WORKER[@]}"
 supervise web - node --import tsx scripts/web-server.ts
 
