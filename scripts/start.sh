@@ -39,6 +39,7 @@ run_ts scripts/migrate.ts
 [ -f scripts/make-samples.ts ] && run_ts scripts/make-samples.ts samples
 run_ts scripts/seed.ts
 run_ts scripts/seed-converter-checks.ts
+run_ts scripts/seed-demo-takes.ts samples
 
 if [ ! -f .next/BUILD_ID ] || [ -n "$(find app components lib models dsp public next.config.mjs tailwind.config.ts package-lock.json -newer .next/BUILD_ID -print -quit 2>/dev/null)" ]; then
   echo "Building the web app…"
