@@ -3,8 +3,9 @@
 // and queue them, so a first look finds takes measured by the worker and waiting for review. A
 // session that already has takes is left alone.
 import { createHash } from 'node:crypto';
-import { createReadStream, readdirSync, readFileSync, statSync } from 'node:fs';
+import { readdirSync, readFileSync } from 'node:fs';
 import path from 'node:path';
+import { Readable } from 'node:stream';
 import { db } from '@/lib/db/connection.server';
 import { DEMO_STUDIO_NAME } from '@/lib/db/demo.server';
 import { plural } from '@/lib/format';
@@ -26,10 +27,10 @@ try {
   } else {
     const files = [];
     for (const name of readdirSync(samplesDir).filter((n) => n.endsWith('.wav')).sort()) {
-      const file = path.join(samplesDir, name);
+      const body = readFileSync(path.join(samplesDir, name));
       const key = newTakeKey();
-      await storage().put(key, createReadStream(file));
-      files.push({ key, originalName: name, bytes: statSync(file).size, sha256: createHash('sha256').update(readFileSync(file)).digest('hex') });
+      await storage().put(key, Readable.from([body]));
+      files.push({ key, originalName: name, bytes: body.length, sha256: createHash('sha256').update(body).digest('hex') });
     }
     const actor = { id: engineer.id, studioId: studio.id, role: engineer.role, name: engineer.name, email: engineer.email };
     await recordTakes(actor, session.id, files, null);
