@@ -4,7 +4,7 @@ import Link from 'next/link';
 import { useState } from 'react';
 import { type ApiError, fetchJson } from '@/lib/http/fetcher';
 import type { FieldErrors } from '@/lib/errors';
-import { FormField } from './FormField';
+import { NewPasswordFields } from './NewPasswordFields';
 import { FormMessage } from '@/components/FormMessage';
 import type { LinkPurpose } from '@/models/Invitation';
 
@@ -51,12 +51,7 @@ export function InviteAcceptForm({ token, email, minLength, purpose }: { token: 
   return (
     <form onSubmit={onSubmit} noValidate className="space-y-4" aria-label="Set your password">
       <input type="email" name="username" value={email} autoComplete="username" readOnly hidden />
-      <FormField id="password" label="New password" hint={`At least ${minLength} characters.`} errors={fields.password}>
-        <input id="password" name="password" type="password" autoComplete="new-password" minLength={minLength} required className="tp-input" aria-invalid={!!fields.password} />
-      </FormField>
-      <FormField id="confirm" label="Repeat the password" errors={fields.confirm}>
-        <input id="confirm" name="confirm" type="password" autoComplete="new-password" required className="tp-input" aria-invalid={!!fields.confirm} />
-      </FormField>
+      <NewPasswordFields fields={fields} minLength={minLength} repeatLabel="Repeat the password" />
       <FormMessage error={error} />
       <button type="submit" className="tp-button w-full justify-center" disabled={busy}>
         {busy ? 'Saving…' : purpose === 'reset' ? 'Save the new password' : 'Set password and activate'}

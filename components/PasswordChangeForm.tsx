@@ -3,6 +3,7 @@
 import { signOut } from 'next-auth/react';
 import { fetchJson } from '@/lib/http/fetcher';
 import { FormField } from './FormField';
+import { NewPasswordFields } from './NewPasswordFields';
 import { FormMessage } from './FormMessage';
 import { useApiForm } from './useApiForm';
 
@@ -25,12 +26,7 @@ export function PasswordChangeForm({ email, minLength }: { email: string; minLen
       <FormField id="current" label="Current password" errors={fields.current}>
         <input id="current" name="current" type="password" autoComplete="current-password" required className="tp-input" aria-invalid={!!fields.current} />
       </FormField>
-      <FormField id="password" label="New password" hint={`At least ${minLength} characters.`} errors={fields.password}>
-        <input id="password" name="password" type="password" autoComplete="new-password" minLength={minLength} required className="tp-input" aria-invalid={!!fields.password} />
-      </FormField>
-      <FormField id="confirm" label="Repeat the new password" errors={fields.confirm}>
-        <input id="confirm" name="confirm" type="password" autoComplete="new-password" required className="tp-input" aria-invalid={!!fields.confirm} />
-      </FormField>
+      <NewPasswordFields fields={fields} minLength={minLength} repeatLabel="Repeat the new password" />
       <FormMessage error={Object.keys(fields).length ? null : error} />
       <button type="submit" className="tp-button" disabled={busy}>
         {busy ? 'Saving…' : 'Save the new password'}
